@@ -1,0 +1,23 @@
+import type { Metadata, Viewport } from 'next';
+import '@fontsource/karla/400.css';
+import '@fontsource/karla/600.css';
+import '@fontsource/karla/700.css';
+import './globals.css';
+import { Providers } from '@/components/shell/providers';
+
+export const metadata: Metadata = {
+  title: { default: 'Ohmstead', template: '%s · Ohmstead' },
+  description: 'Stock, loans, electrical checks and money for a makerspace electronics bench.',
+};
+
+export const viewport: Viewport = { width: 'device-width', initialScale: 1 };
+
+export default function RootLayout({ children }: { children: React.ReactNode }) {
+  return (
+    <html lang="en">
+      <body className="min-h-screen font-sans">
+        <Providers>{children}</Providers>
+      </body>
+    </html>
+  );
+}

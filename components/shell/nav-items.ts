@@ -1,0 +1,21 @@
+import type { Role } from '@/db/types';
+
+export type NavItem = { href: string; label: string; roles: Role[] | 'all' };
+
+// Our own section names (see PRODUCT.md); who sees each one.
+export const NAV: NavItem[] = [
+  { href: '/today', label: 'Today', roles: 'all' },
+  { href: '/scan', label: 'Scan', roles: 'all' },
+  { href: '/bench-check', label: 'Bench check', roles: 'all' },
+  { href: '/shelf', label: 'Shelf', roles: 'all' },
+  { href: '/kits', label: 'Kits', roles: 'all' },
+  { href: '/loans', label: 'Loans', roles: 'all' },
+  { href: '/counter', label: 'Counter', roles: ['member', 'steward'] },
+  { href: '/books', label: 'Books', roles: ['treasurer'] },
+  { href: '/people', label: 'People', roles: ['admin'] },
+  { href: '/settings', label: 'Settings', roles: ['admin'] },
+];
+
+export function navFor(roles: Role[]): NavItem[] {
+  return NAV.filter((n) => n.roles === 'all' || n.roles.some((r) => roles.includes(r)));
+}

@@ -1,0 +1,23 @@
+import { Kysely, PostgresDialect } from 'kysely';
+import pg from 'pg';
+import type { Database } from './types';
+
+// bigint (count(*), bigserial) as number: our counts stay far below 2^53.
+pg.types.setTypeParser(20, (v) => Number(v));
+// date columns stay 'YYYY-MM-DD' strings: no time-zone shift.
+pg.types.setTypeParser(1082, (v) => v);
+
+/** A Kysely handle on its own pool; used by the app (db/index.ts), scripts and tests. */
+export function createDb(connectionString: string, max = 10): Kysely<Database> {
+  const pool = new pg.Pool({
+    connectionString,
+    max,
+    connectionTimeoutMillis: 3_000,
+    idleTimeoutMillis: 30_000,
+  });
+  // An idle client losing its server (PostgreSQL restart) must not crash the process.
+  pool.on('error', (err) => console.error('[db] idle client error:', err.message));
+  return new Kysely<Database>({ dialect: new PostgresDialect({ pool }) });
+}
+
+export type Db = Kysely<Database>;

@@ -1,0 +1,376 @@
+import type { ColumnType, Generated, Insertable, JSONColumnType, Selectable, Updateable } from 'kysely';
+
+// The typed shape of the schema in db/migrations. Keep in step with every migration.
+type Timestamp = ColumnType<Date, Date | string | undefined, Date | string>;
+type TimestampNullable = ColumnType<Date | null, Date | string | null | undefined, Date | string | null>;
+type Json<T = unknown> = JSONColumnType<T, T | string, T | string>;
+
+export type Role = 'member' | 'steward' | 'treasurer' | 'admin';
+export type UnitState = 'on_shelf' | 'out' | 'held' | 'in_repair' | 'retired';
+export type PartCategory =
+  | 'driver' | 'led' | 'supply' | 'heat_sink' | 'wire' | 'kit_box' | 'tool' | 'meter' | 'consumable' | 'other';
+export type ChainRole = 'supply' | 'driver' | 'led' | 'wire';
+export type LabelKind = 'unit' | 'part' | 'location' | 'kit_box';
+export type LoanStatus = 'out' | 'returned' | 'returned_short';
+export type SaleStatus = 'pending' | 'paid' | 'failed' | 'expired' | 'refunded' | 'partially_refunded' | 'reversed';
+export type MovementReason =
+  | 'receive' | 'move_in' | 'move_out' | 'adjust' | 'count' | 'loan_out' | 'loan_return' | 'lost' | 'damaged'
+  | 'repair' | 'retire' | 'sale' | 'refund' | 'kit_build';
+
+export interface SpacesTable {
+  id: Generated<string>;
+  slug: string;
+  name: string;
+  currency: Generated<string>;
+  time_zone: Generated<string>;
+  loan_days: Generated<number>;
+  closing_time: Generated<string>;
+  max_open_loans: Generated<number>;
+  reminder_days_before: Generated<number>;
+  reminder_every_days: Generated<number>;
+  label_layout: Generated<string>;
+  settings: Generated<Json<Record<string, unknown>>>;
+  created_at: Generated<Timestamp>;
+}
+
+export interface UsersTable {
+  id: Generated<string>;
+  email: string;
+  name: string;
+  password_hash: string | null;
+  disabled_at: TimestampNullable;
+  last_space_id: string | null;
+  created_at: Generated<Timestamp>;
+}
+
+export interface MembershipsTable {
+  space_id: string;
+  user_id: string;
+  roles: Role[];
+  created_at: Generated<Timestamp>;
+}
+
+export interface InvitationsTable {
+  id: Generated<string>;
+  space_id: string;
+  email: string;
+  name: string;
+  roles: Role[];
+  token_hash: string;
+  invited_by: string | null;
+  expires_at: Timestamp;
+  accepted_at: TimestampNullable;
+  created_at: Generated<Timestamp>;
+}
+
+export interface SignInTokensTable {
+  id: Generated<string>;
+  user_id: string;
+  token_hash: string;
+  expires_at: Timestamp;
+  used_at: TimestampNullable;
+  created_at: Generated<Timestamp>;
+}
+
+export interface LabelCodesTable {
+  code: string;
+  space_id: string;
+  kind: LabelKind;
+  target_id: string;
+  created_at: Generated<Timestamp>;
+}
+
+export interface LocationsTable {
+  id: Generated<string>;
+  space_id: string;
+  code: string | null;
+  name: string;
+  kind: Generated<'bin' | 'shelf' | 'drawer' | 'cabinet' | 'room'>;
+  parent_id: string | null;
+  created_at: Generated<Timestamp>;
+}
+
+export interface PartsTable {
+  id: Generated<string>;
+  space_id: string;
+  sku: string;
+  name: string;
+  category: PartCategory;
+  tracking: 'counted' | 'unit';
+  specs: Generated<Json<Record<string, unknown>>>;
+  code: string | null;
+  sellable: Generated<boolean>;
+  lendable: Generated<boolean>;
+  price_minor: number | null;
+  sale_unit: Generated<string>;
+  reorder_point: Generated<number>;
+  notes: Generated<string>;
+  archived_at: TimestampNullable;
+  created_at: Generated<Timestamp>;
+  updated_at: Generated<Timestamp>;
+}
+
+export interface StockTable {
+  space_id: string;
+  part_id: string;
+  location_id: string;
+  qty: Generated<number>;
+  updated_at: Generated<Timestamp>;
+}
+
+export interface UnitsTable {
+  id: Generated<string>;
+  space_id: string;
+  part_id: string;
+  code: string;
+  serial: string | null;
+  state: Generated<UnitState>;
+  location_id: string | null;
+  kit_box_id: string | null;
+  notes: Generated<string>;
+  created_at: Generated<Timestamp>;
+  updated_at: Generated<Timestamp>;
+}
+
+export interface KitTemplatesTable {
+  id: Generated<string>;
+  space_id: string;
+  name: string;
+  description: Generated<string>;
+  teaching_notes: Generated<string>;
+  cautions: Generated<string>;
+  archived_at: TimestampNullable;
+  created_at: Generated<Timestamp>;
+}
+
+export interface KitTemplateLinesTable {
+  id: Generated<string>;
+  template_id: string;
+  part_id: string;
+  qty: Generated<number>;
+  chain_role: ChainRole | null;
+  position: Generated<number>;
+}
+
+export interface KitBoxesTable {
+  id: Generated<string>;
+  space_id: string;
+  template_id: string;
+  code: string;
+  name: string;
+  state: Generated<UnitState>;
+  location_id: string | null;
+  created_at: Generated<Timestamp>;
+}
+
+export interface KitBoxContentsTable {
+  id: Generated<string>;
+  kit_box_id: string;
+  part_id: string;
+  unit_id: string | null;
+  qty: Generated<number>;
+  chain_role: ChainRole | null;
+}
+
+export interface LoansTable {
+  id: Generated<string>;
+  space_id: string;
+  borrower_id: string;
+  lent_by_id: string | null;
+  kit_box_id: string | null;
+  status: Generated<LoanStatus>;
+  out_at: Generated<Timestamp>;
+  due_at: Timestamp;
+  returned_at: TimestampNullable;
+  renewals: Generated<number>;
+  check_verdict: 'ok' | 'caution' | 'fail' | null;
+  check_report: Json<unknown> | null;
+  caution_acknowledged: Generated<boolean>;
+  override_reason: string | null;
+  override_by: string | null;
+  created_at: Generated<Timestamp>;
+}
+
+export interface LoanLinesTable {
+  id: Generated<string>;
+  loan_id: string;
+  space_id: string;
+  part_id: string;
+  unit_id: string | null;
+  location_id: string | null;
+  qty: Generated<number>;
+  chain_role: ChainRole | null;
+  returned_qty: Generated<number>;
+  return_condition: 'ok' | 'missing' | 'damaged' | null;
+}
+
+export interface HoldsTable {
+  id: Generated<string>;
+  space_id: string;
+  user_id: string;
+  unit_id: string | null;
+  kit_box_id: string | null;
+  status: Generated<'waiting' | 'ready' | 'fulfilled' | 'cancelled'>;
+  notified_at: TimestampNullable;
+  created_at: Generated<Timestamp>;
+}
+
+export interface RemindersTable {
+  id: Generated<string>;
+  space_id: string;
+  loan_id: string;
+  kind: 'before_due' | 'due_day' | 'overdue' | 'manual';
+  for_day: ColumnType<string, string, string>;
+  sent_by: string | null;
+  status: Generated<'pending' | 'sent' | 'failed'>;
+  sent_at: TimestampNullable;
+  created_at: Generated<Timestamp>;
+}
+
+export interface SalesTable {
+  id: Generated<string>;
+  space_id: string;
+  buyer_id: string | null;
+  cashier_id: string | null;
+  method: 'card' | 'cash';
+  status: Generated<SaleStatus>;
+  currency: string;
+  total_minor: number;
+  checkout_session_id: string | null;
+  payment_intent_id: string | null;
+  reverses_sale_id: string | null;
+  created_at: Generated<Timestamp>;
+  paid_at: TimestampNullable;
+  expires_at: TimestampNullable;
+}
+
+export interface SaleLinesTable {
+  id: Generated<string>;
+  sale_id: string;
+  space_id: string;
+  part_id: string;
+  location_id: string | null;
+  qty: number;
+  unit_price_minor: number;
+  refunded_qty: Generated<number>;
+}
+
+export interface RefundsTable {
+  id: Generated<string>;
+  space_id: string;
+  sale_id: string;
+  amount_minor: number;
+  processor_refund_id: string | null;
+  restock: Generated<boolean>;
+  lines: Generated<Json<{ saleLineId: string; qty: number }[]>>;
+  created_by: string | null;
+  created_at: Generated<Timestamp>;
+}
+
+export interface PaymentEventsTable {
+  id: string;
+  type: string;
+  space_id: string | null;
+  object_id: string | null;
+  created: Timestamp;
+  payload: Json<unknown>;
+  received_at: Generated<Timestamp>;
+  outcome: Generated<string>;
+}
+
+export interface ClosedPeriodsTable {
+  space_id: string;
+  month: ColumnType<string, string, string>;
+  closed_by: string | null;
+  closed_at: Generated<Timestamp>;
+  summary: Generated<Json<Record<string, unknown>>>;
+}
+
+export interface StockMovementsTable {
+  id: Generated<string>;
+  space_id: string;
+  part_id: string;
+  location_id: string | null;
+  unit_id: string | null;
+  qty_delta: number;
+  reason: MovementReason;
+  ref_type: string | null;
+  ref_id: string | null;
+  note: Generated<string>;
+  actor_id: string | null;
+  created_at: Generated<Timestamp>;
+}
+
+export interface StockCountsTable {
+  id: Generated<string>;
+  space_id: string;
+  location_id: string;
+  status: Generated<'open' | 'posted' | 'abandoned'>;
+  lines: Generated<Json<{ partId: string; expected: number; counted: number | null }[]>>;
+  created_by: string | null;
+  created_at: Generated<Timestamp>;
+  posted_at: TimestampNullable;
+}
+
+export interface AttachmentsTable {
+  id: Generated<string>;
+  space_id: string;
+  part_id: string;
+  filename: string;
+  mime: string;
+  size_bytes: number;
+  sha256: string;
+  data: Buffer;
+  created_by: string | null;
+  created_at: Generated<Timestamp>;
+}
+
+export interface AuditLogTable {
+  id: Generated<string>;
+  space_id: string | null;
+  actor_id: string | null;
+  action: string;
+  target_type: string | null;
+  target_id: string | null;
+  detail: Generated<Json<Record<string, unknown>>>;
+  created_at: Generated<Timestamp>;
+}
+
+export interface Database {
+  spaces: SpacesTable;
+  users: UsersTable;
+  memberships: MembershipsTable;
+  invitations: InvitationsTable;
+  sign_in_tokens: SignInTokensTable;
+  label_codes: LabelCodesTable;
+  locations: LocationsTable;
+  parts: PartsTable;
+  stock: StockTable;
+  units: UnitsTable;
+  kit_templates: KitTemplatesTable;
+  kit_template_lines: KitTemplateLinesTable;
+  kit_boxes: KitBoxesTable;
+  kit_box_contents: KitBoxContentsTable;
+  loans: LoansTable;
+  loan_lines: LoanLinesTable;
+  holds: HoldsTable;
+  reminders: RemindersTable;
+  sales: SalesTable;
+  sale_lines: SaleLinesTable;
+  refunds: RefundsTable;
+  payment_events: PaymentEventsTable;
+  closed_periods: ClosedPeriodsTable;
+  stock_movements: StockMovementsTable;
+  stock_counts: StockCountsTable;
+  attachments: AttachmentsTable;
+  audit_log: AuditLogTable;
+}
+
+export type Space = Selectable<SpacesTable>;
+export type User = Selectable<UsersTable>;
+export type Part = Selectable<PartsTable>;
+export type NewPart = Insertable<PartsTable>;
+export type PartUpdate = Updateable<PartsTable>;
+export type Unit = Selectable<UnitsTable>;
+export type Loan = Selectable<LoansTable>;
+export type Sale = Selectable<SalesTable>;

@@ -1,0 +1,25 @@
+import type { Db } from '@/db/connect';
+
+export type AuditEntry = {
+  spaceId: string | null;
+  actorId: string | null;
+  action: string;
+  targetType?: string;
+  targetId?: string;
+  detail?: Record<string, unknown>;
+};
+
+/** Written inside the caller's transaction so the audit row and the change commit together. */
+export async function audit(db: Db, e: AuditEntry): Promise<void> {
+  await db
+    .insertInto('audit_log')
+    .values({
+      space_id: e.spaceId,
+      actor_id: e.actorId,
+      action: e.action,
+      target_type: e.targetType ?? null,
+      target_id: e.targetId ?? null,
+      detail: JSON.stringify(e.detail ?? {}),
+    })
+    .execute();
+}

@@ -1,0 +1,63 @@
+import { sql } from 'kysely';
+import type { Db } from '@/db/connect';
+import { hashPassword, verifyPassword } from './password';
+
+let dummyHash: string | undefined;
+import { hashToken, newToken } from './tokens';
+import { audit } from '@/lib/audit/log';
+
+export type SignedIn = { id: string; email: string; name: string };
+
+/** Checks e-mail and password; null for a wrong pair or a disabled account (same answer for both). */
+export async function checkPassword(db: Db, email: string, password: string): Promise<SignedIn | null> {
+  const user = await db
+    .selectFrom('users')
+    .select(['id', 'email', 'name', 'password_hash', 'disabled_at'])
+    .where('email', '=', email.trim())
+    .executeTakeFirst();
+  // Compare against a fixed hash when the user is unknown, so timing does not reveal who exists.
+  const hash = user?.password_hash ?? (dummyHash ??= await hashPassword('no such account'));
+  const ok = await verifyPassword(password, hash);
+  if (!user || !ok || user.disabled_at || !user.password_hash) return null;
+  return { id: user.id, email: user.email, name: user.name };
+}
+
+/** Creates a one-time sign-in link token (valid 15 minutes) for an active user; null if none. */
+export async function createSignInToken(db: Db, email: string): Promise<{ token: string; user: SignedIn } | null> {
+  const user = await db
+    .selectFrom('users')
+    .select(['id', 'email', 'name'])
+    .where('email', '=', email.trim())
+    .where('disabled_at', 'is', null)
+    .executeTakeFirst();
+  if (!user) return null;
+  const { token, hash } = newToken();
+  await db
+    .insertInto('sign_in_tokens')
+    .values({ user_id: user.id, token_hash: hash, expires_at: sql<Date>`now() + interval '15 minutes'` as never })
+    .execute();
+  return { token, user };
+}
+
+/** Uses a link token once: a single guarded update, so two clicks cannot both sign in. */
+export async function consumeSignInToken(db: Db, token: string): Promise<SignedIn | null> {
+  return db.transaction().execute(async (trx) => {
+    const row = await trx
+      .updateTable('sign_in_tokens')
+      .set({ used_at: sql`now()` as never })
+      .where('token_hash', '=', hashToken(token))
+      .where('used_at', 'is', null)
+      .where('expires_at', '>', sql<Date>`now()`)
+      .returning('user_id')
+      .executeTakeFirst();
+    if (!row) return null;
+    const user = await trx
+      .selectFrom('users')
+      .select(['id', 'email', 'name'])
+      .where('id', '=', row.user_id)
+      .where('disabled_at', 'is', null)
+      .executeTakeFirst();
+    if (user) await audit(trx, { spaceId: null, actorId: user.id, action: 'auth.link_used' });
+    return user ?? null;
+  });
+}

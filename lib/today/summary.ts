@@ -1,0 +1,107 @@
+import { sql } from 'kysely';
+import type { Db } from '@/db/connect';
+import { hasRole, type Ctx } from '@/lib/auth/roles';
+import { now } from '@/lib/clock';
+
+export type TodaySummary = {
+  myLoans: { id: string; name: string; dueAt: Date; overdue: boolean }[];
+  steward?: { overdue: number; belowReorder: { id: string; name: string; qty: number; reorderPoint: number }[]; inRepair: number };
+  treasurer?: { pendingSales: number; oldPending: number; paidThisMonthMinor: number; currency: string };
+  admin?: { people: number; openInvitations: number };
+};
+
+/** What needs this person now, in their current space, by role. */
+export async function todaySummary(db: Db, ctx: Ctx): Promise<TodaySummary> {
+  const at = now();
+  const myLoans = await db
+    .selectFrom('loans')
+    .leftJoin('kit_boxes', 'kit_boxes.id', 'loans.kit_box_id')
+    .select(['loans.id', 'loans.due_at', 'kit_boxes.name as box'])
+    .select((eb) =>
+      eb
+        .selectFrom('loan_lines')
+        .innerJoin('parts', 'parts.id', 'loan_lines.part_id')
+        .select(sql<string>`string_agg(parts.name, ', ' order by parts.name)`.as('n'))
+        .whereRef('loan_lines.loan_id', '=', 'loans.id')
+        .as('lines'),
+    )
+    .where('loans.space_id', '=', ctx.spaceId)
+    .where('loans.borrower_id', '=', ctx.userId)
+    .where('loans.status', '=', 'out')
+    .orderBy('loans.due_at')
+    .execute();
+  const summary: TodaySummary = {
+    myLoans: myLoans.map((l) => ({
+      id: l.id,
+      name: l.box ?? l.lines ?? 'Loan',
+      dueAt: l.due_at,
+      overdue: l.due_at < at,
+    })),
+  };
+
+  if (hasRole(ctx, 'steward', 'admin')) {
+    const overdue = await db
+      .selectFrom('loans')
+      .select((eb) => eb.fn.countAll<number>().as('n'))
+      .where('space_id', '=', ctx.spaceId)
+      .where('status', '=', 'out')
+      .where('due_at', '<', at)
+      .executeTakeFirstOrThrow();
+    const belowReorder = await db
+      .selectFrom('parts')
+      .leftJoin('stock', 'stock.part_id', 'parts.id')
+      .select(['parts.id', 'parts.name', 'parts.reorder_point'])
+      .select(sql<number>`coalesce(sum(stock.qty), 0)::int`.as('qty'))
+      .where('parts.space_id', '=', ctx.spaceId)
+      .where('parts.tracking', '=', 'counted')
+      .where('parts.archived_at', 'is', null)
+      .where('parts.reorder_point', '>', 0)
+      .groupBy('parts.id')
+      .having(sql<boolean>`coalesce(sum(stock.qty), 0) < parts.reorder_point`)
+      .orderBy('parts.name')
+      .limit(20)
+      .execute();
+    const repair = await db
+      .selectFrom('units')
+      .select((eb) => eb.fn.countAll<number>().as('n'))
+      .where('space_id', '=', ctx.spaceId)
+      .where('state', '=', 'in_repair')
+      .executeTakeFirstOrThrow();
+    summary.steward = {
+      overdue: overdue.n,
+      belowReorder: belowReorder.map((p) => ({ id: p.id, name: p.name, qty: p.qty, reorderPoint: p.reorder_point })),
+      inRepair: repair.n,
+    };
+  }
+
+  if (hasRole(ctx, 'treasurer')) {
+    const space = await db.selectFrom('spaces').select('currency').where('id', '=', ctx.spaceId).executeTakeFirstOrThrow();
+    const row = await db
+      .selectFrom('sales')
+      .select([
+        sql<number>`count(*) filter (where status = 'pending')::int`.as('pending'),
+        sql<number>`count(*) filter (where status = 'pending' and created_at < ${at}::timestamptz - interval '1 hour')::int`.as('old'),
+        sql<number>`coalesce(sum(total_minor) filter (where status in ('paid','partially_refunded') and paid_at >= date_trunc('month', ${at}::timestamptz)), 0)::int`.as('paid'),
+      ])
+      .where('space_id', '=', ctx.spaceId)
+      .executeTakeFirstOrThrow();
+    summary.treasurer = { pendingSales: row.pending, oldPending: row.old, paidThisMonthMinor: row.paid, currency: space.currency.trim() };
+  }
+
+  if (hasRole(ctx, 'admin')) {
+    const people = await db
+      .selectFrom('memberships')
+      .select((eb) => eb.fn.countAll<number>().as('n'))
+      .where('space_id', '=', ctx.spaceId)
+      .executeTakeFirstOrThrow();
+    const inv = await db
+      .selectFrom('invitations')
+      .select((eb) => eb.fn.countAll<number>().as('n'))
+      .where('space_id', '=', ctx.spaceId)
+      .where('accepted_at', 'is', null)
+      .where('expires_at', '>', at)
+      .executeTakeFirstOrThrow();
+    summary.admin = { people: people.n, openInvitations: inv.n };
+  }
+  return summary;
+}

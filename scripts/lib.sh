@@ -1,0 +1,101 @@
+#!/usr/bin/env bash
+# Shared shell helpers for start.sh and test.sh: install what is missing, run a private PostgreSQL.
+set -euo pipefail
+
+ROOT="$(cd "$(dirname "${BASH_SOURCE[0]}")/.." && pwd)"
+log() { printf '\033[1;36m[ohmstead]\033[0m %s\n' "$*" >&2; }
+
+apt_updated=0
+apt_install() {
+  if [ "$(id -u)" != 0 ]; then log "need root to apt-get install $*"; return 1; fi
+  if [ "$apt_updated" = 0 ]; then apt-get update -qq >/dev/null; apt_updated=1; fi
+  DEBIAN_FRONTEND=noninteractive apt-get install -y -qq "$@" >/dev/null
+}
+
+ensure_node_modules() {
+  # Reinstall when node_modules is missing or older than the lock file.
+  if [ ! -d "$ROOT/node_modules/.bin" ] || [ "$ROOT/package-lock.json" -nt "$ROOT/node_modules/.package-lock.json" ]; then
+    log "installing npm packages (npm ci)"
+    (cd "$ROOT" && npm ci --no-audit --no-fund --loglevel=error)
+  fi
+}
+
+pg_bin() { ls -d /usr/lib/postgresql/*/bin 2>/dev/null | sort -V | tail -1; }
+
+ensure_postgres() {
+  if [ -z "$(pg_bin)" ] || [ ! -x "$(pg_bin)/initdb" ]; then
+    log "installing Debian's postgresql"
+    mkdir -p /etc/postgresql-common
+    # Keep the package from creating and starting its own cluster on 5432.
+    if ! grep -q '^create_main_cluster = false' /etc/postgresql-common/createcluster.conf 2>/dev/null; then
+      echo 'create_main_cluster = false' >> /etc/postgresql-common/createcluster.conf
+    fi
+    apt_install postgresql
+  fi
+}
+
+ensure_chromium() {
+  if [ ! -x /usr/bin/chromium ]; then
+    log "installing Debian's chromium (about a minute)"
+    apt_install chromium
+  fi
+}
+
+as_pg() { (cd / && runuser -u postgres -- "$@"); }
+
+# A folder the postgres OS user can reach: under the project when every parent is traversable,
+# otherwise under /var/tmp (CI may clone into a folder only root can enter).
+pg_data_dir() {
+  local wanted="$1" fallback="$2"
+  mkdir -p "$(dirname "$wanted")"
+  if runuser -u postgres -- test -x "$(dirname "$wanted")" 2>/dev/null; then echo "$wanted"; else echo "$fallback"; fi
+}
+
+# pg_start DATA PORT MODE   (MODE = durable | throwaway)
+pg_start() {
+  local data="$1" port="$2" mode="$3" bin
+  bin="$(pg_bin)"
+  mkdir -p "$data"
+  chown postgres:postgres "$data"
+  chmod 700 "$data"
+  if [ ! -s "$data/PG_VERSION" ]; then
+    as_pg "$bin/initdb" -D "$data" -U postgres --auth=trust -E UTF8 --locale=C.UTF-8 >/dev/null
+  fi
+  if as_pg "$bin/pg_ctl" -D "$data" status >/dev/null 2>&1; then
+    log "PostgreSQL already running on $port"
+    return 0
+  fi
+  local opts="-p $port -h 127.0.0.1 -k ''"
+  if [ "$mode" = throwaway ]; then
+    # Unsafe but fast: only for the test cluster that is thrown away after the run.
+    opts="$opts -c fsync=off -c synchronous_commit=off -c full_page_writes=off"
+  fi
+  as_pg "$bin/pg_ctl" -D "$data" -l "$data/server.log" -w -t 60 -o "$opts" start >/dev/null
+  until "$bin/pg_isready" -q -h 127.0.0.1 -p "$port" -U postgres; do sleep 0.3; done
+}
+
+pg_stop() {
+  local data="$1" bin
+  bin="$(pg_bin)"
+  [ -s "$data/PG_VERSION" ] || return 0
+  as_pg "$bin/pg_ctl" -D "$data" -m fast -w stop >/dev/null 2>&1 || true
+}
+
+pg_create_db() {
+  local port="$1" name="$2" bin
+  bin="$(pg_bin)"
+  if ! "$bin/psql" -h 127.0.0.1 -p "$port" -U postgres -tAc "select 1 from pg_database where datname='$name'" | grep -q 1; then
+    "$bin/createdb" -h 127.0.0.1 -p "$port" -U postgres "$name"
+  fi
+}
+
+free_port() { node -e 'const s=require("net").createServer();s.listen(0,"127.0.0.1",()=>{console.log(s.address().port);s.close()})'; }
+
+wait_http() {
+  local url="$1" tries="${2:-120}"
+  for _ in $(seq "$tries"); do
+    if node -e 'fetch(process.argv[1]).then(r=>process.exit(r.status<500?0:1),()=>process.exit(1))' "$url"; then return 0; fi
+    sleep 0.5
+  done
+  log "timed out waiting for $url"; return 1
+}

@@ -1,0 +1,69 @@
+#!/usr/bin/env bash
+# npm start: install what is missing, start PostgreSQL (durable), the SMTP sink and the payments fake,
+# migrate, seed the demo once, build, and serve on http://127.0.0.1:3000.
+source "$(dirname "$0")/lib.sh"
+source "$(dirname "$0")/services.sh"
+cd "$ROOT"
+
+ensure_node_modules
+ensure_postgres
+
+STATE="$ROOT/.data"
+mkdir -p "$STATE"
+[ -s "$STATE/secret" ] || node -e 'console.log(require("crypto").randomBytes(32).toString("hex"))' >"$STATE/secret"
+
+export PGPORT_OHM="${OHM_PG_PORT:-54329}"
+PGDATA_OHM="$(pg_data_dir "$STATE/pg" "/var/tmp/ohmstead-$(echo "$ROOT" | md5sum | cut -c1-8)/pg")"
+export DATABASE_URL="postgres://postgres@127.0.0.1:$PGPORT_OHM/ohmstead"
+export NEXTAUTH_SECRET="$(cat "$STATE/secret")"
+export NEXTAUTH_URL="http://127.0.0.1:3000" APP_BASE_URL="http://127.0.0.1:3000"
+export SMTP_HOST=127.0.0.1 SMTP_PORT="${SMTP_PORT:-2525}" SMTP_SINK_HTTP_PORT="${SMTP_SINK_HTTP_PORT:-2580}"
+export MAILBOX_URL="http://127.0.0.1:$SMTP_SINK_HTTP_PORT" OHM_DEV_MAILBOX=1
+export PAYMENTS_API_HOST=127.0.0.1 PAYMENTS_API_PORT="${PAYMENTS_API_PORT:-12111}" PAYMENTS_API_PROTOCOL=http
+export STRIPE_SECRET_KEY="sk_test_ohmstead_local" STRIPE_WEBHOOK_SECRET="whsec_ohmstead_local_dev_secret"
+export NEXT_TELEMETRY_DISABLED=1
+
+log "PostgreSQL (data in $PGDATA_OHM, port $PGPORT_OHM)"
+pg_start "$PGDATA_OHM" "$PGPORT_OHM" durable
+pg_create_db "$PGPORT_OHM" ohmstead
+
+cleanup() {
+  log "stopping services"
+  stop_fakes "$STATE/run"
+  [ -n "${APP_PID:-}" ] && kill "$APP_PID" 2>/dev/null
+  pg_stop "$PGDATA_OHM"
+}
+trap cleanup EXIT
+trap 'exit 130' INT TERM
+
+log "SMTP sink and payments fake"
+stop_fakes "$STATE/run"
+start_fakes "$STATE/run"
+
+log "migrating"
+node node_modules/tsx/dist/cli.mjs scripts/migrate.ts
+log "seeding the demo (only into an empty database)"
+node node_modules/tsx/dist/cli.mjs scripts/seed.ts
+
+# Build when the sources changed since the last build.
+stamp="$STATE/build.stamp"
+src_hash="$(git ls-files -s 2>/dev/null | md5sum | cut -c1-32)$(git diff 2>/dev/null | md5sum | cut -c1-32)"
+if [ ! -f .next/BUILD_ID ] || [ "$(cat "$stamp" 2>/dev/null)" != "$src_hash" ]; then
+  log "building (next build)"
+  node node_modules/next/dist/bin/next build
+  echo "$src_hash" >"$stamp"
+fi
+
+node node_modules/next/dist/bin/next start -p 3000 -H 127.0.0.1 &
+APP_PID=$!
+wait_http "http://127.0.0.1:3000/signin" 120
+cat <<MSG
+
+  Ohmstead is serving on http://127.0.0.1:3000
+  Dev mailbox (sign-in links, receipts, reminders): http://127.0.0.1:3000/dev/mailbox
+
+$(node node_modules/tsx/dist/cli.mjs scripts/demo-logins.ts)
+
+  Stop with Ctrl-C (data stays in $PGDATA_OHM).
+MSG
+wait "$APP_PID"
