@@ -7,6 +7,8 @@ const nextConfig = {
   // Server-only packages that must not be bundled (native bits, dynamic requires).
   serverExternalPackages: ['pg', 'pg-boss', 'nodemailer', 'bcryptjs', 'pdf-lib', 'qrcode', 'stripe', 'file-type'],
   typedRoutes: false,
+  // npm test runs `tsc --noEmit` as its own step; the build need not repeat it.
+  typescript: { ignoreBuildErrors: true },
   async headers() {
     return [
       {

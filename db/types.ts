@@ -1,9 +1,13 @@
-import type { ColumnType, Generated, Insertable, JSONColumnType, Selectable, Updateable } from 'kysely';
+import type { ColumnType, Generated, Insertable, Selectable, Updateable } from 'kysely';
 
 // The typed shape of the schema in db/migrations. Keep in step with every migration.
-type Timestamp = ColumnType<Date, Date | string | undefined, Date | string>;
+// Insert/update take ISO strings or Dates; JSON columns take JSON.stringify'd text (pg sends it as is).
+type Timestamp = ColumnType<Date, Date | string, Date | string>;
+type TimestampDefault = ColumnType<Date, Date | string | undefined, Date | string>;
 type TimestampNullable = ColumnType<Date | null, Date | string | null | undefined, Date | string | null>;
-type Json<T = unknown> = JSONColumnType<T, T | string, T | string>;
+type Json<T = unknown> = ColumnType<T, string, string>;
+type JsonDefault<T = unknown> = ColumnType<T, string | undefined, string>;
+type JsonNullable<T = unknown> = ColumnType<T | null, string | null | undefined, string | null>;
 
 export type Role = 'member' | 'steward' | 'treasurer' | 'admin';
 export type UnitState = 'on_shelf' | 'out' | 'held' | 'in_repair' | 'retired';
@@ -29,8 +33,8 @@ export interface SpacesTable {
   reminder_days_before: Generated<number>;
   reminder_every_days: Generated<number>;
   label_layout: Generated<string>;
-  settings: Generated<Json<Record<string, unknown>>>;
-  created_at: Generated<Timestamp>;
+  settings: JsonDefault<Record<string, unknown>>;
+  created_at: TimestampDefault;
 }
 
 export interface UsersTable {
@@ -40,14 +44,16 @@ export interface UsersTable {
   password_hash: string | null;
   disabled_at: TimestampNullable;
   last_space_id: string | null;
-  created_at: Generated<Timestamp>;
+  /** Secret of the person's iCalendar feed (migration 0002_loans); null until first asked for. */
+  calendar_token: ColumnType<string | null, string | null | undefined, string | null>;
+  created_at: TimestampDefault;
 }
 
 export interface MembershipsTable {
   space_id: string;
   user_id: string;
   roles: Role[];
-  created_at: Generated<Timestamp>;
+  created_at: TimestampDefault;
 }
 
 export interface InvitationsTable {
@@ -60,7 +66,7 @@ export interface InvitationsTable {
   invited_by: string | null;
   expires_at: Timestamp;
   accepted_at: TimestampNullable;
-  created_at: Generated<Timestamp>;
+  created_at: TimestampDefault;
 }
 
 export interface SignInTokensTable {
@@ -69,7 +75,7 @@ export interface SignInTokensTable {
   token_hash: string;
   expires_at: Timestamp;
   used_at: TimestampNullable;
-  created_at: Generated<Timestamp>;
+  created_at: TimestampDefault;
 }
 
 export interface LabelCodesTable {
@@ -77,7 +83,7 @@ export interface LabelCodesTable {
   space_id: string;
   kind: LabelKind;
   target_id: string;
-  created_at: Generated<Timestamp>;
+  created_at: TimestampDefault;
 }
 
 export interface LocationsTable {
@@ -87,7 +93,7 @@ export interface LocationsTable {
   name: string;
   kind: Generated<'bin' | 'shelf' | 'drawer' | 'cabinet' | 'room'>;
   parent_id: string | null;
-  created_at: Generated<Timestamp>;
+  created_at: TimestampDefault;
 }
 
 export interface PartsTable {
@@ -97,7 +103,7 @@ export interface PartsTable {
   name: string;
   category: PartCategory;
   tracking: 'counted' | 'unit';
-  specs: Generated<Json<Record<string, unknown>>>;
+  specs: JsonDefault<Record<string, unknown>>;
   code: string | null;
   sellable: Generated<boolean>;
   lendable: Generated<boolean>;
@@ -106,8 +112,8 @@ export interface PartsTable {
   reorder_point: Generated<number>;
   notes: Generated<string>;
   archived_at: TimestampNullable;
-  created_at: Generated<Timestamp>;
-  updated_at: Generated<Timestamp>;
+  created_at: TimestampDefault;
+  updated_at: TimestampDefault;
 }
 
 export interface StockTable {
@@ -115,7 +121,7 @@ export interface StockTable {
   part_id: string;
   location_id: string;
   qty: Generated<number>;
-  updated_at: Generated<Timestamp>;
+  updated_at: TimestampDefault;
 }
 
 export interface UnitsTable {
@@ -128,8 +134,8 @@ export interface UnitsTable {
   location_id: string | null;
   kit_box_id: string | null;
   notes: Generated<string>;
-  created_at: Generated<Timestamp>;
-  updated_at: Generated<Timestamp>;
+  created_at: TimestampDefault;
+  updated_at: TimestampDefault;
 }
 
 export interface KitTemplatesTable {
@@ -140,7 +146,7 @@ export interface KitTemplatesTable {
   teaching_notes: Generated<string>;
   cautions: Generated<string>;
   archived_at: TimestampNullable;
-  created_at: Generated<Timestamp>;
+  created_at: TimestampDefault;
 }
 
 export interface KitTemplateLinesTable {
@@ -160,7 +166,7 @@ export interface KitBoxesTable {
   name: string;
   state: Generated<UnitState>;
   location_id: string | null;
-  created_at: Generated<Timestamp>;
+  created_at: TimestampDefault;
 }
 
 export interface KitBoxContentsTable {
@@ -179,16 +185,16 @@ export interface LoansTable {
   lent_by_id: string | null;
   kit_box_id: string | null;
   status: Generated<LoanStatus>;
-  out_at: Generated<Timestamp>;
+  out_at: TimestampDefault;
   due_at: Timestamp;
   returned_at: TimestampNullable;
   renewals: Generated<number>;
   check_verdict: 'ok' | 'caution' | 'fail' | null;
-  check_report: Json<unknown> | null;
+  check_report: JsonNullable<unknown>;
   caution_acknowledged: Generated<boolean>;
   override_reason: string | null;
   override_by: string | null;
-  created_at: Generated<Timestamp>;
+  created_at: TimestampDefault;
 }
 
 export interface LoanLinesTable {
@@ -212,7 +218,7 @@ export interface HoldsTable {
   kit_box_id: string | null;
   status: Generated<'waiting' | 'ready' | 'fulfilled' | 'cancelled'>;
   notified_at: TimestampNullable;
-  created_at: Generated<Timestamp>;
+  created_at: TimestampDefault;
 }
 
 export interface RemindersTable {
@@ -224,7 +230,7 @@ export interface RemindersTable {
   sent_by: string | null;
   status: Generated<'pending' | 'sent' | 'failed'>;
   sent_at: TimestampNullable;
-  created_at: Generated<Timestamp>;
+  created_at: TimestampDefault;
 }
 
 export interface SalesTable {
@@ -239,7 +245,7 @@ export interface SalesTable {
   checkout_session_id: string | null;
   payment_intent_id: string | null;
   reverses_sale_id: string | null;
-  created_at: Generated<Timestamp>;
+  created_at: TimestampDefault;
   paid_at: TimestampNullable;
   expires_at: TimestampNullable;
 }
@@ -262,9 +268,9 @@ export interface RefundsTable {
   amount_minor: number;
   processor_refund_id: string | null;
   restock: Generated<boolean>;
-  lines: Generated<Json<{ saleLineId: string; qty: number }[]>>;
+  lines: JsonDefault<{ saleLineId: string; qty: number }[]>;
   created_by: string | null;
-  created_at: Generated<Timestamp>;
+  created_at: TimestampDefault;
 }
 
 export interface PaymentEventsTable {
@@ -274,7 +280,7 @@ export interface PaymentEventsTable {
   object_id: string | null;
   created: Timestamp;
   payload: Json<unknown>;
-  received_at: Generated<Timestamp>;
+  received_at: TimestampDefault;
   outcome: Generated<string>;
 }
 
@@ -282,8 +288,8 @@ export interface ClosedPeriodsTable {
   space_id: string;
   month: ColumnType<string, string, string>;
   closed_by: string | null;
-  closed_at: Generated<Timestamp>;
-  summary: Generated<Json<Record<string, unknown>>>;
+  closed_at: TimestampDefault;
+  summary: JsonDefault<Record<string, unknown>>;
 }
 
 export interface StockMovementsTable {
@@ -298,7 +304,7 @@ export interface StockMovementsTable {
   ref_id: string | null;
   note: Generated<string>;
   actor_id: string | null;
-  created_at: Generated<Timestamp>;
+  created_at: TimestampDefault;
 }
 
 export interface StockCountsTable {
@@ -306,9 +312,9 @@ export interface StockCountsTable {
   space_id: string;
   location_id: string;
   status: Generated<'open' | 'posted' | 'abandoned'>;
-  lines: Generated<Json<{ partId: string; expected: number; counted: number | null }[]>>;
+  lines: JsonDefault<{ partId: string; expected: number; counted: number | null }[]>;
   created_by: string | null;
-  created_at: Generated<Timestamp>;
+  created_at: TimestampDefault;
   posted_at: TimestampNullable;
 }
 
@@ -322,7 +328,7 @@ export interface AttachmentsTable {
   sha256: string;
   data: Buffer;
   created_by: string | null;
-  created_at: Generated<Timestamp>;
+  created_at: TimestampDefault;
 }
 
 export interface AuditLogTable {
@@ -332,8 +338,8 @@ export interface AuditLogTable {
   action: string;
   target_type: string | null;
   target_id: string | null;
-  detail: Generated<Json<Record<string, unknown>>>;
-  created_at: Generated<Timestamp>;
+  detail: JsonDefault<Record<string, unknown>>;
+  created_at: TimestampDefault;
 }
 
 export interface Database {

@@ -1,0 +1,48 @@
+import { readFileSync } from 'node:fs';
+import { createRequire } from 'node:module';
+import { chromium, type Browser, type Page } from 'playwright-core';
+import { DEMO_PASSWORD } from '@/db/seed/people';
+import { BASE } from './http';
+
+// Debian's Chromium driven by playwright-core; never a downloaded browser.
+export async function launchBrowser(): Promise<Browser> {
+  return chromium.launch({
+    executablePath: '/usr/bin/chromium',
+    headless: true,
+    args: ['--no-sandbox', '--disable-gpu', '--disable-background-networking', '--disable-component-update', '--disable-quic', '--no-first-run', '--disable-sync'],
+  });
+}
+
+/** A fresh context at phone width (390 px) by default. */
+export async function newPage(browser: Browser, width = 390, height = 844): Promise<Page> {
+  const context = await browser.newContext({ viewport: { width, height }, baseURL: BASE });
+  return context.newPage();
+}
+
+export async function signInPage(page: Page, email: string, password = DEMO_PASSWORD): Promise<void> {
+  await page.goto('/signin');
+  await page.getByLabel('E-mail').fill(email);
+  await page.getByLabel('Password').fill(password);
+  await page.getByRole('button', { name: 'Sign in', exact: true }).click();
+  await page.waitForURL((u) => !u.pathname.startsWith('/signin'));
+}
+
+const axeSource = readFileSync(createRequire(import.meta.url).resolve('axe-core/axe.min.js'), 'utf8');
+
+/** axe-core in the page; returns the serious and critical violations (ids and first targets). */
+export async function seriousA11yViolations(page: Page): Promise<string[]> {
+  await page.addScriptTag({ content: axeSource });
+  const violations = await page.evaluate(async () => {
+    // @ts-expect-error axe is injected above
+    const r = await window.axe.run(document, { resultTypes: ['violations'] });
+    return r.violations as { id: string; impact: string; nodes: { target: string[] }[] }[];
+  });
+  return violations
+    .filter((v) => v.impact === 'serious' || v.impact === 'critical')
+    .map((v) => `${v.id}: ${v.nodes.slice(0, 3).map((n) => n.target.join(' ')).join(', ')}`);
+}
+
+/** True when the page does not scroll sideways at its viewport width. */
+export async function fitsWidth(page: Page): Promise<boolean> {
+  return page.evaluate(() => document.documentElement.scrollWidth <= window.innerWidth + 1);
+}
