@@ -21,7 +21,7 @@ export async function up(db: Kysely<unknown>): Promise<void> {
     .addColumn('max_open_loans', 'integer', (c) => c.notNull().defaultTo(3).check(sql`max_open_loans between 1 and 100`))
     .addColumn('reminder_days_before', 'integer', (c) => c.notNull().defaultTo(2))
     .addColumn('reminder_every_days', 'integer', (c) => c.notNull().defaultTo(3))
-    .addColumn('label_layout', 'text', (c) => c.notNull().defaultTo('sheet-a4-3x8'))
+    .addColumn('label_layout', 'text', (c) => c.notNull().defaultTo('a4-24'))
     .addColumn('settings', 'jsonb', (c) => c.notNull().defaultTo(sql`'{}'::jsonb`))
     .addColumn('created_at', 'timestamptz', (c) => c.notNull().defaultTo(sql`now()`))
     .execute();

@@ -25,9 +25,9 @@ const supply = (volts: number, maxAmps: number, mains = true) => ({ volts, toler
 
 export const DEMO_PARTS: DemoPart[] = [
   // Drivers (each board labelled)
-  { sku: 'DRV-B350-36', name: 'Constant-current buck driver, 350 mA, 6–36 V in', category: 'driver', tracking: 'unit', bin: 'drivers', units: 4, specs: buck(6, 36, 0.35, { inductorHenries: 68e-6, switchingHz: 300e3 }) },
-  { sku: 'DRV-B700-30', name: 'Constant-current buck driver, 700 mA, 7–30 V in', category: 'driver', tracking: 'unit', bin: 'drivers', units: 4, specs: buck(7, 30, 0.7, { inductorHenries: 47e-6, switchingHz: 400e3 }) },
-  { sku: 'DRV-B1000-48', name: 'Constant-current buck driver, 1000 mA, 8–48 V in', category: 'driver', tracking: 'unit', bin: 'drivers', units: 3, specs: buck(8, 48, 1.0, { inductorHenries: 33e-6, switchingHz: 500e3 }) },
+  { sku: 'DRV-B350-36', name: 'Constant-current buck driver, 350 mA, 6–36 V in', category: 'driver', tracking: 'unit', bin: 'drivers', units: 4, specs: buck(6, 36, 0.35, { inductorHenries: 150e-6, switchingHz: 1e6 }) },
+  { sku: 'DRV-B700-30', name: 'Constant-current buck driver, 700 mA, 7–30 V in', category: 'driver', tracking: 'unit', bin: 'drivers', units: 4, specs: buck(7, 30, 0.7, { inductorHenries: 68e-6, switchingHz: 1e6 }) },
+  { sku: 'DRV-B1000-48', name: 'Constant-current buck driver, 1000 mA, 8–48 V in', category: 'driver', tracking: 'unit', bin: 'drivers', units: 3, specs: buck(8, 48, 1.0, { inductorHenries: 47e-6, switchingHz: 700e3 }) },
   { sku: 'DRV-B350-24D', name: 'Constant-current buck driver, 350 mA, 4.5–24 V in, PWM dimming input', category: 'driver', tracking: 'unit', bin: 'drivers', units: 3, specs: buck(4.5, 24, 0.35, { dimmable: true }) },
   { sku: 'DRV-B1500-40', name: 'Constant-current buck driver, 1500 mA, 10–40 V in', category: 'driver', tracking: 'unit', bin: 'drivers', units: 2, specs: buck(10, 40, 1.5) },
   { sku: 'DRV-B500-28', name: 'Constant-current buck driver, 500 mA, 5–28 V in', category: 'driver', tracking: 'unit', bin: 'drivers', units: 2, specs: buck(5, 28, 0.5) },
