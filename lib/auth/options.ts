@@ -3,7 +3,7 @@ import type { NextAuthOptions } from 'next-auth';
 import CredentialsProvider from 'next-auth/providers/credentials';
 import { db } from '@/db';
 import { checkPassword, consumeSignInToken } from './signin';
-import { signInLimiter, take } from './rate-limit';
+import { remaining, signInLimiter, take } from './rate-limit';
 import { audit } from '@/lib/audit/log';
 
 // JWT sessions signed with NEXTAUTH_SECRET; cookies are httpOnly, SameSite=Lax, and Secure
@@ -20,9 +20,13 @@ export const authOptions: NextAuthOptions = {
         const email = String(credentials?.email ?? '').trim().toLowerCase();
         const password = String(credentials?.password ?? '');
         if (!email || !password || email.length > 320 || password.length > 200) return null;
-        if (!(await take(signInLimiter(), email))) throw new Error('TooManyAttempts');
+        // Only failed attempts count: 8 wrong passwords for one e-mail lock it for 15 minutes.
+        if ((await remaining(signInLimiter(), email)) <= 0) throw new Error('TooManyAttempts');
         const user = await checkPassword(db, email, password);
-        if (!user) return null;
+        if (!user) {
+          await take(signInLimiter(), email);
+          return null;
+        }
         await audit(db, { spaceId: null, actorId: user.id, action: 'auth.signed_in' });
         return user;
       },

@@ -1,0 +1,18 @@
+import { db } from '@/db';
+import { requirePageRole } from '@/lib/auth/guard';
+import { getSettings } from '@/lib/settings/settings';
+import { PageTitle } from '@/components/ui/page-title';
+import { SettingsForm } from '@/components/settings/settings-form';
+
+export const metadata = { title: 'Settings' };
+
+export default async function SettingsPage() {
+  const ctx = await requirePageRole('admin');
+  const settings = await getSettings(db, ctx);
+  return (
+    <div className="mx-auto max-w-3xl">
+      <PageTitle title="Settings" lead={`The rules ${ctx.spaceName} runs its bench by.`} />
+      <SettingsForm initial={settings} />
+    </div>
+  );
+}

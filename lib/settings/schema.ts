@@ -1,0 +1,52 @@
+import { z } from 'zod';
+import { LAYOUT_IDS } from '@/labels/layouts';
+
+// The rules a space runs by. One schema for the form, the route handler and the service.
+
+/** IANA zone names this runtime knows (Intl), plus plain UTC, which Intl lists only as an alias. */
+export const TIME_ZONES: readonly string[] = ['UTC', ...Intl.supportedValuesOf('timeZone')];
+const zoneSet = new Set(TIME_ZONES);
+
+/** ISO 4217 alphabetic codes of currencies in use, as this runtime's Intl knows them. */
+export const CURRENCIES: readonly string[] = Intl.supportedValuesOf('currency');
+const currencySet = new Set(CURRENCIES);
+
+const whole = (what: string, min: number, max: number) =>
+  z
+    .number({ error: `a whole number of ${what}` })
+    .int(`a whole number of ${what}`)
+    .min(min, `at least ${min}`)
+    .max(max, `at most ${max}`);
+
+export const settingsSchema = z.object({
+  name: z.string({ error: 'a name' }).trim().min(1, 'enter a name').max(120, 'at most 120 characters'),
+  loanDays: whole('days', 1, 365),
+  closingTime: z
+    .string({ error: 'a time as HH:MM' })
+    .regex(/^([01]\d|2[0-3]):[0-5]\d$/, 'a 24-hour time as HH:MM, e.g. 20:00'),
+  timeZone: z
+    .string({ error: 'a time zone' })
+    .refine((v) => zoneSet.has(v), 'a time-zone name such as Europe/Berlin or America/Chicago'),
+  currency: z
+    .string({ error: 'a currency code' })
+    .trim()
+    .toUpperCase()
+    .refine((v) => currencySet.has(v), 'a three-letter ISO 4217 currency code such as USD or EUR'),
+  maxOpenLoans: whole('loans', 1, 100),
+  /** 0 means no reminder before the due day. */
+  reminderDaysBefore: whole('days', 0, 30),
+  reminderEveryDays: whole('days', 1, 30),
+  labelLayout: z.enum(LAYOUT_IDS, { error: `one of ${LAYOUT_IDS.join(', ')}` }),
+});
+export type Settings = z.infer<typeof settingsSchema>;
+export type SettingsFormInput = z.input<typeof settingsSchema>;
+
+/** A PATCH may send any subset of the fields, but at least one. */
+export const settingsPatchSchema = settingsSchema
+  .partial()
+  .strict()
+  .refine((v) => Object.values(v).some((x) => x !== undefined), {
+    message: 'send at least one setting',
+    path: ['(body)'],
+  });
+export type SettingsPatch = z.infer<typeof settingsPatchSchema>;
