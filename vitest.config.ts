@@ -9,12 +9,14 @@ export default defineConfig({
     projects: [
       {
         extends: true,
-        test: { name: 'unit', include: ['tests/unit/**/*.test.ts'], environment: 'node' },
+        test: { name: 'unit', include: ['tests/unit/**/*.test.ts'], environment: 'node', sequence: { groupOrder: 0 } },
       },
       {
         extends: true,
         test: {
           name: 'integration',
+          // Fault tests restart PostgreSQL and kill the fakes: never alongside the browser tests.
+          sequence: { groupOrder: 1 },
           include: ['tests/integration/**/*.test.ts'],
           environment: 'node',
           testTimeout: 60_000,
@@ -26,6 +28,7 @@ export default defineConfig({
         extends: true,
         test: {
           name: 'e2e',
+          sequence: { groupOrder: 2 },
           include: ['tests/e2e/**/*.test.ts'],
           environment: 'node',
           testTimeout: 120_000,

@@ -17,6 +17,9 @@ export function createDb(connectionString: string, max = 10): Kysely<Database> {
   });
   // An idle client losing its server (PostgreSQL restart) must not crash the process.
   pool.on('error', (err) => console.error('[db] idle client error:', err.message));
+  // A checked-out client whose server goes away emits 'error' itself; without a listener that would be an
+  // uncaught exception. The query in flight still fails and the request answers 503.
+  pool.on('connect', (client) => client.on('error', (err) => console.error('[db] client error:', err.message)));
   return new Kysely<Database>({ dialect: new PostgresDialect({ pool }) });
 }
 

@@ -99,3 +99,67 @@ wait_http() {
   done
   log "timed out waiting for $url"; return 1
 }
+
+# --- backup, restore and bench helpers (added with scripts/db-backup.sh, db-restore.sh, bench.sh) ---
+
+# The database `npm start` keeps (scripts/start.sh): the default for db:backup and db:restore.
+default_database_url() { echo "postgres://postgres@127.0.0.1:${OHM_PG_PORT:-54329}/ohmstead"; }
+
+# pg_dump / pg_restore / psql from Debian's packages, the same version as the server we run.
+ensure_pg_client() {
+  if [ -z "$(pg_bin)" ] || [ ! -x "$(pg_bin)/pg_dump" ]; then ensure_postgres; fi
+}
+
+# "dbname on host:port (PostgreSQL x.y)" of a connection URL, without its password; fails when unreachable.
+db_describe() {
+  "$(pg_bin)/psql" -X -q -v ON_ERROR_STOP=1 --dbname="$1" -tAc \
+    "select current_database() || ' on ' || coalesce(host(inet_server_addr()), 'local socket') || ':' || inet_server_port() || ' (PostgreSQL ' || split_part(current_setting('server_version'), ' ', 1) || ')'" 2>/dev/null
+}
+
+# Restarts a running cluster with the options it was started with (pg_ctl keeps them in postmaster.opts);
+# -m fast: open sessions are cut, as in a crash of the connection. Used by the fault tests.
+pg_restart() {
+  local data="$1"
+  as_pg "$(pg_bin)/pg_ctl" -D "$data" -l "$data/server.log" -m fast -w -t 60 restart >/dev/null
+}
+
+# The environment of an app on throwaway services, as scripts/test.sh sets it: free ports for the app and
+# the fakes, the database DB_NAME on the cluster at PG_PORT, a fresh secret, test-mode processor keys.
+throwaway_app_env() {
+  local pg_port="$1" db_name="$2"
+  export SMTP_PORT="$(free_port)" SMTP_SINK_HTTP_PORT="$(free_port)" PAYMENTS_API_PORT="$(free_port)" APP_PORT="$(free_port)"
+  export DATABASE_URL="postgres://postgres@127.0.0.1:$pg_port/$db_name"
+  export NEXTAUTH_SECRET="throwaway-$(node -e 'console.log(require("crypto").randomBytes(16).toString("hex"))')"
+  export APP_BASE_URL="http://127.0.0.1:$APP_PORT" NEXTAUTH_URL="http://127.0.0.1:$APP_PORT"
+  export SMTP_HOST=127.0.0.1 MAILBOX_URL="http://127.0.0.1:$SMTP_SINK_HTTP_PORT" OHM_DEV_MAILBOX=1
+  export PAYMENTS_API_HOST=127.0.0.1 PAYMENTS_API_PROTOCOL=http
+  export STRIPE_SECRET_KEY="sk_test_ohmstead_throwaway" STRIPE_WEBHOOK_SECRET="whsec_ohmstead_throwaway_secret"
+  export NEXT_TELEMETRY_DISABLED=1
+}
+
+# A fingerprint of every source file git sees (tracked or new, not ignored), contents included.
+source_fingerprint() {
+  (cd "$ROOT" && git ls-files -co --exclude-standard -z | xargs -0 md5sum 2>/dev/null | md5sum | cut -c1-32)
+}
+
+# next build into DIST (next.config.mjs reads OHM_DIST_DIR) unless DIST already holds a build of exactly
+# these sources. OHM_REBUILD=1 builds regardless.
+build_app_if_changed() {
+  local dist="$1" build_log="$2" stamp now
+  stamp="$ROOT/$dist/ohm-source.stamp"
+  now="$(source_fingerprint)"
+  if [ "${OHM_REBUILD:-0}" != 1 ] && [ -f "$ROOT/$dist/BUILD_ID" ] && [ "$(cat "$stamp" 2>/dev/null)" = "$now" ]; then
+    log "the build in $dist is of these sources: not rebuilding"
+    return 0
+  fi
+  log "building the app into $dist (next build)"
+  (cd "$ROOT" && OHM_DIST_DIR="$dist" node node_modules/next/dist/bin/next build >"$build_log" 2>&1) || { tail -60 "$build_log" >&2; return 1; }
+  echo "$now" >"$stamp"
+}
+
+# Starts the production build in OHM_DIST_DIR on 127.0.0.1:PORT in the background; sets APP_PID.
+start_app() {
+  local port="$1" app_log="$2"
+  (cd "$ROOT" && exec node node_modules/next/dist/bin/next start -p "$port" -H 127.0.0.1) >"$app_log" 2>&1 &
+  APP_PID=$!
+}

@@ -33,7 +33,9 @@ function isDatabaseDown(err: unknown): boolean {
   if (!e) return false;
   if (e.code && ['ECONNREFUSED', 'ECONNRESET', '57P01', '57P02', '57P03', '08006', '08001', '08003'].includes(e.code))
     return true;
-  return /Connection terminated|connect ECONNREFUSED|timeout exceeded when trying to connect/i.test(e.message ?? '');
+  return /Connection terminated|connect ECONNREFUSED|timeout exceeded when trying to connect|not queryable|terminating connection|the database system is (starting up|shutting down)|Client was closed/i.test(
+    e.message ?? '',
+  );
 }
 
 export function errorResponse(err: unknown): NextResponse {

@@ -1,0 +1,116 @@
+// The SQL of the two benchmarked routes, written out as plain statements for the two baselines:
+// the framework floor (app/api/bench-floor/**, a bare route handler in the same Next.js build) and the
+// raw floor (bench/raw-floor.ts, node:http). Both run exactly this through `pg`, so the only difference
+// between them is the HTTP stack. The statements follow what the product runs —
+// lib/inventory/resolve.ts resolveCode and lib/loans/borrow.ts borrow (counted stock, no chain) — minus
+// the sign-in lookups, input validation and space scoping the product adds around them.
+import pg, { type Pool, type PoolClient } from 'pg';
+
+/** The floors' own pool: as many connections as the app's (db/connect.ts). */
+export function floorPool(connectionString: string): Pool {
+  const pool = new pg.Pool({ connectionString, max: 10 });
+  pool.on('error', () => undefined);
+  return pool;
+}
+
+export type Lookup = { code: string; kind: string; targetId: string; name: string; partId?: string; state?: string } | null;
+
+const DESCRIBE: Record<string, string> = {
+  unit: `select parts.name, units.part_id, units.state, units.serial from units
+         inner join parts on parts.id = units.part_id where units.id = $1`,
+  part: `select name, id as part_id from parts where id = $1`,
+  location: `select name from locations where id = $1`,
+  kit_box: `select name, state from kit_boxes where id = $1`,
+};
+
+/** Scan → item: the label row, then what it labels. */
+export async function lookupByCode(pool: Pool, code: string): Promise<Lookup> {
+  const label = await pool.query<{ kind: string; target_id: string }>('select kind, target_id from label_codes where code = $1', [code]);
+  const l = label.rows[0];
+  if (!l) return null;
+  const t = (await pool.query(DESCRIBE[l.kind], [l.target_id])).rows[0] as
+    | { name: string; part_id?: string; state?: string; serial?: string | null }
+    | undefined;
+  if (!t) return null;
+  return { code, kind: l.kind, targetId: l.target_id, name: t.serial ? `${t.name} (${t.serial})` : t.name, partId: t.part_id, state: t.state };
+}
+
+export type BorrowInput = { spaceId: string; borrowerId: string; partId: string; locationId: string };
+
+class Conflict extends Error {}
+
+/** The borrow of one counted item: settings, then one transaction of lock, check, write and audit. */
+export async function borrowCounted(pool: Pool, b: BorrowInput): Promise<{ id: string } | { conflict: string }> {
+  const settings = (
+    await pool.query<{ loan_days: number; max_open_loans: number }>(
+      `select name, loan_days, closing_time, time_zone, max_open_loans, reminder_days_before, reminder_every_days, settings
+       from spaces where id = $1`,
+      [b.spaceId],
+    )
+  ).rows[0];
+  const client = await pool.connect();
+  try {
+    await client.query('begin');
+    const result = await borrowInTransaction(client, b, settings);
+    await client.query('commit');
+    return result;
+  } catch (err) {
+    await client.query('rollback').catch(() => undefined);
+    if (err instanceof Conflict) return { conflict: err.message };
+    throw err;
+  } finally {
+    client.release();
+  }
+}
+
+async function borrowInTransaction(
+  client: PoolClient,
+  b: BorrowInput,
+  settings: { loan_days: number; max_open_loans: number },
+): Promise<{ id: string }> {
+  await client.query('select user_id from memberships where space_id = $1 and user_id = $2 for update', [b.spaceId, b.borrowerId]);
+  const part = (
+    await client.query<{ name: string }>(
+      `select parts.id, parts.name, parts.sku, parts.category, parts.specs, parts.lendable, parts.tracking, locations.name as location_name
+       from parts inner join locations on locations.id = $1 where parts.id = $2`,
+      [b.locationId, b.partId],
+    )
+  ).rows[0];
+  const open = (
+    await client.query<{ n: string }>(`select count(*) as n from loans where space_id = $1 and borrower_id = $2 and status = 'out'`, [b.spaceId, b.borrowerId])
+  ).rows[0];
+  if (Number(open.n) >= settings.max_open_loans) throw new Conflict('open-loan limit');
+  const at = new Date();
+  const due = new Date(at.getTime() + settings.loan_days * 86_400_000);
+  const loan = (
+    await client.query<{ id: string }>(
+      `insert into loans (space_id, borrower_id, lent_by_id, kit_box_id, out_at, due_at, check_verdict, check_report,
+         caution_acknowledged, override_reason, override_by, created_at)
+       values ($1, $2, $2, null, $3, $4, null, $5, false, null, null, $3) returning id`,
+      [b.spaceId, b.borrowerId, at, due, JSON.stringify({ kind: 'none', cautions: [] })],
+    )
+  ).rows[0];
+  const left = await client.query(
+    `update stock set qty = qty - 1, updated_at = $1 where part_id = $2 and location_id = $3 and qty >= 1 returning qty`,
+    [at, b.partId, b.locationId],
+  );
+  if (!left.rowCount) throw new Conflict('bin empty');
+  await client.query(
+    `insert into loan_lines (loan_id, space_id, part_id, unit_id, location_id, qty, chain_role) values ($1, $2, $3, null, $4, 1, null)`,
+    [loan.id, b.spaceId, b.partId, b.locationId],
+  );
+  await client.query(
+    `insert into stock_movements (space_id, part_id, location_id, unit_id, qty_delta, reason, ref_type, ref_id, actor_id, created_at)
+     values ($1, $2, $3, null, -1, 'loan_out', 'loan', $4, $5, $6)`,
+    [b.spaceId, b.partId, b.locationId, loan.id, b.borrowerId, at],
+  );
+  await client.query(`update holds set status = 'fulfilled' where user_id = $1 and space_id = $2 and status in ('waiting', 'ready') and false`, [
+    b.borrowerId,
+    b.spaceId,
+  ]);
+  await client.query(
+    `insert into audit_log (space_id, actor_id, action, target_type, target_id, detail) values ($1, $2, 'loan.created', 'loan', $3, $4)`,
+    [b.spaceId, b.borrowerId, loan.id, JSON.stringify({ borrowerId: b.borrowerId, items: [{ part: part?.name, qty: 1 }], dueAt: due.toISOString() })],
+  );
+  return { id: loan.id };
+}

@@ -1,0 +1,60 @@
+#!/usr/bin/env bash
+# npm run bench: the speed figures of ../shared/notes/targets.md, on throwaway services like npm test's —
+# a private PostgreSQL, the SMTP sink and the payments fake, a production build (in .next-bench, rebuilt
+# only when the sources changed) started with OHM_BENCH=1 so its framework-floor routes answer, and the
+# raw floor (bench/raw-floor.ts). bench/data.ts builds a 10,000-part shelf; bench/run.ts measures every
+# case beside its baselines, runs bench/suggest.ts and bench/labels.ts, prints the figures and writes them
+# to bench/out/latest.md. About 5–8 minutes on 2 cores (most of it the build, when one is needed).
+#
+# The cluster runs without fsync, as the test cluster does (throwaway data); OHM_BENCH_DURABLE=1 runs it
+# with PostgreSQL's durable defaults instead, as `npm start` does.
+source "$(dirname "$0")/lib.sh"
+source "$(dirname "$0")/services.sh"
+cd "$ROOT"
+
+ensure_node_modules
+ensure_postgres
+
+RUN="$(mktemp -d /var/tmp/ohm-bench.XXXXXX)"
+chmod 755 "$RUN"
+PG_PORT="$(free_port)"
+RAW_PORT="$(free_port)"
+throwaway_app_env "$PG_PORT" ohmstead_bench
+export OHM_DIST_DIR=.next-bench OHM_BENCH=1
+
+APP_PID="" RAW_PID=""
+cleanup() {
+  [ -n "$APP_PID" ] && kill "$APP_PID" 2>/dev/null
+  [ -n "$RAW_PID" ] && kill "$RAW_PID" 2>/dev/null
+  stop_fakes "$RUN"
+  pg_stop "$RUN/pg"
+  rm -rf "$RUN"
+}
+trap cleanup EXIT
+trap 'exit 130' INT TERM
+
+mode=throwaway
+[ "${OHM_BENCH_DURABLE:-0}" = 1 ] && mode=durable
+log "PostgreSQL ($mode) on port $PG_PORT"
+pg_start "$RUN/pg" "$PG_PORT" "$mode"
+pg_create_db "$PG_PORT" ohmstead_bench
+start_fakes "$RUN"
+node node_modules/tsx/dist/cli.mjs scripts/migrate.ts >/dev/null
+log "the bench shelf"
+node node_modules/tsx/dist/cli.mjs bench/data.ts "$RUN/fixture.json"
+
+build_app_if_changed .next-bench "$RUN/build.log"
+start_app "$APP_PORT" "$RUN/app.log"
+node --import tsx bench/raw-floor.ts "$RAW_PORT" >"$RUN/raw-floor.log" 2>&1 &
+RAW_PID=$!
+wait_http "$APP_BASE_URL/signin" 120 || { tail -50 "$RUN/app.log"; exit 1; }
+wait_http "http://127.0.0.1:$RAW_PORT/health" 60 || { cat "$RUN/raw-floor.log"; exit 1; }
+
+log "measuring (about 4 minutes)"
+status=0
+BENCH_APP_URL="$APP_BASE_URL" BENCH_RAW_URL="http://127.0.0.1:$RAW_PORT" BENCH_FIXTURE="$RUN/fixture.json" BENCH_DIST_DIR=.next-bench \
+  node node_modules/tsx/dist/cli.mjs bench/run.ts || status=1
+if grep -qi 'error' "$RUN/app.log"; then
+  log "the app logged errors during the run (tail of its log):"; tail -20 "$RUN/app.log" >&2
+fi
+exit "$status"

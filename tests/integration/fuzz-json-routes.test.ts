@@ -1,0 +1,101 @@
+import fc from 'fast-check';
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { HttpSession } from '../helpers/http';
+import { closeTestDb, makeSpace, makeUser, testDb } from '../helpers/db';
+import { apiRoutes, concrete } from '../helpers/routes';
+
+// Every JSON route gets generated bodies: wrong types, huge strings, negative and non-finite numbers,
+// unknown fields, unicode, not-JSON at all. None may answer 5xx, and every 400 names its fields.
+// The caller holds every role in a space of its own, so valid-by-chance bodies touch nothing shared.
+
+const RUNS = Number(process.env.OHM_FUZZ_RUNS ?? 1000);
+const NOT_JSON = new Set([
+  'POST /api/auth/[...nextauth]', // next-auth's own form posts
+  'POST /api/attachments', // multipart upload, covered by the shelf upload tests
+  'POST /api/parts/import', // multipart CSV upload, covered by the import tests
+  'POST /api/test/clock', // test hook
+  'POST /api/payments/test-endpoint', // test hook
+  'POST /api/bench-floor/loans', // benchmark baseline, 404 outside npm run bench
+]);
+
+const FIELD_NAMES = [
+  'name', 'sku', 'category', 'tracking', 'specs', 'qty', 'partId', 'locationId', 'fromLocationId', 'toLocationId',
+  'email', 'roles', 'lines', 'kitBoxId', 'unitIds', 'reason', 'amountMinor', 'supply', 'driver', 'string', 'volts',
+  'count', 'code', 'codes', 'layoutId', 'items', 'token', 'password', 'month', 'currency', 'timeZone', 'loanDays',
+  'acknowledgeCaution', 'override', 'borrowerId', 'condition', 'returnedQty', 'state', 'note', 'disabled', 'type',
+  'priceMinor', 'reorderPoint', 'counts', 'restock', 'templateId', 'closingTime', 'maxOpenLoans', 'spaceId',
+];
+
+const nasty = fc.oneof(
+  fc.string({ maxLength: 40 }),
+  fc.string({ unit: 'grapheme', maxLength: 40 }),
+  fc.constant('x'.repeat(100_000)),
+  fc.integer(),
+  fc.constantFrom(-1, 0, -0.0001, 1e308, -1e308, Number.MAX_SAFE_INTEGER + 2, 2 ** 31),
+  fc.double(),
+  fc.boolean(),
+  fc.constant(null),
+  fc.array(fc.jsonValue({ maxDepth: 2 }), { maxLength: 5 }),
+  fc.jsonValue({ maxDepth: 3 }),
+);
+
+const body = fc.oneof(
+  fc.dictionary(fc.constantFrom(...FIELD_NAMES), nasty, { maxKeys: 8 }),
+  fc.jsonValue({ maxDepth: 4 }).map((v) => JSON.stringify(v)),
+  fc.constantFrom('', '{', 'null', '[]', '"text"', '{"__proto__":{"x":1}}', '\u0000', '{}'.padEnd(2000, ' ')),
+  fc.string({ maxLength: 200 }),
+);
+
+describe('fuzzing every JSON route', () => {
+  let session: HttpSession;
+  const routes = apiRoutes().flatMap((r) =>
+    r.methods.filter((m) => m !== 'GET' && m !== 'DELETE').map((m) => ({ method: m, pattern: r.pattern })),
+  );
+  const targets = routes.filter((r) => !NOT_JSON.has(`${r.method} ${r.pattern}`));
+
+  beforeAll(async () => {
+    const db = testDb();
+    const space = await makeSpace(db, { name: 'Fuzz space' });
+    const user = await makeUser(db, space.id, ['member', 'steward', 'treasurer', 'admin'], 'Fuzz person');
+    session = new HttpSession();
+    await session.signIn(user.email, user.password);
+    expect(await session.isSignedIn()).toBe(true);
+  });
+  afterAll(closeTestDb);
+
+  it('has JSON routes to fuzz', () => {
+    expect(targets.length).toBeGreaterThan(20);
+  });
+
+  for (const { method, pattern } of targets) {
+    it(`${method} ${pattern}: no 5xx, every 400 names a field`, async () => {
+      const path = concrete(pattern);
+      const seen = new Map<number, number>();
+      await fc.assert(
+        fc.asyncProperty(fc.array(body, { minLength: 8, maxLength: 8 }), async (bodies) => {
+          const answers = await Promise.all(
+            bodies.map(async (b) => {
+              const text = typeof b === 'string' ? b : JSON.stringify(b);
+              const res = await session.fetch(path, {
+                method,
+                headers: { 'content-type': 'application/json' },
+                body: text,
+              });
+              const json = (await res.json().catch(() => null)) as { error?: { fields?: Record<string, unknown>; message?: string } } | null;
+              return { status: res.status, json, text };
+            }),
+          );
+          for (const a of answers) {
+            seen.set(a.status, (seen.get(a.status) ?? 0) + 1);
+            if (a.status >= 500) throw new Error(`${a.status} for body ${a.text.slice(0, 200)}`);
+            if (a.status === 400 && !Object.keys(a.json?.error?.fields ?? {}).length)
+              throw new Error(`400 without fields for body ${a.text.slice(0, 200)}: ${JSON.stringify(a.json)}`);
+          }
+        }),
+        { numRuns: Math.ceil(RUNS / 8), endOnFailure: true },
+      );
+      // The route really was reached with a signed-in caller: no 401/403 from a lost session.
+      expect(seen.get(401) ?? 0).toBe(0);
+    });
+  }
+});
