@@ -3,8 +3,16 @@ import type { PartCategory } from '@/db/types';
 
 // Electrical specs per part category, validated on every write. Field names match the
 // compatibility check's KitSpec (lib/electrical) so a part's specs feed the check directly.
-const pos = (what: string) => z.coerce.number({ error: `${what} must be a number` }).finite().positive(`${what} must be above 0`);
-const nonneg = (what: string) => z.coerce.number({ error: `${what} must be a number` }).finite().nonnegative(`${what} must not be negative`);
+const pos = (what: string) =>
+  z.coerce
+    .number({ error: `${what} must be a number` })
+    .finite()
+    .positive(`${what} must be above 0`);
+const nonneg = (what: string) =>
+  z.coerce
+    .number({ error: `${what} must be a number` })
+    .finite()
+    .nonnegative(`${what} must not be negative`);
 
 export const driverSpecs = z
   .object({
@@ -26,12 +34,20 @@ export const driverSpecs = z
   })
   .superRefine((d, ctx) => {
     const need = (keys: (keyof typeof d)[]) =>
-      keys.forEach((k) => d[k] === undefined && ctx.addIssue({ code: 'custom', path: [k], message: `${k} is required for a ${d.type} driver` }));
+      keys.forEach(
+        (k) =>
+          d[k] === undefined &&
+          ctx.addIssue({ code: 'custom', path: [k], message: `${k} is required for a ${d.type} driver` }),
+      );
     if (d.type === 'buck') need(['minInputVolts', 'maxInputVolts', 'outputAmps']);
     if (d.type === 'linear') need(['maxInputVolts', 'outputAmps', 'dropoutVolts']);
     if (d.type === 'resistor') need(['ohms', 'watts']);
     if (d.minInputVolts !== undefined && d.maxInputVolts !== undefined && d.minInputVolts >= d.maxInputVolts)
-      ctx.addIssue({ code: 'custom', path: ['maxInputVolts'], message: 'maximum input must be above the minimum' });
+      ctx.addIssue({
+        code: 'custom',
+        path: ['maxInputVolts'],
+        message: 'maximum input must be above the minimum',
+      });
   });
 
 export const ledSpecs = z
@@ -44,7 +60,10 @@ export const ledSpecs = z
     maxWatts: pos('maximum power'),
     colour: z.string().max(40).optional(),
   })
-  .refine((l) => l.vfMin <= l.vfTyp && l.vfTyp <= l.vfMax, { path: ['vfTyp'], message: 'forward voltages must be min ≤ typ ≤ max' });
+  .refine((l) => l.vfMin <= l.vfTyp && l.vfTyp <= l.vfMax, {
+    path: ['vfTyp'],
+    message: 'forward voltages must be min ≤ typ ≤ max',
+  });
 
 export const supplySpecs = z.object({
   volts: pos('output volts'),
@@ -53,12 +72,18 @@ export const supplySpecs = z.object({
   mains: z.coerce.boolean().default(true),
 });
 
-export const wireSpecs = z.object({ awg: z.coerce.number().int().min(0).max(40), colour: z.string().max(40).optional() });
+export const wireSpecs = z.object({
+  awg: z.coerce.number().int().min(0).max(40),
+  colour: z.string().max(40).optional(),
+});
 export const heatSinkSpecs = z.object({
   celsiusPerWatt: pos('thermal resistance').optional(),
   lengthMm: pos('length').optional(),
 });
-export const freeSpecs = z.record(z.string().max(60), z.union([z.string().max(200), z.number().finite(), z.boolean()]));
+export const freeSpecs = z.record(
+  z.string().max(60),
+  z.union([z.string().max(200), z.number().finite(), z.boolean()]),
+);
 
 export const SPEC_SCHEMAS: Record<PartCategory, z.ZodType> = {
   driver: driverSpecs,
@@ -84,9 +109,24 @@ export function keySpec(category: PartCategory, specs: Record<string, unknown>):
   switch (category) {
     case 'driver':
       if (specs.type === 'resistor') return `${n('ohms')} Ω · ${n('watts')} W`;
-      return [mA(n('outputAmps')), n('maxInputVolts') ? `${n('minInputVolts') ?? 0}–${n('maxInputVolts')} V in` : ''].filter(Boolean).join(' · ');
+      if (!n('maxInputVolts')) return mA(n('outputAmps'));
+      // A linear driver states only its ceiling; "0–30 V" would claim it runs from nothing.
+      return [
+        mA(n('outputAmps')),
+        n('minInputVolts') === undefined
+          ? `up to ${n('maxInputVolts')} V in`
+          : `${n('minInputVolts')}–${n('maxInputVolts')} V in`,
+      ]
+        .filter(Boolean)
+        .join(' · ');
     case 'led':
-      return [`Vf ${n('vfTyp')} V`, mA(n('maxAmps')) ? `max ${mA(n('maxAmps'))}` : '', n('maxWatts') ? `${n('maxWatts')} W` : ''].filter(Boolean).join(' · ');
+      return [
+        `Vf ${n('vfTyp')} V`,
+        mA(n('maxAmps')) ? `max ${mA(n('maxAmps'))}` : '',
+        n('maxWatts') ? `${n('maxWatts')} W` : '',
+      ]
+        .filter(Boolean)
+        .join(' · ');
     case 'supply':
       return `${n('volts')} V ±${n('tolerancePct') ?? 5} % · ${mA(n('maxAmps'))}`;
     case 'wire':
@@ -96,4 +136,27 @@ export function keySpec(category: PartCategory, specs: Record<string, unknown>):
     default:
       return '';
   }
+}
+
+/** Spec values as forms and CSV cells send them: blank means "not given". */
+function dropBlanks(raw: Record<string, unknown>): Record<string, unknown> {
+  return Object.fromEntries(Object.entries(raw).filter(([, v]) => v !== '' && v !== null && v !== undefined));
+}
+
+export type SpecsResult =
+  { ok: true; specs: Record<string, unknown> } | { ok: false; fields: Record<string, string[]> };
+
+/**
+ * Validates a part's specs against its category's schema. Errors are keyed by the dotted field,
+ * prefixed `specs.` (e.g. `specs.maxInputVolts`), as the forms and the API name them.
+ */
+export function parseSpecs(category: PartCategory, raw: Record<string, unknown>): SpecsResult {
+  const parsed = SPEC_SCHEMAS[category].safeParse(dropBlanks(raw));
+  if (parsed.success) return { ok: true, specs: parsed.data as Record<string, unknown> };
+  const fields: Record<string, string[]> = {};
+  for (const issue of parsed.error.issues) {
+    const key = ['specs', ...issue.path.map(String)].join('.');
+    (fields[key] ??= []).push(issue.message);
+  }
+  return { ok: false, fields };
 }

@@ -1,0 +1,162 @@
+import Link from 'next/link';
+import { db } from '@/db';
+import { requirePageUser } from '@/lib/auth/guard';
+import { isStaff } from '@/lib/auth/roles';
+import { formatDateTime } from '@/lib/format';
+import { getLoan } from '@/lib/loans/queries';
+import { Cautions } from '@/components/kits/cautions';
+import { CheckReport } from '@/components/kits/check-report';
+import { ActionButton } from '@/components/loans/action-button';
+import { ReturnForm } from '@/components/loans/return-form';
+import { StatePill } from '@/components/ui/state-pill';
+import { orNotFound, pageId } from '../or-not-found';
+
+export const metadata = { title: 'Loan' };
+
+const CONDITION: Record<string, string> = { ok: 'back', missing: 'missing', damaged: 'damaged' };
+
+export default async function LoanPage({ params }: { params: Promise<{ id: string }> }) {
+  const ctx = await requirePageUser();
+  const loan = await orNotFound(async () => getLoan(db, ctx, pageId((await params).id)));
+  const staff = isStaff(ctx);
+  const tz = loan.timeZone;
+  const state = loan.status === 'out' && loan.overdue ? 'overdue' : loan.status;
+  const canRenew = loan.status === 'out' && loan.renewals < loan.maxRenewals && loan.waitingHolds === 0;
+  return (
+    <div className="mx-auto max-w-xl space-y-4">
+      <header>
+        <p className="muted text-sm">
+          <Link href="/loans">Loans</Link>
+          {loan.kitBox ? (
+            <>
+              {' '}
+              · <Link href={`/kits/boxes/${loan.kitBox.id}`}>box {loan.kitBox.code}</Link>
+            </>
+          ) : null}
+        </p>
+        <div className="flex flex-wrap items-center gap-2">
+          <h1 className="text-2xl font-bold tracking-tight">{loan.title}</h1>
+          <StatePill state={state} />
+        </div>
+        <p className="mt-1">
+          {loan.isMine ? 'Borrowed by you' : `Borrowed by ${loan.borrower.name}`}
+          {staff && !loan.isMine ? (
+            <>
+              {' '}
+              (<a href={`mailto:${loan.borrower.email}`}>{loan.borrower.email}</a>)
+            </>
+          ) : null}{' '}
+          on {formatDateTime(loan.outAt, tz)}
+          {loan.lentBy && loan.lentBy !== loan.borrower.name ? `, lent by ${loan.lentBy}` : ''}.
+        </p>
+      </header>
+
+      <section aria-label="Due date" className="card">
+        {loan.status === 'out' ? (
+          <>
+            <p className="text-lg">
+              Due back <strong>{formatDateTime(loan.dueAt, tz)}</strong>
+              {loan.overdue ? (
+                <span className="font-semibold text-red-800 dark:text-red-300">
+                  {' '}
+                  · {loan.daysLate} {loan.daysLate === 1 ? 'day' : 'days'} late
+                </span>
+              ) : null}
+            </p>
+            <p className="muted text-sm">
+              Renewed {loan.renewals} of {loan.maxRenewals} {loan.maxRenewals === 1 ? 'time' : 'times'}{' '}
+              allowed
+              {loan.waitingHolds ? ` · ${loan.waitingHolds} waiting for it` : ''}.
+            </p>
+            {canRenew ? (
+              <div className="mt-2">
+                <ActionButton
+                  url={`/api/loans/${loan.id}/renew`}
+                  label="Renew the loan"
+                  busyLabel="Renewing…"
+                  done="Renewed."
+                />
+              </div>
+            ) : null}
+          </>
+        ) : (
+          <p>
+            Returned {loan.returnedAt ? formatDateTime(loan.returnedAt, tz) : ''}
+            {loan.status === 'returned_short' ? ', with something missing or damaged.' : '.'}
+          </p>
+        )}
+      </section>
+
+      {loan.override ? (
+        <section aria-label="Override" className="card border-red-300 dark:border-red-800">
+          <p className="font-semibold">Lent although the check failed</p>
+          <p>
+            “{loan.override.reason}” — {loan.override.by ?? 'a steward'}
+          </p>
+        </section>
+      ) : null}
+
+      {loan.report ? (
+        <>
+          <p className="muted text-sm">
+            The check as it ran when this was lent
+            {loan.cautionAcknowledged ? '; the borrower confirmed reading the cautions' : ''}.
+          </p>
+          <CheckReport result={loan.report} verdict={loan.verdict} />
+          <Cautions cautions={loan.report.cautions} />
+        </>
+      ) : null}
+
+      <section aria-labelledby="lines-heading" className="card">
+        <h2 id="lines-heading" className="text-lg font-bold">
+          On this loan
+        </h2>
+        <ul className="mt-2 divide-y divide-stone-200 dark:divide-stone-800">
+          {loan.lines.map((l) => (
+            <li key={l.id} className="py-2">
+              <span className="font-semibold">
+                {l.qty > 1 ? `${l.qty} × ` : ''}
+                {l.name}
+              </span>
+              <span className="muted block text-sm">
+                {[
+                  l.unitCode ? `label ${l.unitCode}` : null,
+                  l.locationName ? `from ${l.locationName}` : null,
+                  l.chainRole ? `chain: ${l.chainRole}` : null,
+                ]
+                  .filter(Boolean)
+                  .join(' · ')}
+                {l.condition
+                  ? ` · ${l.returnedQty} of ${l.qty} ${CONDITION.ok}${l.condition !== 'ok' ? `, rest ${CONDITION[l.condition]}` : ''}`
+                  : ''}
+              </span>
+            </li>
+          ))}
+        </ul>
+      </section>
+
+      {loan.status === 'out' && (staff || loan.isMine) ? (
+        <ReturnForm
+          loanId={loan.id}
+          lines={loan.lines.map((l) => ({ id: l.id, name: l.name, qty: l.qty, unitCode: l.unitCode }))}
+        />
+      ) : null}
+
+      {staff && loan.reminders.length ? (
+        <section aria-labelledby="rem-heading" className="card">
+          <h2 id="rem-heading" className="text-lg font-bold">
+            Reminders
+          </h2>
+          <ul className="mt-2 text-sm">
+            {loan.reminders.map((r, i) => (
+              <li key={i}>
+                {r.kind.replace('_', ' ')} for {r.forDay}: {r.status}
+                {r.sentAt ? ` ${formatDateTime(r.sentAt, tz)}` : ''}
+              </li>
+            ))}
+          </ul>
+        </section>
+      ) : null}
+    </div>
+  );
+}

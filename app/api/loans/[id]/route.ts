@@ -1,0 +1,12 @@
+import { NextResponse } from 'next/server';
+import { db } from '@/db';
+import { requireUser } from '@/lib/auth/guard';
+import { handle } from '@/lib/http/respond';
+import { idOr404, type IdParams } from '@/lib/loans/ids';
+import { getLoan } from '@/lib/loans/queries';
+
+export const GET = handle(async (_req: Request, { params }: IdParams) => {
+  const ctx = await requireUser();
+  const loan = await getLoan(db, ctx, idOr404((await params).id, 'loan'));
+  return NextResponse.json({ loan });
+});

@@ -1,0 +1,148 @@
+'use client';
+import { useMutation } from '@tanstack/react-query';
+import { useRouter } from 'next/navigation';
+import { useId, useState } from 'react';
+import { callApi, type ApiError } from './api';
+import { ErrorNote } from './error-note';
+
+type Selection =
+  | { kitBoxId: string }
+  | { unitIds: string[]; counted: { partId: string; locationId: string; qty: number }[] };
+
+// The borrow confirmation, built for a phone: the due date, the acknowledgement when the check gave
+// cautions, a steward's written override when it failed, and one big button. The server checks it all
+// again; this only collects what it needs.
+export function BorrowPanel({
+  selection,
+  gate,
+  available,
+  unavailable,
+  dueText,
+  staff,
+  members = [],
+  userId,
+}: {
+  selection: Selection;
+  gate: 'ok' | 'acknowledge' | 'blocked';
+  available: boolean;
+  unavailable: string[];
+  dueText: string;
+  staff: boolean;
+  members?: { id: string; name: string }[];
+  userId: string;
+}) {
+  const router = useRouter();
+  const ids = useId();
+  const [ack, setAck] = useState(false);
+  const [reason, setReason] = useState('');
+  const [borrowerId, setBorrowerId] = useState(userId);
+  const m = useMutation({
+    mutationFn: () =>
+      callApi<{ loan: { id: string } }>('/api/loans', 'POST', {
+        ...selection,
+        ...(gate === 'acknowledge' ? { acknowledgeCaution: ack } : {}),
+        ...(gate === 'blocked' && staff ? { override: { reason } } : {}),
+        ...(borrowerId !== userId ? { borrowerId } : {}),
+      }),
+    onSuccess: ({ loan }) => router.push(`/loans/${loan.id}`),
+  });
+  const fields = (m.error as ApiError | null)?.fields ?? {};
+
+  if (!available)
+    return (
+      <div className="card" role="status">
+        <p className="font-semibold">Not available to borrow right now</p>
+        <ul className="mt-1 ml-5 list-disc">
+          {unavailable.map((u) => (
+            <li key={u}>{u}</li>
+          ))}
+        </ul>
+      </div>
+    );
+  if (gate === 'blocked' && !staff)
+    return (
+      <div className="card" role="status">
+        <p className="font-semibold">This cannot be borrowed as it is.</p>
+        <p className="mt-1">
+          The check failed on these exact parts. See what would work instead, or ask a steward at the bench.
+        </p>
+      </div>
+    );
+
+  const ready = (gate !== 'acknowledge' || ack) && (gate !== 'blocked' || reason.trim().length > 0);
+  return (
+    <form
+      className="card space-y-4"
+      aria-label="Borrow"
+      onSubmit={(e) => {
+        e.preventDefault();
+        m.mutate();
+      }}
+    >
+      <p>
+        Due back <strong>{dueText}</strong>.
+      </p>
+      {staff && members.length ? (
+        <div>
+          <label className="label" htmlFor={`${ids}-who`}>
+            Lend to
+          </label>
+          <select
+            id={`${ids}-who`}
+            className="field"
+            value={borrowerId}
+            onChange={(e) => setBorrowerId(e.target.value)}
+          >
+            {members.map((p) => (
+              <option key={p.id} value={p.id}>
+                {p.id === userId ? `${p.name} (me)` : p.name}
+              </option>
+            ))}
+          </select>
+        </div>
+      ) : null}
+      {gate === 'acknowledge' ? (
+        <label className="flex items-start gap-3 text-base">
+          <input
+            type="checkbox"
+            className="mt-1 size-6 shrink-0"
+            checked={ack}
+            onChange={(e) => setAck(e.target.checked)}
+          />
+          <span>I have read the cautions and the reasons above, and will follow them.</span>
+        </label>
+      ) : null}
+      {gate === 'blocked' ? (
+        <div>
+          <label className="label" htmlFor={`${ids}-reason`}>
+            Why lend it although the check failed? (recorded with your name)
+          </label>
+          <textarea
+            id={`${ids}-reason`}
+            className="field"
+            rows={3}
+            value={reason}
+            onChange={(e) => setReason(e.target.value)}
+          />
+          {fields['override.reason'] ? (
+            <p className="text-sm text-red-800 dark:text-red-300">{fields['override.reason'].join(' ')}</p>
+          ) : null}
+        </div>
+      ) : null}
+      <button
+        type="submit"
+        className={gate === 'blocked' ? 'btn-danger w-full text-lg' : 'btn-primary w-full text-lg'}
+        disabled={!ready || m.isPending}
+      >
+        {m.isPending
+          ? 'Borrowing…'
+          : gate === 'blocked'
+            ? 'Override and lend'
+            : borrowerId !== userId
+              ? 'Lend it'
+              : 'Borrow it'}
+      </button>
+      <ErrorNote error={m.error} />
+    </form>
+  );
+}

@@ -1,0 +1,109 @@
+'use client';
+import { useMutation } from '@tanstack/react-query';
+import { useRouter } from 'next/navigation';
+import { useId, useState } from 'react';
+import { callApi } from './api';
+import { ErrorNote } from './error-note';
+
+type Line = { id: string; name: string; qty: number; unitCode: string | null };
+type Condition = 'ok' | 'missing' | 'damaged';
+
+// Checking a loan back in at the bench: each line back in good order, or some of it missing or damaged.
+export function ReturnForm({ loanId, lines }: { loanId: string; lines: Line[] }) {
+  const router = useRouter();
+  const ids = useId();
+  const [state, setState] = useState<Record<string, { condition: Condition; back: number }>>(
+    Object.fromEntries(lines.map((l) => [l.id, { condition: 'ok', back: l.qty }])),
+  );
+  const set = (id: string, patch: Partial<{ condition: Condition; back: number }>) =>
+    setState((s) => ({ ...s, [id]: { ...s[id], ...patch } }));
+  const m = useMutation({
+    mutationFn: () =>
+      callApi<{ return: { status: string } }>(`/api/loans/${loanId}/return`, 'POST', {
+        lines: lines.map((l) => {
+          const s = state[l.id];
+          return {
+            lineId: l.id,
+            condition: s.condition,
+            returnedQty: s.condition === 'ok' ? l.qty : Math.min(s.back, l.qty - 1),
+          };
+        }),
+      }),
+    onSuccess: () => router.refresh(),
+  });
+  return (
+    <form
+      aria-labelledby={`${ids}-h`}
+      className="card space-y-3"
+      onSubmit={(e) => {
+        e.preventDefault();
+        m.mutate();
+      }}
+    >
+      <h2 id={`${ids}-h`} className="text-lg font-bold">
+        Check it back in
+      </h2>
+      <p className="muted text-sm">
+        Count each line. Anything missing or damaged is recorded and taken off the shelf.
+      </p>
+      <ul className="divide-y divide-stone-200 dark:divide-stone-800">
+        {lines.map((l) => {
+          const s = state[l.id];
+          return (
+            <li key={l.id} className="space-y-2 py-2">
+              <p className="font-semibold">
+                {l.qty > 1 ? `${l.qty} × ` : ''}
+                {l.name}
+                {l.unitCode ? <span className="muted text-sm font-normal"> · label {l.unitCode}</span> : null}
+              </p>
+              <div className="flex flex-wrap items-end gap-3">
+                <div>
+                  <label className="label" htmlFor={`${ids}-c-${l.id}`}>
+                    Condition
+                  </label>
+                  <select
+                    id={`${ids}-c-${l.id}`}
+                    className="field"
+                    value={s.condition}
+                    onChange={(e) =>
+                      set(l.id, {
+                        condition: e.target.value as Condition,
+                        back: e.target.value === 'ok' ? l.qty : l.qty - 1,
+                      })
+                    }
+                  >
+                    <option value="ok">All back, fine</option>
+                    <option value="missing">Missing</option>
+                    <option value="damaged">Damaged</option>
+                  </select>
+                </div>
+                {s.condition !== 'ok' && l.qty > 1 ? (
+                  <div>
+                    <label className="label" htmlFor={`${ids}-q-${l.id}`}>
+                      Back in good order
+                    </label>
+                    <input
+                      id={`${ids}-q-${l.id}`}
+                      className="field w-28"
+                      type="number"
+                      min={0}
+                      max={l.qty - 1}
+                      value={s.back}
+                      onChange={(e) =>
+                        set(l.id, { back: Math.max(0, Math.min(l.qty - 1, Number(e.target.value))) })
+                      }
+                    />
+                  </div>
+                ) : null}
+              </div>
+            </li>
+          );
+        })}
+      </ul>
+      <button type="submit" className="btn-primary w-full" disabled={m.isPending}>
+        {m.isPending ? 'Recording…' : 'Confirm the return'}
+      </button>
+      <ErrorNote error={m.error} />
+    </form>
+  );
+}

@@ -1,0 +1,90 @@
+import type { Db } from '@/db/connect';
+import type { UnitState } from '@/db/types';
+import { isStaff, type Ctx } from '@/lib/auth/roles';
+import { NotFoundError } from '@/lib/errors';
+import { keySpec } from '@/lib/inventory/specs';
+import { boxLines, boxesOfSpace } from '@/lib/loans/selection';
+import { boxShortfall } from './boxes';
+
+// Everything a kit box's page shows besides the check: contents, template notes and cautions, who has
+// it and until when (the borrower's name only to stewards and to the borrower), and the hold queue.
+
+export type BoxDetail = {
+  id: string;
+  name: string;
+  code: string;
+  state: UnitState;
+  locationName: string | null;
+  template: { id: string; name: string; description: string; teachingNotes: string; cautions: string };
+  contents: {
+    partId: string;
+    name: string;
+    qty: number;
+    unitCode: string | null;
+    chainRole: string | null;
+    keySpec: string;
+  }[];
+  shortfall: { partId: string; name: string; missing: number }[];
+  loan: { id: string | null; dueAt: Date; borrowerName: string | null; mine: boolean } | null;
+  holds: { waiting: number; mine: { id: string; status: 'waiting' | 'ready' } | null };
+};
+
+export async function getBox(db: Db, ctx: Ctx, kitBoxId: string): Promise<BoxDetail> {
+  const box = await boxesOfSpace(db, ctx.spaceId)
+    .select(['kit_templates.description', 'kit_templates.teaching_notes', 'kit_templates.cautions'])
+    .where('kit_boxes.id', '=', kitBoxId)
+    .executeTakeFirst();
+  if (!box) throw new NotFoundError('No such kit box.');
+  const lines = await boxLines(db, box.id);
+  const loan = await db
+    .selectFrom('loans')
+    .innerJoin('users', 'users.id', 'loans.borrower_id')
+    .select(['loans.id', 'loans.due_at', 'loans.borrower_id', 'users.name'])
+    .where('loans.kit_box_id', '=', box.id)
+    .where('loans.status', '=', 'out')
+    .executeTakeFirst();
+  const holds = await db
+    .selectFrom('holds')
+    .select(['id', 'user_id', 'status'])
+    .where('kit_box_id', '=', box.id)
+    .where('status', 'in', ['waiting', 'ready'])
+    .orderBy('created_at')
+    .execute();
+  const mine = holds.find((h) => h.user_id === ctx.userId);
+  const seeWho = (borrowerId: string) => isStaff(ctx) || borrowerId === ctx.userId;
+  return {
+    id: box.id,
+    name: box.name,
+    code: box.code,
+    state: box.state,
+    locationName: box.locationName,
+    template: {
+      id: box.templateId,
+      name: box.templateName,
+      description: box.description,
+      teachingNotes: box.teaching_notes,
+      cautions: box.cautions,
+    },
+    contents: lines.map((l) => ({
+      partId: l.partId,
+      name: l.name,
+      qty: l.qty,
+      unitCode: l.unitCode,
+      chainRole: l.chainRole,
+      keySpec: keySpec(l.category, l.specs),
+    })),
+    shortfall: await boxShortfall(db, box.id, box.templateId),
+    loan: loan
+      ? {
+          id: seeWho(loan.borrower_id) ? loan.id : null,
+          dueAt: loan.due_at,
+          borrowerName: seeWho(loan.borrower_id) ? loan.name : null,
+          mine: loan.borrower_id === ctx.userId,
+        }
+      : null,
+    holds: {
+      waiting: holds.length,
+      mine: mine ? { id: mine.id, status: mine.status as 'waiting' | 'ready' } : null,
+    },
+  };
+}

@@ -1,0 +1,249 @@
+import { sql } from 'kysely';
+import type { Db } from '@/db/connect';
+import { audit } from '@/lib/audit/log';
+import { isStaff, type Ctx } from '@/lib/auth/roles';
+import { now } from '@/lib/clock';
+import { ConflictError, ForbiddenError, NotFoundError } from '@/lib/errors';
+import { checkLines, storedReport } from './check';
+import { computeDueAt } from './due';
+import { limitReached, openLoanCount } from './lock';
+import { gateFor } from './preview';
+import type { BorrowInput } from './schemas';
+import { boxLines, chainRoleOf, loadBox, looseLines, type SelectionLine } from './selection';
+import { loanSettings } from './settings';
+
+// Borrowing, in one transaction: lock what is taken, check the exact parts again on the server, apply
+// the gate (fail → steward override with a reason; caution → the borrower's acknowledgement), the
+// open-loan limit, then write the loan, its lines, the stock movements and the audit rows.
+
+export type BorrowResult = {
+  id: string;
+  dueAt: Date;
+  verdict: 'ok' | 'caution' | 'fail' | null;
+  overridden: boolean;
+};
+
+/** A box or unit may be taken when it is on the shelf, or held ready for this borrower. */
+const takeable = (table: 'kit_boxes' | 'units', borrowerId: string) =>
+  sql<boolean>`(${sql.ref(`${table}.state`)} = 'on_shelf' or (${sql.ref(`${table}.state`)} = 'held' and exists (
+    select 1 from holds h where h.status = 'ready' and h.user_id = ${borrowerId}
+      and ${table === 'kit_boxes' ? sql`h.kit_box_id` : sql`h.unit_id`} = ${sql.ref(`${table}.id`)})))`;
+
+export async function borrow(db: Db, ctx: Ctx, input: BorrowInput): Promise<BorrowResult> {
+  const staff = isStaff(ctx);
+  const borrowerId = input.borrowerId ?? ctx.userId;
+  if (borrowerId !== ctx.userId && !staff)
+    throw new ForbiddenError("Only a steward can lend on someone else's behalf.");
+  if (input.override && !staff)
+    throw new ForbiddenError('Only a steward or an admin can override the check.');
+  const settings = await loanSettings(db, ctx.spaceId);
+  const sel = input.selection;
+
+  return db.transaction().execute(async (trx) => {
+    // One person's borrows queue behind each other, so two at once cannot both slip under the limit.
+    const member = await trx
+      .selectFrom('memberships')
+      .select('user_id')
+      .where('space_id', '=', ctx.spaceId)
+      .where('user_id', '=', borrowerId)
+      .forUpdate()
+      .executeTakeFirst();
+    if (!member) throw new NotFoundError('That person is not a member of this space.');
+
+    // Take the items first: a guarded update (box) or row locks in id order (units), so that of many
+    // borrows of the same thing exactly one gets it and the rest see it gone.
+    let lines: SelectionLine[];
+    let boxId: string | null = null;
+    if ('kitBoxId' in sel) {
+      const taken = await trx
+        .updateTable('kit_boxes')
+        .set({ state: 'out' })
+        .where('id', '=', sel.kitBoxId)
+        .where('space_id', '=', ctx.spaceId)
+        .where(takeable('kit_boxes', borrowerId))
+        .returning('id')
+        .executeTakeFirst();
+      if (!taken) {
+        const box = await loadBox(trx, ctx.spaceId, sel.kitBoxId);
+        throw new ConflictError(`${box.name} is not available (${box.state.replace('_', ' ')}).`, {
+          kitBoxId: ['not on the shelf'],
+        });
+      }
+      boxId = taken.id;
+      lines = await boxLines(trx, boxId);
+      await trx
+        .updateTable('units')
+        .set({ state: 'out', updated_at: now() })
+        .where('kit_box_id', '=', boxId)
+        .execute();
+    } else {
+      lines = await looseLines(trx, ctx.spaceId, sel);
+      if (sel.unitIds.length) {
+        const locked = await trx
+          .selectFrom('units')
+          .select(['id', 'code'])
+          .select(takeable('units', borrowerId).as('free'))
+          .where('id', 'in', sel.unitIds)
+          .where('space_id', '=', ctx.spaceId)
+          .orderBy('id')
+          .forUpdate()
+          .execute();
+        const gone = locked.filter((u) => !u.free);
+        if (gone.length) {
+          const fields = Object.fromEntries(
+            gone.map((u) => [`unitIds.${sel.unitIds.indexOf(u.id)}`, ['not on the shelf']]),
+          );
+          throw new ConflictError(`Not available: ${gone.map((u) => u.code).join(', ')}.`, fields);
+        }
+        await trx
+          .updateTable('units')
+          .set({ state: 'out', updated_at: now() })
+          .where('id', 'in', sel.unitIds)
+          .execute();
+      }
+    }
+
+    // The check, on the server, on exactly these parts.
+    const outcome = checkLines(lines, { fromKitBox: boxId !== null });
+    const gate = gateFor(outcome);
+    if (gate === 'blocked' && !input.override)
+      throw new ConflictError(
+        'The compatibility check failed: this cannot be lent as it is. A steward may override it with a written reason.',
+        {
+          override: ['the check failed; a steward override with a reason is needed'],
+        },
+      );
+    if (gate === 'acknowledge' && !input.acknowledgeCaution)
+      throw new ConflictError('The check gave cautions: confirm that you read them before borrowing.', {
+        acknowledgeCaution: ['tick that you read the cautions'],
+      });
+
+    const open = await openLoanCount(trx, ctx.spaceId, borrowerId);
+    if (open >= settings.maxOpenLoans)
+      throw new ConflictError(limitReached(settings.maxOpenLoans), {
+        borrowerId: [`already has ${open} loans out`],
+      });
+
+    const at = now();
+    const dueAt = computeDueAt(at, settings);
+    const overridden = gate === 'blocked';
+    const loan = await trx
+      .insertInto('loans')
+      .values({
+        space_id: ctx.spaceId,
+        borrower_id: borrowerId,
+        lent_by_id: ctx.userId,
+        kit_box_id: boxId,
+        out_at: at,
+        due_at: dueAt,
+        check_verdict: outcome.verdict,
+        check_report: JSON.stringify(storedReport(outcome)),
+        caution_acknowledged: gate === 'acknowledge',
+        override_reason: overridden ? input.override!.reason : null,
+        override_by: overridden ? ctx.userId : null,
+        created_at: at,
+      })
+      .returning('id')
+      .executeTakeFirstOrThrow();
+
+    // Counted stock leaves its bin: guarded updates in a fixed order (no deadlock between two loans).
+    const counted = lines
+      .map((l, i) => ({ l, i }))
+      .filter(({ l }) => l.locationId)
+      .sort((a, b) => (a.l.partId + a.l.locationId).localeCompare(b.l.partId + b.l.locationId));
+    for (const { l, i } of counted) {
+      const left = await trx
+        .updateTable('stock')
+        .set((eb) => ({ qty: eb('qty', '-', l.qty), updated_at: at }))
+        .where('part_id', '=', l.partId)
+        .where('location_id', '=', l.locationId!)
+        .where('qty', '>=', l.qty)
+        .returning('qty')
+        .executeTakeFirst();
+      if (!left)
+        throw new ConflictError(`Not enough ${l.name} in ${l.locationName}.`, {
+          [`counted.${i - (lines.length - counted.length)}.qty`]: ['more than the bin holds'],
+        });
+    }
+
+    await trx
+      .insertInto('loan_lines')
+      .values(
+        lines.map((l) => ({
+          loan_id: loan.id,
+          space_id: ctx.spaceId,
+          part_id: l.partId,
+          unit_id: l.unitId,
+          location_id: l.locationId,
+          qty: l.qty,
+          chain_role: chainRoleOf(l),
+        })),
+      )
+      .execute();
+    const moves = lines.filter((l) => l.unitId || l.locationId);
+    if (moves.length)
+      await trx
+        .insertInto('stock_movements')
+        .values(
+          moves.map((l) => ({
+            space_id: ctx.spaceId,
+            part_id: l.partId,
+            location_id: l.locationId,
+            unit_id: l.unitId,
+            // Units are not counted stock: their movement records the event, quantity 0.
+            qty_delta: l.unitId ? 0 : -l.qty,
+            reason: 'loan_out' as const,
+            ref_type: 'loan',
+            ref_id: loan.id,
+            actor_id: ctx.userId,
+            created_at: at,
+          })),
+        )
+        .execute();
+
+    // The borrower's own hold on what they now take is done.
+    const unitIds = lines.flatMap((l) => (l.unitId ? [l.unitId] : []));
+    if (boxId || unitIds.length)
+      await trx
+        .updateTable('holds')
+        .set({ status: 'fulfilled' })
+        .where('user_id', '=', borrowerId)
+        .where('space_id', '=', ctx.spaceId)
+        .where('status', 'in', ['waiting', 'ready'])
+        .where((eb) =>
+          eb.or([
+            ...(boxId ? [eb('kit_box_id', '=', boxId)] : []),
+            ...(unitIds.length ? [eb('unit_id', 'in', unitIds)] : []),
+          ]),
+        )
+        .execute();
+
+    const detail = {
+      borrowerId,
+      onBehalf: borrowerId !== ctx.userId,
+      kitBoxId: boxId,
+      items: lines.map((l) => ({ part: l.name, qty: l.qty, unit: l.unitCode })),
+      verdict: outcome.verdict,
+      cautionAcknowledged: gate === 'acknowledge',
+      dueAt: dueAt.toISOString(),
+    };
+    await audit(trx, {
+      spaceId: ctx.spaceId,
+      actorId: ctx.userId,
+      action: 'loan.created',
+      targetType: 'loan',
+      targetId: loan.id,
+      detail,
+    });
+    if (overridden)
+      await audit(trx, {
+        spaceId: ctx.spaceId,
+        actorId: ctx.userId,
+        action: 'loan.override',
+        targetType: 'loan',
+        targetId: loan.id,
+        detail: { reason: input.override!.reason, verdict: outcome.verdict, kind: outcome.kind },
+      });
+    return { id: loan.id, dueAt, verdict: outcome.verdict, overridden };
+  });
+}

@@ -1,0 +1,117 @@
+import { sql } from 'kysely';
+import type { Db } from '@/db/connect';
+import type { Ctx } from '@/lib/auth/roles';
+import { now } from '@/lib/clock';
+import { whatWorksWith, type Alternative } from './alternatives';
+import { checkLines, type CheckOutcome } from './check';
+import { computeDueAt } from './due';
+import { limitReached, openLoanCount } from './lock';
+import type { Selection } from './schemas';
+import { chainRoleOf, resolveSelection, type SelectedBox, type SelectionLine } from './selection';
+import { loanSettings } from './settings';
+
+// What the member sees before borrowing: the parts, the check on exactly those parts, whether they can
+// be taken now, the due date if so, and — when the check fails — what would work instead. Read only;
+// borrow() repeats every step under locks and never trusts this answer.
+
+export type Gate = 'ok' | 'acknowledge' | 'blocked';
+
+export type Preview = {
+  box: SelectedBox | null;
+  lines: (SelectionLine & { free: boolean })[];
+  outcome: CheckOutcome;
+  gate: Gate;
+  available: boolean;
+  unavailable: string[];
+  dueAt: Date;
+  timeZone: string;
+  alternatives: Alternative[];
+  openLoans: number;
+  maxOpenLoans: number;
+};
+
+/** ok → lend; caution → lend once the borrower says they read the reasons; fail → only a steward's override. */
+export function gateFor(outcome: CheckOutcome): Gate {
+  return outcome.verdict === 'fail' ? 'blocked' : outcome.verdict === 'caution' ? 'acknowledge' : 'ok';
+}
+
+export async function previewLoan(
+  db: Db,
+  ctx: Ctx,
+  sel: Selection,
+  opts: { borrowerId?: string } = {},
+): Promise<Preview> {
+  const borrowerId = opts.borrowerId ?? ctx.userId;
+  const settings = await loanSettings(db, ctx.spaceId);
+  const { box, lines } = await resolveSelection(db, ctx.spaceId, sel);
+  const outcome = checkLines(lines, { fromKitBox: box !== null });
+
+  const unavailable: string[] = [];
+  const readyFor = await readyHoldTargets(db, ctx.spaceId, borrowerId);
+  if (box && !(box.state === 'on_shelf' || (box.state === 'held' && readyFor.has(box.id))))
+    unavailable.push(
+      `${box.name} is ${box.state === 'held' ? 'held for someone else' : box.state.replace('_', ' ')}.`,
+    );
+  const withFree = await Promise.all(
+    lines.map(async (l) => {
+      let free = true;
+      if (!box && l.unitId)
+        free = l.unitState === 'on_shelf' || (l.unitState === 'held' && readyFor.has(l.unitId));
+      if (l.locationId) {
+        const s = await db
+          .selectFrom('stock')
+          .select('qty')
+          .where('part_id', '=', l.partId)
+          .where('location_id', '=', l.locationId)
+          .executeTakeFirst();
+        free = (s?.qty ?? 0) >= l.qty;
+      }
+      if (!free)
+        unavailable.push(
+          l.unitCode
+            ? `${l.name} (${l.unitCode}) is not on the shelf.`
+            : `Not enough ${l.name} in ${l.locationName}.`,
+        );
+      return { ...l, free };
+    }),
+  );
+
+  const openLoans = await openLoanCount(db, ctx.spaceId, borrowerId);
+  if (openLoans >= settings.maxOpenLoans) unavailable.push(limitReached(settings.maxOpenLoans));
+
+  const gate = gateFor(outcome);
+  let alternatives: Alternative[] = [];
+  if (outcome.kind === 'checked' && outcome.verdict === 'fail') {
+    const pick = (role: 'supply' | 'driver') => lines.find((l) => chainRoleOf(l) === role)?.partId;
+    alternatives = await whatWorksWith(db, ctx.spaceId, outcome.spec, {
+      supplyPartId: pick('supply'),
+      driverPartId: pick('driver'),
+    });
+  }
+
+  return {
+    box,
+    lines: withFree,
+    outcome,
+    gate,
+    available: unavailable.length === 0,
+    unavailable,
+    dueAt: computeDueAt(now(), settings),
+    timeZone: settings.timeZone,
+    alternatives,
+    openLoans,
+    maxOpenLoans: settings.maxOpenLoans,
+  };
+}
+
+/** Boxes and units held ready for this person: they may take them although they are not on the shelf. */
+export async function readyHoldTargets(db: Db, spaceId: string, userId: string): Promise<Set<string>> {
+  const rows = await db
+    .selectFrom('holds')
+    .select(sql<string>`coalesce(kit_box_id, unit_id)`.as('target'))
+    .where('space_id', '=', spaceId)
+    .where('user_id', '=', userId)
+    .where('status', '=', 'ready')
+    .execute();
+  return new Set(rows.map((r) => r.target));
+}

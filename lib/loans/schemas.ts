@@ -1,0 +1,145 @@
+import { z } from 'zod';
+
+// Inputs of the loan services, one place for the route handlers, the forms and the API document.
+const id = (what: string) => z.uuid({ error: `${what} must be an id` });
+
+export const countedPickSchema = z.object({
+  partId: id('partId'),
+  locationId: id('locationId'),
+  qty: z
+    .number({ error: 'qty must be a number' })
+    .int({ error: 'qty must be a whole number' })
+    .min(1, { error: 'qty must be at least 1' })
+    .max(1000),
+});
+
+const boxSelection = z.object({ kitBoxId: id('kitBoxId') }).strict();
+const looseSelection = z
+  .object({
+    unitIds: z.array(id('unitIds entry')).max(50).default([]),
+    counted: z.array(countedPickSchema).max(50).default([]),
+  })
+  .strict()
+  .refine((s) => s.unitIds.length + s.counted.length > 0, {
+    error: 'choose at least one unit or counted part',
+    path: ['unitIds'],
+  })
+  .refine((s) => new Set(s.unitIds).size === s.unitIds.length, {
+    error: 'a unit is listed twice',
+    path: ['unitIds'],
+  });
+
+export const selectionSchema = z.union([boxSelection, looseSelection], {
+  error: 'give kitBoxId, or unitIds and counted',
+});
+export type Selection = z.infer<typeof selectionSchema>;
+
+/** What the preview route takes: a selection, and for a steward lending at the bench, the borrower. */
+export const previewSchema = z
+  .object({
+    kitBoxId: id('kitBoxId').optional(),
+    unitIds: z.array(id('unitIds entry')).max(50).optional(),
+    counted: z.array(countedPickSchema).max(50).optional(),
+    borrowerId: id('borrowerId').optional(),
+  })
+  .strict()
+  .transform((b, ctx) => ({ selection: toSelection(b, ctx), borrowerId: b.borrowerId }));
+
+export const borrowSchema = z
+  .object({
+    kitBoxId: id('kitBoxId').optional(),
+    unitIds: z.array(id('unitIds entry')).max(50).optional(),
+    counted: z.array(countedPickSchema).max(50).optional(),
+    acknowledgeCaution: z.boolean({ error: 'acknowledgeCaution must be true or false' }).optional(),
+    override: z
+      .object({
+        reason: z
+          .string({ error: 'override.reason must be text' })
+          .trim()
+          .min(1, { error: 'write why the check is overridden' })
+          .max(1000),
+      })
+      .strict()
+      .optional(),
+    borrowerId: id('borrowerId').optional(),
+  })
+  .strict()
+  .transform((b, ctx) => ({
+    selection: toSelection(b, ctx),
+    acknowledgeCaution: b.acknowledgeCaution ?? false,
+    override: b.override,
+    borrowerId: b.borrowerId,
+  }));
+export type BorrowInput = z.output<typeof borrowSchema>;
+
+function toSelection(
+  b: { kitBoxId?: string; unitIds?: string[]; counted?: z.infer<typeof countedPickSchema>[] },
+  ctx: z.RefinementCtx,
+): Selection {
+  const loose = (b.unitIds?.length ?? 0) + (b.counted?.length ?? 0) > 0;
+  if (b.kitBoxId && loose) {
+    ctx.addIssue({
+      code: 'custom',
+      path: ['kitBoxId'],
+      message: 'borrow a kit box or loose parts, not both at once',
+    });
+    return z.NEVER;
+  }
+  if (b.kitBoxId) return { kitBoxId: b.kitBoxId };
+  const parsed = looseSelection.safeParse({ unitIds: b.unitIds ?? [], counted: b.counted ?? [] });
+  if (!parsed.success) {
+    for (const issue of parsed.error.issues)
+      ctx.addIssue({ code: 'custom', path: issue.path, message: issue.message });
+    return z.NEVER;
+  }
+  return parsed.data;
+}
+
+export const returnSchema = z
+  .object({
+    lines: z
+      .array(
+        z
+          .object({
+            lineId: id('lineId'),
+            returnedQty: z
+              .number({ error: 'returnedQty must be a number' })
+              .int({ error: 'returnedQty must be a whole number' })
+              .min(0, { error: 'returnedQty cannot be negative' }),
+            condition: z.enum(['ok', 'missing', 'damaged'], {
+              error: 'condition must be ok, missing or damaged',
+            }),
+          })
+          .strict(),
+      )
+      .max(200)
+      .optional(),
+    note: z.string().trim().max(1000).optional(),
+  })
+  .strict();
+export type ReturnInput = z.infer<typeof returnSchema>;
+
+export const holdSchema = z
+  .object({ kitBoxId: id('kitBoxId').optional(), unitId: id('unitId').optional() })
+  .strict()
+  .refine((h) => (h.kitBoxId ? 1 : 0) + (h.unitId ? 1 : 0) === 1, {
+    error: 'give either kitBoxId or unitId',
+    path: ['kitBoxId'],
+  });
+export type HoldInput = z.infer<typeof holdSchema>;
+
+export const loanFilterSchema = z.object({
+  status: z
+    .enum(['out', 'overdue', 'returned', 'all'], { error: 'status must be out, overdue, returned or all' })
+    .default('out'),
+  mine: z.enum(['0', '1']).optional(),
+});
+
+export const reminderSchema = z
+  .object({
+    loanIds: z
+      .array(id('loanIds entry'), { error: 'loanIds must be a list of ids' })
+      .min(1, { error: 'choose at least one loan' })
+      .max(200),
+  })
+  .strict();

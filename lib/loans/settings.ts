@@ -1,0 +1,52 @@
+import { z } from 'zod';
+import type { Db } from '@/db/connect';
+import { NotFoundError } from '@/lib/errors';
+import type { DueRule } from './due';
+
+// The lending rules of a space. Loan period, closing time, zone, open-loan limit and the reminder
+// schedule are columns of `spaces`; the smaller limits live in `spaces.settings.loans` with defaults.
+const extraSchema = z.object({
+  /** Renewals allowed per loan. */
+  maxRenewals: z.number().int().min(0).max(10).catch(1),
+  /** Open holds a member may have at once. */
+  maxOpenHolds: z.number().int().min(1).max(50).catch(3),
+});
+
+export type LoanSettings = DueRule & {
+  maxOpenLoans: number;
+  reminderDaysBefore: number;
+  reminderEveryDays: number;
+  maxRenewals: number;
+  maxOpenHolds: number;
+  spaceName: string;
+};
+
+export async function loanSettings(db: Db, spaceId: string): Promise<LoanSettings> {
+  const s = await db
+    .selectFrom('spaces')
+    .select([
+      'name',
+      'loan_days',
+      'closing_time',
+      'time_zone',
+      'max_open_loans',
+      'reminder_days_before',
+      'reminder_every_days',
+      'settings',
+    ])
+    .where('id', '=', spaceId)
+    .executeTakeFirst();
+  if (!s) throw new NotFoundError('No such space.');
+  const loans = (s.settings as Record<string, unknown> | null)?.loans;
+  const extra = extraSchema.parse(typeof loans === 'object' && loans !== null ? loans : {});
+  return {
+    spaceName: s.name,
+    loanDays: s.loan_days,
+    closingTime: s.closing_time,
+    timeZone: s.time_zone,
+    maxOpenLoans: s.max_open_loans,
+    reminderDaysBefore: s.reminder_days_before,
+    reminderEveryDays: Math.max(1, s.reminder_every_days),
+    ...extra,
+  };
+}
