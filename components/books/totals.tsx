@@ -1,0 +1,55 @@
+import type { ReconTotals } from '@/lib/reconcile/match';
+import { formatMoney } from '@/lib/money';
+import { reconWord } from './recon-status';
+
+/** The month's figures side by side: the processor's ledger and our own books. */
+export function Totals({ totals, currency }: { totals: ReconTotals; currency: string }) {
+  const m = (n: number) => formatMoney(n, currency);
+  const p = totals.processor;
+  const o = totals.ours;
+  const item = (label: string, value: string, testId?: string) => (
+    <div key={label} className="rounded-lg border border-stone-200 p-2 dark:border-stone-700">
+      <dt className="muted text-xs">{label}</dt>
+      <dd className="text-lg font-bold tabular-nums" data-testid={testId}>
+        {value}
+      </dd>
+    </div>
+  );
+  return (
+    <div className="grid gap-3 lg:grid-cols-3">
+      <section aria-labelledby="totals-processor">
+        <h3 id="totals-processor" className="mb-1 font-semibold">
+          At the processor
+        </h3>
+        <dl className="grid grid-cols-2 gap-2">
+          {item('Gross charges', m(p.grossMinor), 'gross')}
+          {item('Fees', m(p.feesMinor), 'fees')}
+          {item('Refunds', m(p.refundsMinor), 'refunds')}
+          {item('Net', m(p.netMinor), 'net')}
+          {item('Paid out to the bank', m(p.paidOutMinor), 'paid-out')}
+        </dl>
+      </section>
+      <section aria-labelledby="totals-ours">
+        <h3 id="totals-ours" className="mb-1 font-semibold">
+          In our books
+        </h3>
+        <dl className="grid grid-cols-2 gap-2">
+          {item('Card sales', m(o.cardMinor))}
+          {item('Card refunds', m(o.cardRefundsMinor))}
+          {item('Cash (honour box)', m(o.cashMinor))}
+          {item('Cash refunds', m(o.cashRefundsMinor))}
+        </dl>
+      </section>
+      <section aria-labelledby="totals-match">
+        <h3 id="totals-match" className="mb-1 font-semibold">
+          Matching
+        </h3>
+        <dl className="grid grid-cols-2 gap-2">
+          {(['matched', 'amount_differs', 'ours_only', 'theirs_only'] as const).map((s) =>
+            item(reconWord(s), String(totals.counts[s]), `count-${s}`),
+          )}
+        </dl>
+      </section>
+    </div>
+  );
+}

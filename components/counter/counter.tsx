@@ -1,0 +1,295 @@
+'use client';
+import { useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
+import { Minus, Plus, Trash2 } from 'lucide-react';
+import { useCallback, useId, useMemo, useState } from 'react';
+import { callApi, errorText, type ApiError } from '@/components/loans/api';
+import type { CatalogItem } from '@/lib/sales/catalog';
+import { formatMoney } from '@/lib/money';
+import { CameraScan } from './camera-scan';
+import { lookupCode } from './code-lookup';
+
+type Props = {
+  currency: string;
+  items: CatalogItem[];
+  me: string;
+  /** Stewards ring sales up for members and record cash; members buy for themselves. */
+  buyers: { id: string; name: string }[] | null;
+};
+
+const unitWord = (item: CatalogItem, n = 1) =>
+  item.saleUnit === 'each' ? '' : ` ${item.saleUnit}${n === 1 ? '' : 's'}`;
+
+// The bench's till, for a phone held in one hand: scan or type a label, or pick from the list; the
+// basket with big +/− targets; pay by card on the processor's page, or (a steward) record cash.
+export function Counter({ currency, items: initial, me, buyers }: Props) {
+  const ids = useId();
+  const queryClient = useQueryClient();
+  const catalog = useQuery({
+    queryKey: ['counter-catalog'],
+    queryFn: () => callApi<{ items: CatalogItem[] }>('/api/sales/catalog', 'GET').then((r) => r.items),
+    initialData: initial,
+  });
+  const items = catalog.data;
+  const [basket, setBasket] = useState<Map<string, number>>(new Map());
+  const [code, setCode] = useState('');
+  const [search, setSearch] = useState('');
+  const [note, setNote] = useState<string | null>(null);
+  const [buyerId, setBuyerId] = useState(me);
+
+  const byId = useMemo(() => new Map(items.map((i) => [i.id, i])), [items]);
+  const lines = [...basket]
+    .map(([id, qty]) => ({ item: byId.get(id), qty }))
+    .filter((l): l is { item: CatalogItem; qty: number } => Boolean(l.item));
+  const total = lines.reduce((s, l) => s + l.qty * l.item.priceMinor, 0);
+  const money = (n: number) => formatMoney(n, currency);
+
+  const add = useCallback((item: CatalogItem, by = 1) => {
+    setBasket((b) => {
+      const next = new Map(b);
+      const qty = Math.min(item.onShelf, Math.max(0, (next.get(item.id) ?? 0) + by));
+      if (qty === 0) next.delete(item.id);
+      else next.set(item.id, qty);
+      return next;
+    });
+    setNote(by > 0 && item.onShelf === 0 ? `${item.name} is not on the shelf.` : null);
+  }, []);
+
+  const onCode = useCallback(
+    (text: string) => {
+      const found = lookupCode(text, items);
+      if ('item' in found) {
+        add(found.item);
+        setNote(`Added ${found.item.name}.`);
+        setCode('');
+      } else setNote(found.message);
+    },
+    [items, add],
+  );
+
+  const body = () => ({
+    lines: lines.map((l) => ({ partId: l.item.id, qty: l.qty })),
+    ...(buyerId !== me ? { buyerId } : {}),
+  });
+  const card = useMutation({
+    mutationFn: () => callApi<{ sale: { id: string }; url: string }>('/api/sales', 'POST', body()),
+    onSuccess: ({ url }) => window.location.assign(url),
+  });
+  const cash = useMutation({
+    mutationFn: () =>
+      callApi<{ sale: { id: string; totalMinor: number } }>('/api/sales/cash', 'POST', body()),
+    onSuccess: ({ sale }) => {
+      setBasket(new Map());
+      setNote(`Cash sale of ${money(sale.totalMinor)} recorded. Put the money in the honour box.`);
+      void queryClient.invalidateQueries({ queryKey: ['counter-catalog'] });
+    },
+  });
+  const failure = (card.error ?? cash.error) as ApiError | null;
+  const lineProblem = (index: number) =>
+    failure?.fields?.[`lines.${index}.qty`]?.[0] ?? failure?.fields?.[`lines.${index}.partId`]?.[0];
+  const busy = card.isPending || cash.isPending;
+
+  const shown = items.filter((i) => {
+    const q = search.trim().toLowerCase();
+    return !q || i.name.toLowerCase().includes(q) || i.sku.toLowerCase().includes(q);
+  });
+
+  // On a phone: code and camera, then the basket, then the list; on a laptop the basket sits on the
+  // right beside both.
+  return (
+    <div className="grid gap-4 md:grid-cols-2">
+      <section aria-labelledby={`${ids}-find`} className="card space-y-3 md:col-start-1 md:row-start-1">
+        <h2 id={`${ids}-find`} className="text-lg font-bold">
+          Scan or type a label
+        </h2>
+        <form
+          onSubmit={(e) => {
+            e.preventDefault();
+            onCode(code);
+          }}
+          className="flex gap-2"
+        >
+          <div className="min-w-0 flex-1">
+            <label htmlFor={`${ids}-code`} className="label">
+              Label code
+            </label>
+            <input
+              id={`${ids}-code`}
+              className="field font-mono uppercase"
+              value={code}
+              onChange={(e) => setCode(e.target.value)}
+              autoComplete="off"
+              autoCapitalize="characters"
+              spellCheck={false}
+              placeholder="K7F2-QX9"
+            />
+          </div>
+          <button type="submit" className="btn-primary self-end">
+            Add
+          </button>
+        </form>
+        <CameraScan onCode={onCode} />
+        <p aria-live="polite" className="min-h-6 text-sm">
+          {note}
+        </p>
+      </section>
+
+      <section
+        aria-labelledby={`${ids}-basket`}
+        className="card space-y-3 md:sticky md:top-4 md:col-start-2 md:row-span-2 md:row-start-1 md:self-start"
+      >
+        <h2 id={`${ids}-basket`} className="text-lg font-bold">
+          Basket
+        </h2>
+        {lines.length === 0 ? <p className="muted">Empty. Scan a label or add from the list.</p> : null}
+        <ul className="space-y-2" aria-label="Basket lines">
+          {lines.map((l, index) => (
+            <li key={l.item.id} className="rounded-lg border border-stone-200 p-2 dark:border-stone-700">
+              <p className="font-semibold break-words">{l.item.name}</p>
+              <div className="mt-1 flex items-center justify-between gap-2">
+                <div className="flex items-center gap-1">
+                  <button
+                    type="button"
+                    className="btn-quiet px-3"
+                    onClick={() => add(l.item, -1)}
+                    aria-label={`One fewer ${l.item.name}`}
+                  >
+                    <Minus aria-hidden className="size-5" />
+                  </button>
+                  <span
+                    className="min-w-10 text-center text-lg font-bold"
+                    aria-label={`Quantity of ${l.item.name}`}
+                  >
+                    {l.qty}
+                  </span>
+                  <button
+                    type="button"
+                    className="btn-quiet px-3"
+                    onClick={() => add(l.item, 1)}
+                    disabled={l.qty >= l.item.onShelf}
+                    aria-label={`One more ${l.item.name}`}
+                  >
+                    <Plus aria-hidden className="size-5" />
+                  </button>
+                  <button
+                    type="button"
+                    className="btn-quiet px-3"
+                    onClick={() => add(l.item, -l.qty)}
+                    aria-label={`Remove ${l.item.name}`}
+                  >
+                    <Trash2 aria-hidden className="size-5" />
+                  </button>
+                </div>
+                <span className="font-semibold tabular-nums">{money(l.qty * l.item.priceMinor)}</span>
+              </div>
+              {lineProblem(index) ? (
+                <p className="mt-1 text-sm font-semibold text-red-800 dark:text-red-300">
+                  {lineProblem(index)}
+                </p>
+              ) : null}
+            </li>
+          ))}
+        </ul>
+        <p className="flex items-baseline justify-between border-t border-stone-200 pt-2 text-xl font-bold dark:border-stone-700">
+          <span>Total</span>
+          <span className="tabular-nums" data-testid="basket-total">
+            {money(total)}
+          </span>
+        </p>
+
+        {buyers ? (
+          <div>
+            <label htmlFor={`${ids}-buyer`} className="label">
+              Selling to
+            </label>
+            <select
+              id={`${ids}-buyer`}
+              className="field"
+              value={buyerId}
+              onChange={(e) => setBuyerId(e.target.value)}
+            >
+              {buyers.map((b) => (
+                <option key={b.id} value={b.id}>
+                  {b.id === me ? `${b.name} (me)` : b.name}
+                </option>
+              ))}
+            </select>
+          </div>
+        ) : null}
+
+        {failure ? (
+          <p
+            role="alert"
+            className="rounded-lg border border-red-700 bg-red-50 p-2 text-sm text-red-900 dark:bg-red-950 dark:text-red-200"
+          >
+            {errorText(failure)}
+          </p>
+        ) : null}
+        <button
+          type="button"
+          className="btn-primary w-full py-3 text-lg"
+          disabled={lines.length === 0 || busy}
+          onClick={() => card.mutate()}
+        >
+          {card.isPending ? 'Opening the card payment…' : `Pay ${money(total)} by card`}
+        </button>
+        {buyers ? (
+          <button
+            type="button"
+            className="btn-quiet w-full"
+            disabled={lines.length === 0 || busy}
+            onClick={() => cash.mutate()}
+          >
+            {cash.isPending ? 'Recording…' : `Record ${money(total)} cash into the honour box`}
+          </button>
+        ) : null}
+        <p className="muted text-sm">
+          Card payments open the card processor’s page; nothing leaves the shelf until the payment is
+          confirmed.
+        </p>
+      </section>
+
+      <section aria-labelledby={`${ids}-list`} className="card space-y-3 md:col-start-1 md:row-start-2">
+        <h2 id={`${ids}-list`} className="text-lg font-bold">
+          Or pick from the shelf
+        </h2>
+        <div>
+          <label htmlFor={`${ids}-search`} className="label">
+            Search the shelf
+          </label>
+          <input
+            id={`${ids}-search`}
+            className="field"
+            type="search"
+            value={search}
+            onChange={(e) => setSearch(e.target.value)}
+            placeholder="heat-shrink, LED, wire…"
+          />
+        </div>
+        <ul className="divide-y divide-stone-200 dark:divide-stone-800" aria-label="Items for sale">
+          {shown.map((i) => (
+            <li key={i.id} className="flex items-center justify-between gap-3 py-2">
+              <div className="min-w-0">
+                <p className="font-semibold break-words">{i.name}</p>
+                <p className="muted text-sm">
+                  {money(i.priceMinor)}
+                  {i.saleUnit === 'each' ? ' each' : ` per ${i.saleUnit}`} · {i.onShelf}
+                  {unitWord(i, i.onShelf)} on the shelf
+                </p>
+              </div>
+              <button
+                type="button"
+                className="btn-quiet shrink-0"
+                onClick={() => add(i)}
+                disabled={i.onShelf === 0}
+                aria-label={`Add ${i.name}`}
+              >
+                <Plus aria-hidden className="size-5" /> Add
+              </button>
+            </li>
+          ))}
+          {shown.length === 0 ? <li className="muted py-2">Nothing matches.</li> : null}
+        </ul>
+      </section>
+    </div>
+  );
+}

@@ -1,0 +1,72 @@
+'use client';
+import { useMutation, useQuery } from '@tanstack/react-query';
+import { CircleCheck, Clock, OctagonX } from 'lucide-react';
+import Link from 'next/link';
+import { useEffect } from 'react';
+import { callApi, errorText } from '@/components/loans/api';
+import type { SaleView } from '@/lib/sales/read';
+import { formatMoney } from '@/lib/money';
+
+const PAID = new Set(['paid', 'partially_refunded', 'refunded']);
+
+// Where the processor's page sends the buyer back. The sale's state comes from the server, which
+// hears it from the signed webhook; this page only polls until the sale is no longer pending.
+export function SaleStatus({ saleId, cancelled }: { saleId: string; cancelled: boolean }) {
+  const cancel = useMutation({ mutationFn: () => callApi(`/api/sales/${saleId}/cancel`, 'POST') });
+  const { mutate: cancelNow } = cancel;
+  useEffect(() => {
+    if (cancelled) cancelNow();
+  }, [cancelled, cancelNow]);
+
+  const q = useQuery({
+    queryKey: ['sale', saleId],
+    queryFn: () => callApi<{ sale: SaleView }>(`/api/sales/${saleId}`, 'GET').then((r) => r.sale),
+    refetchInterval: (query) => (query.state.data?.status === 'pending' ? 1500 : false),
+    staleTime: 0,
+  });
+  if (q.isPending) return <p role="status">Looking up the sale…</p>;
+  if (q.isError) return <p role="alert">{errorText(q.error)}</p>;
+  const sale = q.data;
+  const money = (n: number) => formatMoney(n, sale.currency);
+
+  return (
+    <div className="card space-y-3" data-sale-status={sale.status}>
+      {sale.status === 'pending' ? (
+        <p role="status" className="flex items-center gap-2 text-lg font-bold">
+          <Clock aria-hidden className="size-6" /> Waiting for the card processor to confirm…
+        </p>
+      ) : PAID.has(sale.status) ? (
+        <p
+          role="status"
+          className="flex items-center gap-2 text-lg font-bold text-green-900 dark:text-green-200"
+        >
+          <CircleCheck aria-hidden className="size-6" /> Paid. Your receipt is on its way by e-mail.
+        </p>
+      ) : (
+        <p role="status" className="flex items-center gap-2 text-lg font-bold text-red-900 dark:text-red-200">
+          <OctagonX aria-hidden className="size-6" /> Not paid (
+          {sale.status === 'expired' ? 'cancelled or timed out' : 'card declined or payment failed'}). Nothing
+          was taken from the shelf.
+        </p>
+      )}
+      <ul className="divide-y divide-stone-200 dark:divide-stone-800">
+        {sale.lines.map((l) => (
+          <li key={l.id} className="flex justify-between gap-3 py-1.5">
+            <span>
+              {l.qty} × {l.name}
+            </span>
+            <span className="tabular-nums">{money(l.qty * l.unitPriceMinor)}</span>
+          </li>
+        ))}
+      </ul>
+      <p className="flex justify-between text-lg font-bold">
+        <span>Total</span>
+        <span className="tabular-nums">{money(sale.totalMinor)}</span>
+      </p>
+      <p className="muted text-sm">Sale reference {sale.id.slice(0, 8).toUpperCase()}</p>
+      <Link href="/counter" className="btn-quiet">
+        Back to the counter
+      </Link>
+    </div>
+  );
+}

@@ -1,0 +1,370 @@
+import type Stripe from 'stripe';
+import type { Db } from '@/db/connect';
+import { makeStripe } from '@/lib/payments/stripe';
+import { priceBasket, type PricedLine } from '@/lib/sales/basket';
+import { writeCashSale } from '@/lib/sales/cash';
+import { checkoutIdempotencyKey, checkoutParams } from '@/lib/sales/checkout';
+import { markSaleEnded, markSalePaid } from '@/lib/sales/paid';
+import { monthOf, monthRange, shiftMonth, type Month } from '@/lib/sales/periods';
+import { applyRefund, refundMetadata, refundState, lockSale } from '@/lib/sales/refunds';
+
+// A month of invented consumable sales that exist both in our database and at the payments fake:
+// every card sale is a real checkout session paid on the fake (so its ledger holds the charge, the
+// fee, the refund and the payout), dated inside the month by moving the fake's clock while it is made.
+// Exactly one mismatch is planted for the treasurer to find: one sale whose processor charge is
+// lower than the sale we hold (as if a price had been typed wrong at the till).
+
+const SUCCESS_CARD = '4242 4242 4242 4242';
+const DECLINE_CARD = '4000 0000 0000 0002';
+const DEMO_APP_URL = 'http://127.0.0.1:3000';
+
+/** The planted mismatch: this part's line is charged at a lower unit price than the sale says. */
+export const PLANTED_MISMATCH = { sku: 'HS-BAR-200', discountMinor: 45 };
+
+type Person = { id: string; name: string; email: string };
+type Fake = { url: string; stripe: Stripe };
+
+/** A small deterministic generator (mulberry32) so the demo month is the same on every machine. */
+function rng(seed: number) {
+  let a = seed >>> 0;
+  return () => {
+    a = (a + 0x6d2b79f5) >>> 0;
+    let t = a;
+    t = Math.imul(t ^ (t >>> 15), t | 1);
+    t ^= t + Math.imul(t ^ (t >>> 7), t | 61);
+    return ((t ^ (t >>> 14)) >>> 0) / 4294967296;
+  };
+}
+
+async function control(
+  fake: Fake,
+  route: string,
+  body?: unknown,
+): Promise<{ status: number; json: Record<string, unknown> }> {
+  const res = await fetch(`${fake.url}/_fake/${route}`, {
+    method: body === undefined ? 'GET' : 'POST',
+    headers: { 'content-type': 'application/json' },
+    body: body === undefined ? undefined : JSON.stringify(body),
+    signal: AbortSignal.timeout(5_000),
+  });
+  return { status: res.status, json: (await res.json()) as Record<string, unknown> };
+}
+
+const setFakeClock = (fake: Fake, at: Date) =>
+  control(fake, 'clock', { now: Math.floor(at.getTime() / 1000) });
+
+export type SeededMonth = {
+  month: Month;
+  cardSales: string[];
+  cashSales: string[];
+  plantedSaleId: string;
+  refundedSaleId: string;
+  declinedSaleId: string;
+  abandonedSaleId: string;
+};
+
+/**
+ * Seeds one month of sales into a space through the fake. Used by the demo (Quillmere, last month) and
+ * by tests that want a seeded month of their own. The fake's clock is put back as it was afterwards.
+ */
+export async function seedSalesMonth(
+  db: Db,
+  fake: Fake,
+  opts: {
+    spaceId: string;
+    spaceName: string;
+    month: Month;
+    appBaseUrl?: string;
+    seed?: number;
+    steward: Person;
+    members: Person[];
+  },
+): Promise<SeededMonth> {
+  const space = await db
+    .selectFrom('spaces')
+    .select(['currency', 'time_zone'])
+    .where('id', '=', opts.spaceId)
+    .executeTakeFirstOrThrow();
+  const currency = space.currency.trim();
+  const { from, to } = monthRange(opts.month, space.time_zone);
+  const random = rng(opts.seed ?? 20261);
+  const pick = <T>(xs: T[]) => xs[Math.floor(random() * xs.length)];
+  const shelf = await db
+    .selectFrom('parts')
+    .innerJoin('stock', 'stock.part_id', 'parts.id')
+    .select(['parts.id', 'parts.sku', 'parts.price_minor', 'stock.qty'])
+    .where('parts.space_id', '=', opts.spaceId)
+    .where('parts.sellable', '=', true)
+    .where('parts.tracking', '=', 'counted')
+    .where('parts.price_minor', '>', 1)
+    .where('stock.qty', '>=', 1)
+    .execute();
+  // Baskets draw on well-stocked parts only, so a month of sales never empties a bin.
+  const catalog = shelf.filter((p) => p.qty >= 12);
+  if (catalog.length < 3)
+    throw new Error('seedSalesMonth: the space needs at least three sellable parts with stock');
+  const planted = shelf.find((p) => p.sku === PLANTED_MISMATCH.sku) ?? catalog[0];
+  const discount = Math.min(PLANTED_MISMATCH.discountMinor, Math.floor(planted.price_minor! / 4));
+
+  // Shop hours, 17:00–20:59 local, on about two days in three.
+  const days = Math.round((to.getTime() - from.getTime()) / 86_400_000);
+  const times: Date[] = [];
+  for (let d = 0; d < days; d++) {
+    const visits = random() < 0.35 ? 0 : random() < 0.7 ? 1 : 2;
+    for (let v = 0; v < visits; v++)
+      times.push(new Date(from.getTime() + d * 86_400_000 + (17 + random() * 3.9) * 3_600_000));
+  }
+  times.sort((a, b) => a.getTime() - b.getTime());
+
+  const basket = async (must?: string): Promise<PricedLine[]> => {
+    const wanted = new Map<string, number>();
+    if (must) wanted.set(must, 1);
+    const n = 1 + Math.floor(random() * 3);
+    while (wanted.size < n) wanted.set(pick(catalog).id, 1 + Math.floor(random() * 2));
+    return priceBasket(
+      db,
+      opts.spaceId,
+      [...wanted].map(([partId, qty]) => ({ partId, qty })),
+    );
+  };
+
+  const original = Number((await control(fake, 'clock')).json.offset_seconds ?? 0);
+  const out: SeededMonth = {
+    month: opts.month,
+    cardSales: [],
+    cashSales: [],
+    plantedSaleId: '',
+    refundedSaleId: '',
+    declinedSaleId: '',
+    abandonedSaleId: '',
+  };
+  try {
+    const plantedAt = times[Math.floor(times.length * 0.4)];
+    const refundAt = times[Math.floor(times.length * 0.2)];
+    const declinedAt = times[Math.floor(times.length * 0.55)];
+    const abandonedAt = times[Math.floor(times.length * 0.75)];
+    const cashAt = new Set([0.1, 0.35, 0.6, 0.85].map((f) => times[Math.floor(times.length * f)]));
+
+    for (const at of times) {
+      const buyer = pick(opts.members);
+      if (cashAt.has(at)) {
+        const lines = await basket();
+        const sale = await db.transaction().execute((trx) =>
+          writeCashSale(trx, {
+            spaceId: opts.spaceId,
+            currency,
+            buyerId: buyer.id,
+            cashierId: opts.steward.id,
+            lines,
+            at,
+          }),
+        );
+        out.cashSales.push(sale.id);
+        continue;
+      }
+      const isPlanted = at === plantedAt;
+      const lines = await basket(isPlanted ? planted.id : undefined);
+      await setFakeClock(fake, at);
+      const sale = await db
+        .insertInto('sales')
+        .values({
+          space_id: opts.spaceId,
+          buyer_id: buyer.id,
+          cashier_id: buyer.id,
+          method: 'card',
+          status: 'pending',
+          currency,
+          total_minor: lines.reduce((s, l) => s + l.qty * l.unitPriceMinor, 0),
+          created_at: at,
+        })
+        .returning('id')
+        .executeTakeFirstOrThrow();
+      await db
+        .insertInto('sale_lines')
+        .values(
+          lines.map((l) => ({
+            sale_id: sale.id,
+            space_id: opts.spaceId,
+            part_id: l.partId,
+            qty: l.qty,
+            unit_price_minor: l.unitPriceMinor,
+          })),
+        )
+        .execute();
+      const charged = lines.map((l) => ({
+        name: l.name,
+        qty: l.qty,
+        unitPriceMinor: isPlanted && l.partId === planted.id ? l.unitPriceMinor - discount : l.unitPriceMinor,
+      }));
+      const session = await fake.stripe.checkout.sessions.create(
+        checkoutParams({
+          saleId: sale.id,
+          spaceId: opts.spaceId,
+          currency,
+          lines: charged,
+          appBaseUrl: opts.appBaseUrl ?? DEMO_APP_URL,
+          buyerEmail: buyer.email,
+          description: `${opts.spaceName} counter sale ${sale.id.slice(0, 8)}`,
+          nowSeconds: Math.floor(at.getTime() / 1000),
+        }),
+        { idempotencyKey: checkoutIdempotencyKey(sale.id) },
+      );
+      await db
+        .updateTable('sales')
+        .set({ checkout_session_id: session.id, expires_at: new Date(session.expires_at * 1000) })
+        .where('id', '=', sale.id)
+        .execute();
+
+      if (at === abandonedAt || at === declinedAt) {
+        // Walked away from the pay page, or the card was declined and they gave up: nothing taken.
+        const declined = at === declinedAt;
+        if (declined) await control(fake, `sessions/${session.id}/pay`, { card: DECLINE_CARD });
+        await fake.stripe.checkout.sessions.expire(session.id);
+        await db.transaction().execute((trx) =>
+          markSaleEnded(trx, sale.id, declined ? 'failed' : 'expired', {
+            source: 'seed',
+            reason: declined ? 'card declined' : 'left the pay page',
+          }),
+        );
+        if (declined) out.declinedSaleId = sale.id;
+        else out.abandonedSaleId = sale.id;
+        continue;
+      }
+      const paid = await control(fake, `sessions/${session.id}/pay`, { card: SUCCESS_CARD });
+      if (paid.status !== 200)
+        throw new Error(`seed: the payments fake refused to pay ${session.id}: ${JSON.stringify(paid.json)}`);
+      const pi = (paid.json.payment_intent as { id: string }).id;
+      await db.transaction().execute((trx) =>
+        markSalePaid(trx, {
+          saleId: sale.id,
+          paymentIntentId: pi,
+          amountMinor: session.amount_total,
+          currency: session.currency,
+          paidAt: at,
+          source: 'seed',
+          backdate: true,
+        }),
+      );
+      out.cardSales.push(sale.id);
+      if (isPlanted) out.plantedSaleId = sale.id;
+
+      if (at === refundAt) {
+        // Two days later the buyer brings one line back unopened: refunded and put back on the shelf.
+        const refundTime = new Date(at.getTime() + 2 * 86_400_000);
+        await setFakeClock(fake, refundTime);
+        const row = await db
+          .selectFrom('sales')
+          .selectAll()
+          .where('id', '=', sale.id)
+          .executeTakeFirstOrThrow();
+        const line = (await refundState(db, row)).lines[0];
+        const refundLines = [{ saleLineId: line.id, qty: 1 }];
+        const refund = await fake.stripe.refunds.create(
+          {
+            payment_intent: pi,
+            amount: line.unit_price_minor,
+            reason: 'requested_by_customer',
+            metadata: refundMetadata({
+              saleId: sale.id,
+              spaceId: opts.spaceId,
+              by: opts.steward.id,
+              restock: true,
+              lines: refundLines,
+            }),
+          },
+          { idempotencyKey: `ohm-refund-${sale.id}-1` },
+        );
+        await db.transaction().execute(async (trx) =>
+          applyRefund(trx, await lockSale(trx, sale.id), {
+            processorRefundId: refund.id,
+            amountMinor: refund.amount,
+            lines: refundLines,
+            restock: true,
+            actorId: null,
+            source: 'seed',
+            at: refundTime,
+          }),
+        );
+        out.refundedSaleId = sale.id;
+      }
+    }
+    // The month's takings paid out to the bank on its last evening.
+    await setFakeClock(fake, new Date(to.getTime() - 2 * 3_600_000));
+    await control(fake, 'payouts', { currency: currency.toLowerCase() });
+    if (!out.plantedSaleId || !out.refundedSaleId)
+      throw new Error('seedSalesMonth: the month is too short to plant its mismatch and refund');
+  } finally {
+    const now = Number((await control(fake, 'clock')).json.offset_seconds ?? 0);
+    await control(fake, 'clock', { advance: original - now });
+  }
+  return out;
+}
+
+/**
+ * The demo's month of sales in Quillmere Makers (the month before `clock`). Skipped, with a note to
+ * print, when the space already has sales or when the payments fake is not answering.
+ */
+export async function seedSales(
+  db: Db,
+  clock: Date = new Date(),
+  env: NodeJS.ProcessEnv = process.env,
+): Promise<{ seeded: boolean; note: string }> {
+  const space = await db
+    .selectFrom('spaces')
+    .select(['id', 'name', 'time_zone'])
+    .where('slug', '=', 'quillmere')
+    .executeTakeFirst();
+  if (!space) return { seeded: false, note: 'demo sales skipped: there is no Quillmere Makers space' };
+  const existing = await db
+    .selectFrom('sales')
+    .select('id')
+    .where('space_id', '=', space.id)
+    .limit(1)
+    .executeTakeFirst();
+  if (existing) return { seeded: false, note: 'demo sales already present: left as they are' };
+
+  const protocol = env.PAYMENTS_API_PROTOCOL || 'http';
+  const host = env.PAYMENTS_API_HOST || '127.0.0.1';
+  const port = Number(env.PAYMENTS_API_PORT || 12111);
+  const url = `${protocol}://${host}:${port}`;
+  try {
+    const health = await fetch(`${url}/_fake/health`, { signal: AbortSignal.timeout(2_000) });
+    if (!health.ok) throw new Error(`answered ${health.status}`);
+  } catch (err) {
+    return {
+      seeded: false,
+      note: `demo sales skipped: the payments fake at ${url} is not answering (${err instanceof Error ? err.message : String(err)}); start it and run the seed again`,
+    };
+  }
+  const stripe = makeStripe({
+    STRIPE_SECRET_KEY: env.STRIPE_SECRET_KEY || 'sk_test_ohmstead_local',
+    PAYMENTS_API_HOST: host,
+    PAYMENTS_API_PORT: port,
+    PAYMENTS_API_PROTOCOL: protocol as 'http' | 'https',
+  });
+
+  const people = await db
+    .selectFrom('memberships')
+    .innerJoin('users', 'users.id', 'memberships.user_id')
+    .select(['users.id', 'users.name', 'users.email', 'memberships.roles'])
+    .where('memberships.space_id', '=', space.id)
+    .orderBy('users.email')
+    .execute();
+  const steward = people.find((p) => p.roles.includes('steward'));
+  const members = people.filter((p) => p.roles.includes('member'));
+  if (!steward || members.length === 0)
+    return { seeded: false, note: 'demo sales skipped: Quillmere Makers has no steward or no members' };
+
+  const month = shiftMonth(monthOf(clock, space.time_zone), -1);
+  const seeded = await seedSalesMonth(
+    db,
+    { url, stripe },
+    { spaceId: space.id, spaceName: space.name, month, appBaseUrl: env.APP_BASE_URL, steward, members },
+  );
+  return {
+    seeded: true,
+    note:
+      `demo sales seeded: ${seeded.cardSales.length} card and ${seeded.cashSales.length} cash sales in ${month} at Quillmere Makers ` +
+      `(one refund, one declined card, one abandoned basket; one charge differs from its sale for the treasurer to find)`,
+  };
+}

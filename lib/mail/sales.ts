@@ -1,0 +1,111 @@
+import 'server-only';
+import type { Db } from '@/db/connect';
+import { env } from '@/lib/env';
+import { formatDateTime } from '@/lib/format';
+import { formatMoney } from '@/lib/money';
+import { sendMail } from './server';
+
+const esc = (s: string) => s.replace(/[&<>"']/g, (c) => `&#${c.charCodeAt(0)};`);
+
+export type ReceiptData = {
+  saleId: string;
+  spaceName: string;
+  timeZone: string;
+  buyerName: string;
+  method: 'card' | 'cash';
+  currency: string;
+  totalMinor: number;
+  paidAt: Date;
+  lines: { name: string; qty: number; unitPriceMinor: number; saleUnit: string }[];
+};
+
+/** The receipt in our own words: what was bought, what it cost, the sale's reference. */
+export function receiptMessage(r: ReceiptData, appBaseUrl: string) {
+  const ref = r.saleId.slice(0, 8).toUpperCase();
+  const money = (n: number) => formatMoney(n, r.currency);
+  const qty = (l: ReceiptData['lines'][number]) =>
+    l.saleUnit === 'each' ? `${l.qty} ×` : `${l.qty} ${l.saleUnit}${l.qty === 1 ? '' : 's'} ×`;
+  const rows = r.lines.map(
+    (l) => `  ${qty(l)} ${l.name} @ ${money(l.unitPriceMinor)} = ${money(l.qty * l.unitPriceMinor)}`,
+  );
+  const when = formatDateTime(r.paidAt, r.timeZone);
+  const link = `${appBaseUrl.replace(/\/$/, '')}/counter/done?sale=${r.saleId}`;
+  const paidBy = r.method === 'card' ? 'by card' : 'in cash (honour box)';
+  return {
+    subject: `Receipt ${ref} from ${r.spaceName}: ${money(r.totalMinor)}`,
+    text:
+      `Hello ${r.buyerName},\n\nThank you. You paid ${money(r.totalMinor)} ${paidBy} at the ${r.spaceName} bench on ${when}.\n\n` +
+      `${rows.join('\n')}\n  Total ${money(r.totalMinor)}\n\nReference: ${ref} (sale ${r.saleId})\n${link}\n`,
+    html:
+      `<p>Hello ${esc(r.buyerName)},</p><p>Thank you. You paid <strong>${esc(money(r.totalMinor))}</strong> ${paidBy} at the ${esc(r.spaceName)} bench on ${esc(when)}.</p>` +
+      `<table><tbody>${r.lines
+        .map(
+          (l) =>
+            `<tr><td>${esc(qty(l))} ${esc(l.name)}</td><td style="text-align:right">${esc(money(l.qty * l.unitPriceMinor))}</td></tr>`,
+        )
+        .join(
+          '',
+        )}<tr><td><strong>Total</strong></td><td style="text-align:right"><strong>${esc(money(r.totalMinor))}</strong></td></tr></tbody></table>` +
+      `<p>Reference: ${ref} (sale ${esc(r.saleId)}) · <a href="${esc(link)}">See the sale</a></p>`,
+  };
+}
+
+/** Sends the receipt of a paid sale to its buyer. Called after the payment's transaction committed. */
+export async function sendSaleReceipt(db: Db, saleId: string): Promise<void> {
+  const sale = await db
+    .selectFrom('sales')
+    .innerJoin('spaces', 'spaces.id', 'sales.space_id')
+    .innerJoin('users', 'users.id', 'sales.buyer_id')
+    .select([
+      'sales.id',
+      'sales.method',
+      'sales.currency',
+      'sales.total_minor',
+      'sales.paid_at',
+      'spaces.name as spaceName',
+      'spaces.time_zone',
+      'users.email',
+      'users.name',
+    ])
+    .where('sales.id', '=', saleId)
+    .executeTakeFirst();
+  if (!sale?.paid_at) return;
+  const lines = await db
+    .selectFrom('sale_lines')
+    .innerJoin('parts', 'parts.id', 'sale_lines.part_id')
+    .select(['parts.name', 'parts.sale_unit', 'sale_lines.qty', 'sale_lines.unit_price_minor'])
+    .where('sale_lines.sale_id', '=', saleId)
+    .orderBy('parts.name')
+    .execute();
+  const message = receiptMessage(
+    {
+      saleId: sale.id,
+      spaceName: sale.spaceName,
+      timeZone: sale.time_zone,
+      buyerName: sale.name,
+      method: sale.method,
+      currency: sale.currency.trim(),
+      totalMinor: sale.total_minor,
+      paidAt: sale.paid_at,
+      lines: lines.map((l) => ({
+        name: l.name,
+        qty: l.qty,
+        unitPriceMinor: l.unit_price_minor,
+        saleUnit: l.sale_unit,
+      })),
+    },
+    env().APP_BASE_URL,
+  );
+  await sendMail({ to: sale.email, ...message });
+}
+
+/** Receipts after commit: a mail failure is logged, never turned into a failed payment. */
+export async function sendReceipts(db: Db, saleIds: string[]): Promise<void> {
+  for (const id of saleIds) {
+    try {
+      await sendSaleReceipt(db, id);
+    } catch (err) {
+      console.error(`[receipt] sale ${id}: ${err instanceof Error ? err.message : String(err)}`);
+    }
+  }
+}

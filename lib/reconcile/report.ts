@@ -1,0 +1,156 @@
+import type Stripe from 'stripe';
+import type { Db } from '@/db/connect';
+import type { Ctx } from '@/lib/auth/roles';
+import { monthKey, monthRange, spaceClock, type Month } from '@/lib/sales/periods';
+import { fetchLedger, type TheirTxn } from './ledger';
+import { matchPeriod, type OurRefund, type OurSale, type ReconRow, type ReconTotals } from './match';
+
+export type Reconciliation = {
+  month: Month;
+  from: string;
+  to: string;
+  timeZone: string;
+  currency: string;
+  closed: { closedAt: string; closedBy: string | null } | null;
+  rows: ReconRow[];
+  totals: ReconTotals;
+  payouts: { id: string | null; amountMinor: number; at: string }[];
+};
+
+const MARGIN_MS = 24 * 3600_000;
+const MONEY_STATES = ['paid', 'partially_refunded', 'refunded'] as const;
+
+/**
+ * One month of the books beside the processor's ledger. Our side: card and cash sales with money in
+ * the month (by payment time, in the space's time zone) and the refunds booked in it. Their side: the
+ * balance transactions of the month (with a day's margin), fetched through the SDK.
+ */
+export async function reconcileMonth(
+  db: Db,
+  ctx: Ctx,
+  stripe: Stripe,
+  month: Month,
+): Promise<Reconciliation> {
+  const { timeZone, currency } = await spaceClock(db, ctx.spaceId);
+  const { from, to } = monthRange(month, timeZone);
+  const theirs = await fetchLedger(stripe, {
+    from: new Date(from.getTime() - MARGIN_MS),
+    to: new Date(to.getTime() + MARGIN_MS),
+  });
+  const { sales, refunds } = await ourSide(db, ctx.spaceId, from, to, theirs);
+  const result = matchPeriod({ from, to, spaceId: ctx.spaceId, currency, sales, refunds, theirs });
+  const closed = await db
+    .selectFrom('closed_periods')
+    .leftJoin('users', 'users.id', 'closed_periods.closed_by')
+    .select(['closed_periods.closed_at', 'users.name'])
+    .where('closed_periods.space_id', '=', ctx.spaceId)
+    .where('closed_periods.month', '=', monthKey(month))
+    .executeTakeFirst();
+  return {
+    month,
+    from: from.toISOString(),
+    to: to.toISOString(),
+    timeZone,
+    currency,
+    closed: closed ? { closedAt: closed.closed_at.toISOString(), closedBy: closed.name } : null,
+    rows: result.rows,
+    totals: result.totals,
+    payouts: result.payouts.map((p) => ({
+      id: p.sourceId,
+      amountMinor: -p.amountMinor,
+      at: p.created.toISOString(),
+    })),
+  };
+}
+
+async function ourSide(
+  db: Db,
+  spaceId: string,
+  from: Date,
+  to: Date,
+  theirs: TheirTxn[],
+): Promise<{ sales: OurSale[]; refunds: OurRefund[] }> {
+  const UUID = /^[0-9a-f]{8}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{12}$/i;
+  const namedSales = [
+    ...new Set(theirs.map((t) => t.saleId).filter((id): id is string => Boolean(id && UUID.test(id)))),
+  ];
+  const namedPis = [
+    ...new Set(theirs.map((t) => t.paymentIntentId).filter((id): id is string => Boolean(id))),
+  ];
+  const namedRefunds = [
+    ...new Set(
+      theirs
+        .filter((t) => t.type === 'refund')
+        .map((t) => t.sourceId)
+        .filter((id): id is string => Boolean(id)),
+    ),
+  ];
+
+  const saleRows = await db
+    .selectFrom('sales')
+    .leftJoin('users', 'users.id', 'sales.buyer_id')
+    .select([
+      'sales.id',
+      'sales.method',
+      'sales.status',
+      'sales.total_minor',
+      'sales.paid_at',
+      'sales.payment_intent_id',
+      'users.name',
+    ])
+    .where('sales.space_id', '=', spaceId)
+    .where('sales.reverses_sale_id', 'is', null)
+    .where((eb) =>
+      eb.or([
+        eb.and([
+          eb('sales.status', 'in', MONEY_STATES),
+          eb('sales.paid_at', '>=', from),
+          eb('sales.paid_at', '<', to),
+        ]),
+        ...(namedSales.length ? [eb('sales.id', 'in', namedSales)] : []),
+        ...(namedPis.length ? [eb('sales.payment_intent_id', 'in', namedPis)] : []),
+      ]),
+    )
+    .execute();
+
+  const refundRows = await db
+    .selectFrom('refunds')
+    .innerJoin('sales', 'sales.id', 'refunds.sale_id')
+    .select([
+      'refunds.id',
+      'refunds.processor_refund_id',
+      'refunds.amount_minor',
+      'refunds.created_at',
+      'sales.method',
+      'sales.id as bookedOn',
+      'sales.reverses_sale_id',
+    ])
+    .where('refunds.space_id', '=', spaceId)
+    .where((eb) =>
+      eb.or([
+        eb.and([eb('refunds.created_at', '>=', from), eb('refunds.created_at', '<', to)]),
+        ...(namedRefunds.length ? [eb('refunds.processor_refund_id', 'in', namedRefunds)] : []),
+      ]),
+    )
+    .execute();
+
+  return {
+    sales: saleRows.map((s) => ({
+      id: s.id,
+      method: s.method,
+      status: s.status,
+      totalMinor: s.total_minor,
+      paidAt: s.paid_at,
+      paymentIntentId: s.payment_intent_id,
+      buyer: s.name,
+    })),
+    refunds: refundRows.map((r) => ({
+      id: r.id,
+      saleId: r.reverses_sale_id ?? r.bookedOn,
+      method: r.method,
+      processorRefundId: r.processor_refund_id,
+      amountMinor: r.amount_minor,
+      createdAt: r.created_at,
+    })),
+  };
+}

@@ -1,0 +1,105 @@
+import type { Db } from '@/db/connect';
+import type { SaleStatus } from '@/db/types';
+import type { Ctx } from '@/lib/auth/roles';
+import { saleFor } from './access';
+import { refundState } from './refunds';
+
+export type SaleView = {
+  id: string;
+  status: SaleStatus;
+  method: 'card' | 'cash';
+  currency: string;
+  totalMinor: number;
+  refundedMinor: number;
+  createdAt: string;
+  paidAt: string | null;
+  expiresAt: string | null;
+  buyer: string | null;
+  cashier: string | null;
+  reversesSaleId: string | null;
+  paymentIntentId: string | null;
+  lines: {
+    id: string;
+    partId: string;
+    name: string;
+    qty: number;
+    unitPriceMinor: number;
+    refundedQty: number;
+    leftQty: number;
+  }[];
+  refunds: {
+    id: string;
+    amountMinor: number;
+    restock: boolean;
+    createdAt: string;
+    processorRefundId: string | null;
+    bookedOn: string;
+  }[];
+  reversals: { id: string; totalMinor: number; createdAt: string }[];
+};
+
+/** One sale as the counter's status page and the books show it (404 unless the caller may see it). */
+export async function saleView(db: Db, ctx: Ctx, saleId: string): Promise<SaleView> {
+  const sale = await saleFor(db, ctx, saleId);
+  const ids = [sale.buyer_id, sale.cashier_id].filter((x): x is string => Boolean(x));
+  const people = ids.length
+    ? await db.selectFrom('users').select(['id', 'name']).where('id', 'in', ids).execute()
+    : [];
+  const nameOf = (id: string | null) => people.find((p) => p.id === id)?.name ?? null;
+  const names = await db
+    .selectFrom('sale_lines')
+    .innerJoin('parts', 'parts.id', 'sale_lines.part_id')
+    .select(['sale_lines.id', 'parts.name'])
+    .where('sale_lines.sale_id', '=', sale.id)
+    .execute();
+  const state = await refundState(db, sale);
+  const reversals = await db
+    .selectFrom('sales')
+    .select(['id', 'total_minor', 'created_at'])
+    .where('reverses_sale_id', '=', sale.id)
+    .orderBy('created_at')
+    .execute();
+  const refunds = await db
+    .selectFrom('refunds')
+    .select(['id', 'amount_minor', 'restock', 'created_at', 'processor_refund_id', 'sale_id'])
+    .where('sale_id', 'in', [sale.id, ...reversals.map((r) => r.id)])
+    .orderBy('created_at')
+    .execute();
+  return {
+    id: sale.id,
+    status: sale.status,
+    method: sale.method,
+    currency: sale.currency.trim(),
+    totalMinor: sale.total_minor,
+    refundedMinor: state.refundedMinor,
+    createdAt: sale.created_at.toISOString(),
+    paidAt: sale.paid_at?.toISOString() ?? null,
+    expiresAt: sale.expires_at?.toISOString() ?? null,
+    buyer: nameOf(sale.buyer_id),
+    cashier: nameOf(sale.cashier_id),
+    reversesSaleId: sale.reverses_sale_id,
+    paymentIntentId: sale.payment_intent_id,
+    lines: state.lines.map((l) => ({
+      id: l.id,
+      partId: l.part_id,
+      name: names.find((n) => n.id === l.id)?.name ?? 'Part',
+      qty: l.qty,
+      unitPriceMinor: l.unit_price_minor,
+      refundedQty: l.refunded,
+      leftQty: l.left,
+    })),
+    refunds: refunds.map((r) => ({
+      id: r.id,
+      amountMinor: r.amount_minor,
+      restock: r.restock,
+      createdAt: r.created_at.toISOString(),
+      processorRefundId: r.processor_refund_id,
+      bookedOn: r.sale_id,
+    })),
+    reversals: reversals.map((r) => ({
+      id: r.id,
+      totalMinor: r.total_minor,
+      createdAt: r.created_at.toISOString(),
+    })),
+  };
+}

@@ -1,0 +1,41 @@
+import { z } from 'zod';
+
+// One place for the inputs of the counter and the books: the route handlers, the forms and the
+// services all read these.
+
+export const MAX_BASKET_LINES = 40;
+
+export const saleLineInput = z.object({
+  partId: z.uuid('Choose an item from the list.'),
+  qty: z.number().int('Whole numbers only.').min(1, 'At least 1.').max(999, 'At most 999 at once.'),
+});
+
+export const startSaleInput = z.object({
+  lines: z
+    .array(saleLineInput)
+    .min(1, 'The basket is empty.')
+    .max(MAX_BASKET_LINES, `At most ${MAX_BASKET_LINES} lines.`),
+  /** A steward selling on a member's behalf names the member; a member buys for themself. */
+  buyerId: z.uuid('Choose a member from the list.').optional(),
+});
+export type StartSaleInput = z.infer<typeof startSaleInput>;
+
+export const refundInput = z.object({
+  /** Lines and quantities to refund; leave out for a full refund of whatever is left. */
+  lines: z
+    .array(
+      z.object({
+        saleLineId: z.uuid('Unknown line.'),
+        qty: z.number().int('Whole numbers only.').min(1, 'At least 1.'),
+      }),
+    )
+    .min(1, 'Choose at least one line.')
+    .max(MAX_BASKET_LINES)
+    .optional(),
+  restock: z.boolean().default(false),
+});
+export type RefundInput = z.input<typeof refundInput>;
+
+export const monthInput = z.string().regex(/^\d{4}-(0[1-9]|1[0-2])$/, 'Use the form YYYY-MM.');
+export const monthQuery = z.object({ month: monthInput.optional() });
+export const closeMonthInput = z.object({ month: monthInput });
