@@ -5,7 +5,7 @@ const nextConfig = {
   distDir: process.env.OHM_DIST_DIR || '.next',
   poweredByHeader: false,
   // Server-only packages that must not be bundled (native bits, dynamic requires).
-  serverExternalPackages: ['pg', 'pg-boss', 'nodemailer', 'bcryptjs', 'pdf-lib', 'qrcode', 'stripe', 'file-type'],
+  serverExternalPackages: ['pg', 'pg-boss', '@node-rs/argon2', 'nodemailer', 'pdf-lib', 'qrcode', 'stripe', 'file-type'],
   typedRoutes: false,
   // npm test runs `tsc --noEmit` as its own step; the build need not repeat it.
   typescript: { ignoreBuildErrors: true },

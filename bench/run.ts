@@ -45,7 +45,7 @@ async function signIn(email: string): Promise<Session> {
   return { cookie: s.cookieHeader() };
 }
 
-/** Signs the members in, four at a time (each costs a bcrypt comparison on the server). */
+/** Signs the members in, four at a time (each costs a password-hash comparison on the server). */
 async function signInAll(emails: string[]): Promise<Session[]> {
   const out: Session[] = new Array(emails.length);
   for (let i = 0; i < emails.length; i += 4) {

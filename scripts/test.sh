@@ -36,7 +36,6 @@ status=0
 step() { log "$1"; shift; "$@" || { log "FAILED: $*"; status=1; }; }
 
 step "lint" node node_modules/eslint/bin/eslint.js . --max-warnings=0
-step "type check" node node_modules/typescript/bin/tsc --noEmit
 
 log "throwaway PostgreSQL on port $PG_PORT"
 pg_start "$RUN/pg" "$PG_PORT" throwaway
@@ -47,6 +46,8 @@ node node_modules/tsx/dist/cli.mjs scripts/seed.ts
 
 log "building the app for the tests"
 node node_modules/next/dist/bin/next build >"$RUN/build.log" 2>&1 || { tail -60 "$RUN/build.log"; exit 1; }
+# After the build, so the route types Next generates in .next-test are fresh.
+step "type check" node node_modules/typescript/bin/tsc --noEmit
 node node_modules/next/dist/bin/next start -p "$APP_PORT" -H 127.0.0.1 >"$RUN/app.log" 2>&1 &
 APP_PID=$!
 wait_http "$APP_BASE_URL/signin" 120 || { tail -50 "$RUN/app.log"; exit 1; }

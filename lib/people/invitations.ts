@@ -177,7 +177,7 @@ export type Accepted = { userId: string; email: string; spaceId: string; newAcco
  * e-mail (whose password stays as it is).
  */
 export async function acceptInvitation(db: Db, input: AcceptInvitationInput): Promise<Accepted> {
-  // Hash before the transaction: bcrypt takes ~100 ms and no row should stay locked meanwhile.
+  // Hash before the transaction: hashing takes tens of milliseconds and no row should stay locked meanwhile.
   const passwordHash = input.password ? await hashPassword(input.password) : null;
   return db.transaction().execute(async (trx) => {
     const at = now();

@@ -32,11 +32,13 @@ const lastAudit = (spaceId: string, action: string) =>
     .executeTakeFirst();
 
 /**
- * One change wins; the loser is refused as no longer an (enabled) admin: 403, whether the guard read
- * their roles after the winner committed or the service re-checked them under the space lock.
+ * One change wins; the loser is refused as no longer an (enabled) admin: 403 when demoted, or 401 when the
+ * winner disabled their account before the guard read it (a disabled person is nobody).
  */
 function expectOneWinner(answers: Response[]) {
-  expect(answers.map((r) => r.status).sort()).toEqual([200, 403]);
+  const statuses = answers.map((r) => r.status).sort();
+  expect(statuses[0]).toBe(200);
+  expect([401, 403]).toContain(statuses[1]);
 }
 
 beforeAll(async () => {

@@ -1,0 +1,258 @@
+'use client';
+import { useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
+import { useState } from 'react';
+import { codeFromScan } from '@/labels/url';
+import { api, ApiError } from './api';
+import { FormMessage } from './form-bits';
+import { PartPicker } from './part-picker';
+import { ScrollRegion } from './scroll-region';
+import { TableHead } from './table-head';
+
+type Line = {
+  partId: string;
+  name: string;
+  sku: string;
+  expected: number;
+  counted: number | null;
+  current: number;
+  variance: number | null;
+};
+type Count = { id: string; status: string; locationId: string; locationName: string; lines: Line[] };
+type Location = { id: string; name: string; code: string | null };
+
+/** Count one bin: pick or scan it, type what is there, review the differences, post. */
+export function CountMode({
+  locations,
+  openCounts,
+}: {
+  locations: Location[];
+  openCounts: { id: string; locationName: string }[];
+}) {
+  const queryClient = useQueryClient();
+  const [countId, setCountId] = useState<string | null>(null);
+  const [binText, setBinText] = useState('');
+  const [draft, setDraft] = useState<Record<string, string>>({});
+  const [message, setMessage] = useState<{ text: string; ok?: boolean; fields?: Record<string, string[]> }>({
+    text: '',
+  });
+
+  const count = useQuery({
+    queryKey: ['count', countId],
+    queryFn: () => api<Count>(`/api/stock/counts/${countId}`),
+    enabled: Boolean(countId),
+  });
+  const fail = (e: unknown) =>
+    setMessage(
+      e instanceof ApiError ? { text: e.message, fields: e.fields } : { text: 'Could not reach the server.' },
+    );
+
+  const open = useMutation({
+    mutationFn: (locationId: string) =>
+      api<{ id: string; created: boolean }>('/api/stock/counts', { body: { locationId } }),
+    onSuccess: (r) => {
+      setCountId(r.id);
+      setDraft({});
+      setMessage({
+        text: r.created
+          ? 'Count opened. Type what you find in the bin.'
+          : 'This bin already had an open count; carrying on with it.',
+        ok: true,
+      });
+    },
+    onError: fail,
+  });
+  const lines = () =>
+    (count.data?.lines ?? []).map((l) => {
+      const typed = draft[l.partId];
+      return {
+        partId: l.partId,
+        counted: typed === undefined ? l.counted : typed === '' ? null : Number(typed),
+      };
+    });
+  const save = useMutation({
+    mutationFn: (extra: { partId: string; counted: number | null }[] = []) =>
+      api<Count>(`/api/stock/counts/${countId}`, {
+        method: 'PATCH',
+        body: { lines: [...lines(), ...extra] },
+      }),
+    onSuccess: (c) => {
+      queryClient.setQueryData(['count', countId], c);
+      setDraft({});
+      setMessage({ text: 'Counts saved. Review the differences, then post.', ok: true });
+    },
+    onError: fail,
+  });
+  const post = useMutation({
+    mutationFn: async () => {
+      await api(`/api/stock/counts/${countId}`, { method: 'PATCH', body: { lines: lines() } });
+      return api<{ changed: number }>(`/api/stock/counts/${countId}/post`, { method: 'POST' });
+    },
+    onSuccess: (r) => {
+      setMessage({
+        text: `Posted. ${r.changed} quantit${r.changed === 1 ? 'y' : 'ies'} changed to match the count.`,
+        ok: true,
+      });
+      setCountId(null);
+    },
+    onError: fail,
+  });
+  const abandon = useMutation({
+    mutationFn: () => api(`/api/stock/counts/${countId}`, { method: 'DELETE' }),
+    onSuccess: () => {
+      setCountId(null);
+      setMessage({ text: 'Count abandoned; no stock changed.', ok: true });
+    },
+    onError: fail,
+  });
+
+  function openByText(e: React.FormEvent) {
+    e.preventDefault();
+    const scanned = codeFromScan(binText);
+    const byCode = scanned.ok ? locations.find((l) => l.code === scanned.code) : undefined;
+    const byName = locations.find((l) => l.name.toLowerCase() === binText.trim().toLowerCase());
+    const loc = byCode ?? byName;
+    if (!loc) return setMessage({ text: `No bin here with the code or name “${binText}”.` });
+    open.mutate(loc.id);
+  }
+
+  if (!countId || !count.data) {
+    return (
+      <div className="space-y-4">
+        <FormMessage message={message.text} fields={message.fields} ok={message.ok} />
+        <form onSubmit={openByText} className="card flex flex-wrap items-end gap-3">
+          <div className="min-w-64 flex-1">
+            <label htmlFor="bin" className="label">
+              Scan or type the bin’s code, or its name
+            </label>
+            <input
+              id="bin"
+              className="field font-mono"
+              value={binText}
+              onChange={(e) => setBinText(e.target.value)}
+              autoComplete="off"
+              list="bin-names"
+            />
+            <datalist id="bin-names">
+              {locations.map((l) => (
+                <option key={l.id} value={l.name} />
+              ))}
+            </datalist>
+          </div>
+          <button type="submit" className="btn-primary" disabled={open.isPending}>
+            Start counting
+          </button>
+        </form>
+        {openCounts.length ? (
+          <section className="card" aria-labelledby="open-counts">
+            <h2 id="open-counts" className="font-bold">
+              Counts in progress
+            </h2>
+            <ul className="mt-2 flex flex-wrap gap-2">
+              {openCounts.map((c) => (
+                <li key={c.id}>
+                  <button type="button" className="btn-quiet" onClick={() => setCountId(c.id)}>
+                    {c.locationName}
+                  </button>
+                </li>
+              ))}
+            </ul>
+          </section>
+        ) : null}
+      </div>
+    );
+  }
+
+  const c = count.data;
+  const differences = c.lines.filter((l) => {
+    const typed = draft[l.partId];
+    const counted = typed === undefined ? l.counted : typed === '' ? null : Number(typed);
+    return counted !== null && counted !== l.current;
+  }).length;
+
+  return (
+    <div className="space-y-4">
+      <FormMessage message={message.text} fields={message.fields} ok={message.ok} />
+      <section className="card" aria-labelledby="count-title">
+        <h2 id="count-title" className="text-lg font-bold">
+          Counting {c.locationName}
+        </h2>
+        <p className="muted text-sm">“Books” is what the records say now; leave a line blank to skip it.</p>
+        <div className="mt-3">
+          <ScrollRegion label="Count lines">
+            <table className="table-dense">
+              <TableHead columns={['Part', 'Books', 'Counted', 'Difference']} />
+              <tbody>
+                {c.lines.map((l, i) => {
+                  const typed = draft[l.partId];
+                  const value = typed ?? (l.counted === null ? '' : String(l.counted));
+                  const diff = value === '' || Number.isNaN(Number(value)) ? null : Number(value) - l.current;
+                  return (
+                    <tr key={l.partId}>
+                      <td>
+                        {l.name} <span className="muted font-mono text-xs">{l.sku}</span>
+                      </td>
+                      <td className="tabular-nums">{l.current}</td>
+                      <td>
+                        <label className="sr-only" htmlFor={`count-${i}`}>
+                          Counted {l.name}
+                        </label>
+                        <input
+                          id={`count-${i}`}
+                          type="number"
+                          min={0}
+                          inputMode="numeric"
+                          className="field w-28"
+                          value={value}
+                          aria-invalid={message.fields?.[`lines.${i}.counted`] ? true : undefined}
+                          onChange={(e) => setDraft((d) => ({ ...d, [l.partId]: e.target.value }))}
+                        />
+                      </td>
+                      <td
+                        className={
+                          diff ? 'font-bold text-amber-900 tabular-nums dark:text-amber-200' : 'tabular-nums'
+                        }
+                      >
+                        {diff === null ? '—' : diff > 0 ? `+${diff}` : diff}
+                      </td>
+                    </tr>
+                  );
+                })}
+                {c.lines.length === 0 ? (
+                  <tr>
+                    <td colSpan={4} className="muted">
+                      The records show nothing counted in this bin. Add what you find below.
+                    </td>
+                  </tr>
+                ) : null}
+              </tbody>
+            </table>
+          </ScrollRegion>
+        </div>
+        <div className="mt-4">
+          <p className="label">Found something not on the list?</p>
+          <PartPicker
+            id="found-part"
+            value={null}
+            onChange={(p) => p && save.mutate([{ partId: p.id, counted: null }])}
+          />
+        </div>
+      </section>
+      <div className="flex flex-wrap items-center gap-2">
+        <button type="button" className="btn-quiet" onClick={() => save.mutate([])} disabled={save.isPending}>
+          Save counts
+        </button>
+        <button type="button" className="btn-primary" onClick={() => post.mutate()} disabled={post.isPending}>
+          Post count ({differences} difference{differences === 1 ? '' : 's'})
+        </button>
+        <button
+          type="button"
+          className="btn-quiet"
+          onClick={() => abandon.mutate()}
+          disabled={abandon.isPending}
+        >
+          Abandon
+        </button>
+      </div>
+    </div>
+  );
+}

@@ -1,0 +1,141 @@
+'use client';
+import { useQueryClient } from '@tanstack/react-query';
+import Link from 'next/link';
+import { useState } from 'react';
+import { api } from './api';
+import { describedBy, Field, FormMessage } from './form-bits';
+import { PartPicker, type PickedPart } from './part-picker';
+import { useApiForm } from './use-api-form';
+
+type Location = { id: string; name: string };
+
+/**
+ * Receive stock into a bin, or move it between bins. A labelled part received here gets new units
+ * (each with a code); moving one labelled unit is done by its code.
+ */
+export function StockForm({
+  mode,
+  locations,
+  initialPart,
+}: {
+  mode: 'receive' | 'move';
+  locations: Location[];
+  initialPart: PickedPart | null;
+}) {
+  const queryClient = useQueryClient();
+  const [part, setPart] = useState<PickedPart | null>(initialPart);
+  const form = useApiForm();
+  const { err, busy } = form;
+
+  /** The request this form makes for the chosen part, and what to say when it succeeds. */
+  async function submitFor(p: PickedPart, get: (k: string) => string): Promise<string> {
+    if (mode === 'receive' && p.tracking === 'unit') {
+      const r = await api<{ units: unknown[] }>(`/api/parts/${p.id}/units`, {
+        body: { count: Number(get('qty')), locationId: get('locationId') || null },
+      });
+      return `${r.units.length} new unit${r.units.length === 1 ? '' : 's'} of ${p.name} labelled. Print their labels from the part page.`;
+    }
+    if (mode === 'receive') {
+      const r = await api<{ qty: number }>('/api/stock/receive', {
+        body: { partId: p.id, locationId: get('locationId'), qty: Number(get('qty')), note: get('note') },
+      });
+      return `Received. That bin now holds ${r.qty} of ${p.name}.`;
+    }
+    const r = await api<{ fromQty: number; toQty: number }>('/api/stock/move', {
+      body: {
+        partId: p.id,
+        fromLocationId: get('fromLocationId'),
+        toLocationId: get('toLocationId'),
+        qty: Number(get('qty')),
+        note: get('note'),
+      },
+    });
+    return `Moved. ${r.fromQty} left in the first bin, ${r.toQty} in the second.`;
+  }
+
+  async function onSubmit(e: React.FormEvent<HTMLFormElement>) {
+    e.preventDefault();
+    const formEl = e.currentTarget;
+    const data = new FormData(formEl);
+    if (!part) return form.fail('Choose a part first.', { partId: ['choose a part'] });
+    const done = await form.run(
+      () => submitFor(part, (k) => String(data.get(k) ?? '')),
+      (message) => message,
+    );
+    if (done === undefined) return;
+    (formEl.elements.namedItem('qty') as HTMLInputElement | null)?.select();
+    await queryClient.invalidateQueries({ queryKey: ['part-pick'] });
+  }
+
+  const moveUnits = mode === 'move' && part?.tracking === 'unit';
+  const binSelect = (name: string, label: string) => (
+    <Field id={name} label={label} error={err(name)}>
+      <select id={name} name={name} className="field" required {...describedBy(name, err(name))}>
+        {mode === 'receive' && part?.tracking === 'unit' ? <option value="">No bin yet</option> : null}
+        {locations.map((l) => (
+          <option key={l.id} value={l.id}>
+            {l.name}
+          </option>
+        ))}
+      </select>
+    </Field>
+  );
+
+  return (
+    <form onSubmit={onSubmit} className="card max-w-2xl space-y-4" noValidate>
+      <FormMessage
+        message={form.message}
+        fields={form.fields}
+        shown={['partId', 'qty', 'locationId', 'fromLocationId', 'toLocationId', 'note', 'count']}
+        ok={form.ok}
+      />
+      <Field id="part" label="Part" error={undefined}>
+        <PartPicker id="part" value={part} onChange={setPart} error={err('partId')} />
+      </Field>
+      {moveUnits ? (
+        <p className="text-sm">
+          Labelled units move one by one: open the unit from <Link href="/scan">Scan</Link> or from the{' '}
+          <Link href={`/shelf/parts/${part!.id}`}>part page</Link>.
+        </p>
+      ) : (
+        <>
+          <div className="grid gap-4 sm:grid-cols-2">
+            {mode === 'receive' ? binSelect('locationId', 'Into bin') : null}
+            {mode === 'move' ? binSelect('fromLocationId', 'From bin') : null}
+            {mode === 'move' ? binSelect('toLocationId', 'To bin') : null}
+            <Field
+              id="qty"
+              label={part?.tracking === 'unit' ? 'New units to label' : 'Quantity'}
+              error={err('qty') ?? err('count')}
+            >
+              <input
+                id="qty"
+                name="qty"
+                type="number"
+                min={1}
+                step={1}
+                defaultValue={1}
+                className="field"
+                required
+                {...describedBy('qty', err('qty') ?? err('count'))}
+              />
+            </Field>
+          </div>
+          {part?.tracking !== 'unit' ? (
+            <Field id="note" label="Note (optional)" error={err('note')}>
+              <input
+                id="note"
+                name="note"
+                className="field"
+                placeholder={mode === 'receive' ? 'e.g. order 114' : 'e.g. topping up the bench drawer'}
+              />
+            </Field>
+          ) : null}
+          <button type="submit" className="btn-primary" disabled={busy}>
+            {busy ? 'Saving…' : mode === 'receive' ? 'Receive' : 'Move'}
+          </button>
+        </>
+      )}
+    </form>
+  );
+}

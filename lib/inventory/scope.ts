@@ -1,0 +1,60 @@
+import type { Db } from '@/db/connect';
+import type { Ctx } from '@/lib/auth/roles';
+import { NotFoundError } from '@/lib/errors';
+
+// Every lookup by id is scoped to the caller's space: another space's record is simply "not found".
+type Scope = Pick<Ctx, 'spaceId'>;
+const UUID = /^[0-9a-f]{8}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{12}$/i;
+
+/** A malformed id can name nothing: answer 404 rather than let PostgreSQL reject the cast. */
+export function assertId(id: string, what = 'record'): void {
+  if (!UUID.test(id)) throw new NotFoundError(`No such ${what}.`);
+}
+
+export async function findPart(db: Db, ctx: Scope, id: string) {
+  assertId(id, 'part');
+  const part = await db
+    .selectFrom('parts')
+    .selectAll()
+    .where('id', '=', id)
+    .where('space_id', '=', ctx.spaceId)
+    .executeTakeFirst();
+  if (!part) throw new NotFoundError('No such part.');
+  return part;
+}
+
+export async function findLocation(db: Db, ctx: Scope, id: string) {
+  assertId(id, 'location');
+  const loc = await db
+    .selectFrom('locations')
+    .selectAll()
+    .where('id', '=', id)
+    .where('space_id', '=', ctx.spaceId)
+    .executeTakeFirst();
+  if (!loc) throw new NotFoundError('No such location.');
+  return loc;
+}
+
+export async function findUnit(db: Db, ctx: Scope, id: string) {
+  assertId(id, 'unit');
+  const unit = await db
+    .selectFrom('units')
+    .selectAll()
+    .where('id', '=', id)
+    .where('space_id', '=', ctx.spaceId)
+    .executeTakeFirst();
+  if (!unit) throw new NotFoundError('No such unit.');
+  return unit;
+}
+
+/** A part's name, SKU and tracking when `id` names one in the space (for a form's preselected part); else null. */
+export async function findPartSummary(db: Db, ctx: Scope, id: string | undefined) {
+  if (!id || !UUID.test(id)) return null;
+  const p = await db
+    .selectFrom('parts')
+    .select(['id', 'name', 'sku', 'tracking'])
+    .where('id', '=', id)
+    .where('space_id', '=', ctx.spaceId)
+    .executeTakeFirst();
+  return p ?? null;
+}
