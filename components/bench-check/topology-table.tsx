@@ -1,0 +1,54 @@
+import { VerdictBadge } from '@/components/ui/verdict-badge';
+import { type TopologyRow, formatPercent, formatWatts } from '@/lib/electrical';
+
+const NAME = { buck: 'Buck driver', linear: 'Linear driver', resistor: 'Series resistor' } as const;
+
+/** The same string on the same supply three ways: what each wastes and what it takes to build. */
+export function TopologyTable({ rows }: { rows: TopologyRow[] }) {
+  return (
+    <section aria-labelledby="compare-heading" className="card">
+      <h2 id="compare-heading" className="text-lg font-bold">
+        Three ways to drive this string
+      </h2>
+      <p className="muted mb-3 text-sm">Same supply, same LED current, a generic driver of each kind.</p>
+      <div className="relative overflow-x-auto">
+        <table className="table-dense">
+          <thead>
+            <tr>
+              <th scope="col">Driver</th>
+              <th scope="col">Verdict</th>
+              <th scope="col" className="text-right">
+                Efficiency
+              </th>
+              <th scope="col" className="text-right">
+                Heat
+              </th>
+              <th scope="col" className="text-right">
+                Parts
+              </th>
+            </tr>
+          </thead>
+          <tbody>
+            {rows.map((r) => (
+              <tr key={r.type}>
+                <th scope="row" className="font-semibold">
+                  {NAME[r.type]}
+                  <span className="muted block text-xs font-normal">{r.driverNote}</span>
+                </th>
+                <td>
+                  <VerdictBadge verdict={r.verdict} />
+                </td>
+                <td className="text-right whitespace-nowrap tabular-nums">{r.report ? formatPercent(r.efficiency) : '—'}</td>
+                <td className="text-right whitespace-nowrap tabular-nums">{r.report ? formatWatts(r.heatWatts) : '—'}</td>
+                <td className="text-right whitespace-nowrap tabular-nums" title={r.partsNote}>
+                  {r.parts}
+                  <span className="sr-only"> ({r.partsNote})</span>
+                </td>
+              </tr>
+            ))}
+          </tbody>
+        </table>
+      </div>
+    </section>
+  );
+}

@@ -1,0 +1,94 @@
+import { describe, expect, it } from 'vitest';
+import { checkKit, compareTopologies, designSeriesResistor } from '@/lib/electrical';
+import { LED } from './fixtures';
+
+describe('series-resistor design', () => {
+  it('R = (V − N × Vf) / I, rounded up to the series', () => {
+    // Ohm's law (Horowitz & Hill, The Art of Electronics, ch. 1): (12 − 3 × 3.0) / 0.022 = 136.4 Ω → E24 150 Ω (IEC 60063).
+    const d = designSeriesResistor({ string: { count: 3, led: LED }, supply: { volts: 12, tolerancePct: 0, maxAmps: 1 }, amps: 0.022 });
+    if (!d.feasible) throw new Error('expected a design');
+    expect(d.ohmsExact).toBeCloseTo(136.3636, 4);
+    expect(d.ohms).toBe(150);
+    expect(d.ampsTyp).toBeCloseTo(0.02, 12);
+    // worst corner 12 V with vfMin 2.8: (12 − 8.4) / 150 = 24 mA; P = I²R = 0.0864 W (Joule)
+    expect(d.ampsMax).toBeCloseTo(0.024, 12);
+    expect(d.wattsMax).toBeCloseTo(0.0864, 12);
+    // twice the worst heat (common practice (no source)) = 0.173 W → buy 0.25 W
+    expect(d.wattageToBuy).toBe(0.25);
+  });
+
+  it('E12 rounds coarser: 107 Ω → 120 Ω, E24 → 110 Ω', () => {
+    const args = { string: { count: 3, led: LED }, supply: { volts: 12, tolerancePct: 0, maxAmps: 1 }, amps: 0.028 };
+    const e24 = designSeriesResistor(args);
+    const e12 = designSeriesResistor({ ...args, series: 'E12' });
+    expect(e24.feasible && e24.ohms).toBe(110);
+    expect(e12.feasible && e12.ohms).toBe(120);
+  });
+
+  it('reports the tolerance corners', () => {
+    const d = designSeriesResistor({ string: { count: 3, led: LED }, supply: { volts: 12, tolerancePct: 5, maxAmps: 1 }, amps: 0.03 });
+    if (!d.feasible) throw new Error('expected a design');
+    expect(d.ohms).toBe(100);
+    expect(d.ampsMax).toBeCloseTo((12.6 - 8.4) / 100, 12);
+    expect(d.ampsMin).toBeCloseTo((11.4 - 9.6) / 100, 12);
+  });
+
+  it('agrees with the full check for the same resistor', () => {
+    const d = designSeriesResistor({ string: { count: 3, led: LED }, supply: { volts: 12, tolerancePct: 5, maxAmps: 1 }, amps: 0.03 });
+    if (!d.feasible || d.wattageToBuy === null) throw new Error('expected a design');
+    const r = checkKit({
+      supply: { volts: 12, tolerancePct: 5, maxAmps: 1 },
+      driver: { type: 'resistor', ohms: d.ohms, watts: d.wattageToBuy },
+      string: { count: 3, led: LED },
+    });
+    expect(r.figures.resistorAmpsMax).toBeCloseTo(d.ampsMax, 12);
+    expect(r.figures.lossWatts).toBeCloseTo(d.wattsMax, 12);
+    expect(r.checks.find((c) => c.id === 'resistor-power')?.verdict).toBe('ok');
+  });
+
+  it('is not possible when the supply does not clear the string', () => {
+    const d = designSeriesResistor({ string: { count: 4, led: LED }, supply: { volts: 12, maxAmps: 1 }, amps: 0.02 });
+    expect(d.feasible).toBe(false);
+  });
+});
+
+describe('buck vs linear vs resistor', () => {
+  const string = { count: 6, led: { vfMin: 2.8, vfTyp: 3.0, vfMax: 3.4, maxAmps: 0.7, maxWatts: 3 } };
+
+  it('compares the three on the same string and supply', () => {
+    const rows = compareTopologies(string, { volts: 24, maxAmps: 2 }, { amps: 0.35 });
+    expect(rows.map((r) => r.type)).toEqual(['buck', 'linear', 'resistor']);
+    const [buck, linear, resistor] = rows;
+    // buck: the generic 90 % driver (TI SLVA477 style energy balance: P_in = P_out / η)
+    expect(buck.efficiency).toBe(0.9);
+    expect(buck.heatWatts).toBeCloseTo((18 * 0.35) / 0.9 - 18 * 0.35, 9);
+    // linear: η = Vstring / V = 18 / 24 and worst heat (25.2 − 16.8) × 0.35 = 2.94 W → needs a heat sink
+    expect(linear.efficiency).toBeCloseTo(0.75, 12);
+    expect(linear.heatWatts).toBeCloseTo(2.94, 9);
+    expect(linear.parts).toBe(3);
+    // resistor: (24 − 18) / 0.35 = 17.1 Ω → E24 18 Ω
+    expect(resistor.driverNote).toContain('18 Ω');
+    expect(resistor.efficiency).toBeCloseTo(0.75, 12);
+    // the buck wastes least
+    expect(buck.heatWatts).toBeLessThan(linear.heatWatts);
+    expect(buck.heatWatts).toBeLessThan(resistor.heatWatts);
+    // parts: common practice (no source) — a discrete buck stage has about six parts, a resistor one
+    expect(buck.parts).toBeGreaterThan(linear.parts);
+    expect(resistor.parts).toBeLessThanOrEqual(2);
+  });
+
+  it('marks the resistor impossible when the supply is under the string', () => {
+    const rows = compareTopologies(string, { volts: 12, maxAmps: 2 }, { amps: 0.35 });
+    const resistor = rows.find((r) => r.type === 'resistor')!;
+    expect(resistor.verdict).toBe('fail');
+    expect(resistor.report).toBeNull();
+    // and the others fail on headroom too
+    expect(rows.every((r) => r.verdict === 'fail')).toBe(true);
+  });
+
+  it('defaults the current to 70 % of what the LED allows', () => {
+    // 0.7 × min(0.7 A, 3 W / 3 V) = 0.49 A
+    const rows = compareTopologies(string, { volts: 24, maxAmps: 2 });
+    expect(rows[0].report?.figures.ledAmpsPeak).toBeCloseTo(0.49, 12);
+  });
+});
