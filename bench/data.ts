@@ -10,6 +10,7 @@ import { createDb } from '@/db/connect';
 import type { PartCategory, Role } from '@/db/types';
 import { newCode } from '@/labels/code';
 import { hashPassword } from '@/lib/auth/password';
+import { seededRandom } from '@/lib/seeded-random';
 
 const BENCH_PASSWORD = 'bench-password-1234';
 export type Fixture = {
@@ -31,15 +32,8 @@ const BORROWABLE = 200; // counted tools with deep stock: the borrow case takes 
 const UNITS_PER_PART = 4;
 const BATCH = 1_000;
 
-// mulberry32, seeded: the same shelf every run.
-let seed = 0x5eed;
-const rand = () => {
-  seed = (seed + 0x6d2b79f5) >>> 0;
-  let t = seed;
-  t = Math.imul(t ^ (t >>> 15), t | 1);
-  t ^= t + Math.imul(t ^ (t >>> 7), t | 61);
-  return ((t ^ (t >>> 14)) >>> 0) / 4294967296;
-};
+// Seeded: the same shelf every run.
+const rand = seededRandom(0x5eed);
 const pick = <T>(xs: readonly T[]): T => xs[Math.floor(rand() * xs.length)];
 
 const used = new Set<string>();

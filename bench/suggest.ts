@@ -5,6 +5,7 @@
 // the same answers. The default mix (1,000 supplies, 1,000 drivers, 8,000 LEDs: a million pairs) keeps
 // the naive baseline to seconds per run; more supplies and drivers only widen the gap.
 import { loadavg } from 'node:os';
+import { seededRandom } from '../lib/seeded-random';
 import {
   type DriverSpec,
   type RankQuery,
@@ -26,18 +27,8 @@ const LEDS = arg('leds', 8_000);
 const FAST_RUNS = arg('fast-runs', 21);
 const NAIVE_RUNS = arg('naive-runs', 3);
 
-// mulberry32: a small seeded generator so every run builds the same shelf.
-function rng(seed: number) {
-  let a = seed >>> 0;
-  return () => {
-    a = (a + 0x6d2b79f5) >>> 0;
-    let t = a;
-    t = Math.imul(t ^ (t >>> 15), t | 1);
-    t ^= t + Math.imul(t ^ (t >>> 7), t | 61);
-    return ((t ^ (t >>> 14)) >>> 0) / 4294967296;
-  };
-}
-const rand = rng(SEED);
+// Seeded: every run builds the same shelf.
+const rand = seededRandom(SEED);
 const pick = <T>(xs: readonly T[]): T => xs[Math.floor(rand() * xs.length)];
 const between = (lo: number, hi: number) => lo + rand() * (hi - lo);
 const round = (x: number, step: number) => Math.round(x / step) * step;

@@ -10,3 +10,6 @@ export function formatDateTime(d: Date | string, timeZone: string): string {
 export function formatDate(d: Date | string, timeZone: string): string {
   return new Intl.DateTimeFormat('en-GB', { dateStyle: 'medium', timeZone }).format(new Date(d));
 }
+
+/** "1 overdue loan", "3 overdue loans". */
+export const countOf = (n: number, one: string, many = `${one}s`) => `${n} ${n === 1 ? one : many}`;

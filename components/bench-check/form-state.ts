@@ -25,7 +25,7 @@ export type FormState = {
   wiring: { on: boolean; lengthMeters: string; awg: string };
 };
 
-/** A 24 V 2 A supply, a 350 mA buck driver (6–36 V in) and six white LEDs. */
+/** A 24 V 2 A supply, a 350 mA buck driver (6–36 V in) and five white LEDs: comfortably ok (a sixth turns it to caution). */
 export const DEFAULT_FORM: FormState = {
   supply: { volts: '24', tolerancePct: '5', maxAmps: '2' },
   driverType: 'buck',
@@ -42,7 +42,7 @@ export const DEFAULT_FORM: FormState = {
   },
   linear: { maxInputVolts: '30', outputMilliamps: '350', dropoutVolts: '1.2', maxWatts: '' },
   resistor: { ohms: '33', watts: '2' },
-  string: { count: '6', vfMin: '2.8', vfTyp: '3.0', vfMax: '3.4', maxMilliamps: '700', maxWatts: '3' },
+  string: { count: '5', vfMin: '2.8', vfTyp: '3.0', vfMax: '3.4', maxMilliamps: '700', maxWatts: '3' },
   pwm: { on: false, dutyPct: '50' },
   wiring: { on: false, lengthMeters: '2', awg: '22' },
 };

@@ -7,6 +7,7 @@ import { checkoutIdempotencyKey, checkoutParams } from '@/lib/sales/checkout';
 import { markSaleEnded, markSalePaid } from '@/lib/sales/paid';
 import { monthOf, monthRange, shiftMonth, type Month } from '@/lib/sales/periods';
 import { applyRefund, refundMetadata, refundState, lockSale } from '@/lib/sales/refunds';
+import { seededRandom } from '@/lib/seeded-random';
 
 // A month of invented consumable sales that exist both in our database and at the payments fake:
 // every card sale is a real checkout session paid on the fake (so its ledger holds the charge, the
@@ -24,17 +25,6 @@ export const PLANTED_MISMATCH = { sku: 'HS-BAR-200', discountMinor: 45 };
 type Person = { id: string; name: string; email: string };
 type Fake = { url: string; stripe: Stripe };
 
-/** A small deterministic generator (mulberry32) so the demo month is the same on every machine. */
-function rng(seed: number) {
-  let a = seed >>> 0;
-  return () => {
-    a = (a + 0x6d2b79f5) >>> 0;
-    let t = a;
-    t = Math.imul(t ^ (t >>> 15), t | 1);
-    t ^= t + Math.imul(t ^ (t >>> 7), t | 61);
-    return ((t ^ (t >>> 14)) >>> 0) / 4294967296;
-  };
-}
 
 async function control(
   fake: Fake,
@@ -87,7 +77,8 @@ export async function seedSalesMonth(
     .executeTakeFirstOrThrow();
   const currency = space.currency.trim();
   const { from, to } = monthRange(opts.month, space.time_zone);
-  const random = rng(opts.seed ?? 20261);
+  // Deterministic, so the demo month is the same on every machine.
+  const random = seededRandom(opts.seed ?? 20261);
   const pick = <T>(xs: T[]) => xs[Math.floor(random() * xs.length)];
   const shelf = await db
     .selectFrom('parts')

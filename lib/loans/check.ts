@@ -1,7 +1,7 @@
 import { z } from 'zod';
 import type { ChainRole, PartCategory } from '@/db/types';
 import { assembleChain } from '@/lib/kits/chain';
-import { checkKit, safetyCautions, type Caution, type KitReport, type KitSpec } from '@/lib/electrical';
+import { checkKit, generalCautions, safetyCautions, type Caution, type KitReport, type KitSpec } from '@/lib/electrical';
 
 // The compatibility check on the exact parts of a loan: assemble the chain from the lines, run checkKit,
 // and say what the verdict means for lending. No database here, so the gate is easy to reason about.
@@ -38,20 +38,7 @@ export type ChainParts = { supply: string; driver: string; led: string; ledCount
 const CHAIN_CATEGORIES: PartCategory[] = ['supply', 'driver', 'led'];
 
 // Shown whenever the check could not run: the general cautions still apply.
-const GENERAL_CAUTIONS: Caution[] = [
-  {
-    id: 'mains',
-    text: 'Feed the build from an enclosed, certified supply. Never open a mains supply or work on its mains side.',
-  },
-  {
-    id: 'polarity',
-    text: 'Check polarity on every connection, and set the current limit on a bench supply, before switching on.',
-  },
-  {
-    id: 'fixed-wiring',
-    text: "Anything fixed to a building's wiring falls under local electrical codes: have a licensed electrician connect it.",
-  },
-];
+const GENERAL_CAUTIONS: Caution[] = generalCautions();
 
 /** Lines of the same part and role count as one (two bins of the same LED make one string). */
 function mergeLines(lines: CheckLine[]): CheckLine[] {

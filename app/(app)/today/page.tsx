@@ -4,7 +4,7 @@ import { requirePageUser } from '@/lib/auth/guard';
 import { todaySummary } from '@/lib/today/summary';
 import { PageTitle } from '@/components/ui/page-title';
 import { StatePill } from '@/components/ui/state-pill';
-import { formatDateTime } from '@/lib/format';
+import { countOf, formatDateTime } from '@/lib/format';
 import { formatMoney } from '@/lib/money';
 
 export const metadata = { title: 'Today' };
@@ -50,17 +50,20 @@ export default async function TodayPage() {
           <ul className="mt-2 grid gap-3 sm:grid-cols-3">
             <li>
               <Link href="/loans/round" className="block rounded-lg border border-stone-200 p-3 no-underline dark:border-stone-700">
-                <span className="block text-3xl font-bold">{s.steward.overdue}</span> overdue loans
+                <span className="block text-3xl font-bold">{s.steward.overdue}</span>{' '}
+                {s.steward.overdue === 1 ? 'overdue loan' : 'overdue loans'}
               </Link>
             </li>
             <li>
               <Link href="/shelf?below=1" className="block rounded-lg border border-stone-200 p-3 no-underline dark:border-stone-700">
-                <span className="block text-3xl font-bold">{s.steward.belowReorder.length}</span> parts below reorder point
+                <span className="block text-3xl font-bold">{s.steward.belowReorder.length}</span>{' '}
+                {s.steward.belowReorder.length === 1 ? 'part below its reorder point' : 'parts below their reorder point'}
               </Link>
             </li>
             <li>
               <Link href="/shelf/repairs" className="block rounded-lg border border-stone-200 p-3 no-underline dark:border-stone-700">
-                <span className="block text-3xl font-bold">{s.steward.inRepair}</span> units in repair
+                <span className="block text-3xl font-bold">{s.steward.inRepair}</span>{' '}
+                {s.steward.inRepair === 1 ? 'unit in repair' : 'units in repair'}
               </Link>
             </li>
           </ul>
@@ -85,7 +88,7 @@ export default async function TodayPage() {
             Paid this month: <strong>{formatMoney(s.treasurer.paidThisMonthMinor, s.treasurer.currency)}</strong>
           </p>
           <p className="mt-1">
-            {s.treasurer.pendingSales} card sales waiting for the processor
+            {countOf(s.treasurer.pendingSales, 'card sale')} waiting for the processor
             {s.treasurer.oldPending ? `, ${s.treasurer.oldPending} of them for over an hour` : ''}.{' '}
             <Link href="/books">Open the books</Link>
           </p>
@@ -98,7 +101,8 @@ export default async function TodayPage() {
             People
           </h2>
           <p className="mt-2">
-            {s.admin.people} people in this space, {s.admin.openInvitations} invitations not yet accepted.{' '}
+            {countOf(s.admin.people, 'person', 'people')} in this space,{' '}
+            {countOf(s.admin.openInvitations, 'invitation')} not yet accepted.{' '}
             <Link href="/people">Manage people</Link>
           </p>
         </section>

@@ -11,9 +11,11 @@ describe('bench-check form → KitSpec', () => {
     expect(spec).toEqual({
       supply: { volts: 24, tolerancePct: 5, maxAmps: 2 },
       driver: { type: 'buck', minInputVolts: 6, maxInputVolts: 36, outputAmps: 0.35, headroomVolts: 1.5, maxDuty: 0.95, efficiency: 0.9 },
-      string: { count: 6, led: { vfMin: 2.8, vfTyp: 3, vfMax: 3.4, maxAmps: 0.7, maxWatts: 3 } },
+      string: { count: 5, led: { vfMin: 2.8, vfTyp: 3, vfMax: 3.4, maxAmps: 0.7, maxWatts: 3 } },
     });
-    expect(checkKit(spec!).verdict).toBe('caution');
+    expect(checkKit(spec!).verdict).toBe('ok');
+    // A sixth LED: worst-case duty 6 × 3.4 / (22.8 × 0.9) = 99.4 % passes the 95 % limit → caution.
+    expect(checkKit({ ...spec!, string: { ...spec!.string, count: 6 } }).verdict).toBe('caution');
   });
 
   it('µH and kHz become henries and hertz; a comma works as a decimal point', () => {
