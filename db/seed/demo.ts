@@ -28,6 +28,7 @@ const TEMPLATES = [
   {
     name: 'Desk lamp, three LEDs',
     description: 'Three 3 W white LEDs on a heat-sink bar, a 350 mA buck driver and a 24 V wall supply.',
+    cautions: 'Screw every star to the bar, thermal pad in place, before the first power-up: the bar is the heat sink. Use the wall supply from this box.',
     teaching:
       'Wire the string in series: driver LED+ to the first star’s +, each star’s − to the next star’s +, the last − back to the driver. ' +
       'Measure the string voltage with the meter while it runs, and compare with three times the forward voltage.',
@@ -42,6 +43,7 @@ const TEMPLATES = [
   {
     name: 'Plant light, six reds',
     description: 'Six red LEDs at 700 mA on a heat-sink bar, fed from a 24 V 2 A supply.',
+    cautions: 'At 700 mA each red LED runs near its power rating: keep all six on the bar and let it cool before packing the box.',
     teaching: 'Red LEDs have a lower forward voltage, so six of them fit under a 24 V supply with room to spare. Feel how warm the bar gets after ten minutes.',
     lines: [
       ['DRV-B700-30', 1, 'driver'],
@@ -54,7 +56,8 @@ const TEMPLATES = [
   {
     name: 'Bench flood, eight whites',
     description: 'Eight 5 W white LEDs at 1 A from a 36 V supply: bright, and it needs real heat sinking.',
-    teaching: 'At this power the heat sink matters more than anything else. Never run it off the bar.',
+    cautions: 'About 26 W of light and heat: bolt the stars to both finned sinks before power, and never point the lamp at anyone.',
+    teaching: 'At this power the heat sink matters more than anything else. Never run the LEDs without their sinks.',
     lines: [
       ['DRV-B1000-48', 1, 'driver'],
       ['LED-5W-CW', 8, 'led'],
@@ -64,10 +67,6 @@ const TEMPLATES = [
     ],
   },
 ] as const;
-
-const CAUTIONS =
-  'High-power LEDs can harm eyes: do not look into them at full current. Mount them on the heat sink before power; the bar gets hot. ' +
-  'Use only the enclosed wall supply in the box, never an opened one. Check polarity before plugging in.';
 
 /** Seeds the two invented spaces; does nothing when any space exists already. */
 export async function seedDemo(db: Db, clock: Date = new Date()): Promise<{ seeded: boolean }> {
@@ -184,7 +183,7 @@ export async function seedDemo(db: Db, clock: Date = new Date()): Promise<{ seed
       for (const t of templates) {
         const tpl = await trx
           .insertInto('kit_templates')
-          .values({ space_id: spaceId, name: t.name, description: t.description, teaching_notes: t.teaching, cautions: CAUTIONS })
+          .values({ space_id: spaceId, name: t.name, description: t.description, teaching_notes: t.teaching, cautions: t.cautions })
           .returning('id')
           .executeTakeFirstOrThrow();
         for (const [i, [sku, qty, role]] of t.lines.entries()) {
