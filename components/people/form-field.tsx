@@ -1,34 +1,7 @@
 import type { ReactNode } from 'react';
 
-/** A label, its control and the control's error message, tied together for screen readers. */
-export function FormField({
-  id,
-  label,
-  error,
-  hint,
-  children,
-}: {
-  id: string;
-  label: string;
-  error?: string;
-  hint?: string;
-  children: ReactNode;
-}) {
-  return (
-    <div>
-      <label className="label" htmlFor={id}>
-        {label}
-      </label>
-      {children}
-      {hint && !error ? (
-        <p id={`${id}-hint`} className="muted mt-1 text-sm">
-          {hint}
-        </p>
-      ) : null}
-      {error ? <InlineError id={`${id}-error`}>{error}</InlineError> : null}
-    </div>
-  );
-}
+/** The shared labelled field (components/ui/field.tsx). */
+export { Field as FormField } from '@/components/ui/field';
 
 /** aria props for a control inside FormField. */
 export function describedBy(id: string, error?: string, hasHint = false) {

@@ -1,43 +1,7 @@
 'use client';
 import type { FieldErrors } from './api';
 
-/** A labelled input with its error beneath, tied together for screen readers. */
-export function Field({
-  id,
-  label,
-  error,
-  hint,
-  children,
-}: {
-  id: string;
-  label: string;
-  error?: string;
-  hint?: string;
-  children: React.ReactNode;
-}) {
-  return (
-    <div>
-      <label className="label" htmlFor={id}>
-        {label}
-      </label>
-      {children}
-      {hint ? (
-        <p id={`${id}-hint`} className="muted mt-1 text-xs">
-          {hint}
-        </p>
-      ) : null}
-      {error ? (
-        <p
-          id={`${id}-error`}
-          role="alert"
-          className="mt-1 text-sm font-semibold text-red-800 dark:text-red-300"
-        >
-          {error}
-        </p>
-      ) : null}
-    </div>
-  );
-}
+export { Field } from '@/components/ui/field';
 
 /** Props that point an input at its error and hint. */
 export function describedBy(id: string, error?: string, hint?: string) {
