@@ -5,10 +5,15 @@ import { newCode } from '@/labels/code';
 import { hashPassword } from '@/lib/auth/password';
 import { assembleChain } from '@/lib/kits/chain';
 import { checkKit } from '@/lib/electrical';
+import { computeDueAt } from '@/lib/loans/due';
 import { DEMO_PARTS, FERNWICK_SKUS } from './parts';
 import { DEMO_PASSWORD, DEMO_PEOPLE } from './people';
 
 type SpaceKey = 'quillmere' | 'fernwick';
+const RULES: Record<SpaceKey, { closingTime: string; timeZone: string }> = {
+  quillmere: { closingTime: '21:00', timeZone: 'America/Chicago' },
+  fernwick: { closingTime: '18:00', timeZone: 'Europe/Berlin' },
+};
 const DAY = 86_400_000;
 
 async function label(db: Db, spaceId: string, kind: LabelKind, targetId: string): Promise<string> {
@@ -78,12 +83,12 @@ export async function seedDemo(db: Db, clock: Date = new Date()): Promise<{ seed
     const spaces = {
       quillmere: await trx
         .insertInto('spaces')
-        .values({ slug: 'quillmere', name: 'Quillmere Makers', currency: 'USD', time_zone: 'America/Chicago', loan_days: 14, closing_time: '21:00', max_open_loans: 3 })
+        .values({ slug: 'quillmere', name: 'Quillmere Makers', currency: 'USD', time_zone: RULES.quillmere.timeZone, loan_days: 14, closing_time: RULES.quillmere.closingTime, max_open_loans: 3 })
         .returning('id')
         .executeTakeFirstOrThrow(),
       fernwick: await trx
         .insertInto('spaces')
-        .values({ slug: 'fernwick', name: 'Fernwick Institute Electronics Lab', currency: 'EUR', time_zone: 'Europe/Berlin', loan_days: 7, closing_time: '18:00', max_open_loans: 2 })
+        .values({ slug: 'fernwick', name: 'Fernwick Institute Electronics Lab', currency: 'EUR', time_zone: RULES.fernwick.timeZone, loan_days: 7, closing_time: RULES.fernwick.closingTime, max_open_loans: 2 })
         .returning('id')
         .executeTakeFirstOrThrow(),
     };
@@ -237,7 +242,11 @@ export async function seedDemo(db: Db, clock: Date = new Date()): Promise<{ seed
             lent_by_id: steward,
             kit_box_id: box.id,
             out_at: new Date(clock.getTime() - plan.outDaysAgo * DAY),
-            due_at: new Date(clock.getTime() + plan.dueInDays * DAY),
+            // Due at the space's closing time, local, as a real loan would be.
+            due_at: computeDueAt(new Date(clock.getTime() - plan.outDaysAgo * DAY), {
+              loanDays: plan.outDaysAgo + plan.dueInDays,
+              ...RULES[key],
+            }),
             check_verdict: report?.verdict ?? null,
             check_report: report ? JSON.stringify({ spec: chain.ok ? chain.spec : null, report }) : null,
             caution_acknowledged: report?.verdict === 'caution',
