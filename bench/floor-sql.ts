@@ -13,26 +13,52 @@ export function floorPool(connectionString: string): Pool {
   return pool;
 }
 
-export type Lookup = { code: string; kind: string; targetId: string; name: string; partId?: string; state?: string } | null;
+export type Lookup = {
+  code: string;
+  kind: string;
+  targetId: string;
+  name: string;
+  partId?: string;
+  state?: string;
+} | null;
 
-const DESCRIBE: Record<string, string> = {
-  unit: `select parts.name, units.part_id, units.state, units.serial from units
-         inner join parts on parts.id = units.part_id where units.id = $1`,
-  part: `select name, id as part_id from parts where id = $1`,
-  location: `select name from locations where id = $1`,
-  kit_box: `select name, state from kit_boxes where id = $1`,
-};
+/**
+ * Scan → item: the label joined to what it labels in one round trip — the statement
+ * lib/inventory/resolve.ts labelsWithTargets builds, without the caller's space filter.
+ */
+const LOOKUP_SQL = `
+  select lc.code, lc.kind, lc.target_id,
+         coalesce(up.name || coalesce(' (' || u.serial || ')', ''), p.name, l.name, k.name) as name,
+         coalesce(u.part_id, p.id) as part_id,
+         coalesce(u.state, k.state) as state
+    from label_codes lc
+    left join units u on u.id = lc.target_id and lc.kind = 'unit' and u.space_id = lc.space_id
+    left join parts up on up.id = u.part_id
+    left join parts p on p.id = lc.target_id and lc.kind = 'part' and p.space_id = lc.space_id
+    left join locations l on l.id = lc.target_id and lc.kind = 'location' and l.space_id = lc.space_id
+    left join kit_boxes k on k.id = lc.target_id and lc.kind = 'kit_box' and k.space_id = lc.space_id
+   where lc.code = $1`;
 
-/** Scan → item: the label row, then what it labels. */
 export async function lookupByCode(pool: Pool, code: string): Promise<Lookup> {
-  const label = await pool.query<{ kind: string; target_id: string }>('select kind, target_id from label_codes where code = $1', [code]);
-  const l = label.rows[0];
-  if (!l) return null;
-  const t = (await pool.query(DESCRIBE[l.kind], [l.target_id])).rows[0] as
-    | { name: string; part_id?: string; state?: string; serial?: string | null }
-    | undefined;
-  if (!t) return null;
-  return { code, kind: l.kind, targetId: l.target_id, name: t.serial ? `${t.name} (${t.serial})` : t.name, partId: t.part_id, state: t.state };
+  const row = (
+    await pool.query<{
+      code: string;
+      kind: string;
+      target_id: string;
+      name: string | null;
+      part_id: string | null;
+      state: string | null;
+    }>(LOOKUP_SQL, [code])
+  ).rows[0];
+  if (!row || row.name === null) return null;
+  return {
+    code: row.code,
+    kind: row.kind,
+    targetId: row.target_id,
+    name: row.name,
+    ...(row.part_id ? { partId: row.part_id } : {}),
+    ...(row.state ? { state: row.state } : {}),
+  };
 }
 
 export type BorrowInput = { spaceId: string; borrowerId: string; partId: string; locationId: string };
@@ -40,7 +66,10 @@ export type BorrowInput = { spaceId: string; borrowerId: string; partId: string;
 class Conflict extends Error {}
 
 /** The borrow of one counted item: settings, then one transaction of lock, check, write and audit. */
-export async function borrowCounted(pool: Pool, b: BorrowInput): Promise<{ id: string } | { conflict: string }> {
+export async function borrowCounted(
+  pool: Pool,
+  b: BorrowInput,
+): Promise<{ id: string } | { conflict: string }> {
   const settings = (
     await pool.query<{ loan_days: number; max_open_loans: number }>(
       `select name, loan_days, closing_time, time_zone, max_open_loans, reminder_days_before, reminder_every_days, settings
@@ -68,7 +97,10 @@ async function borrowInTransaction(
   b: BorrowInput,
   settings: { loan_days: number; max_open_loans: number },
 ): Promise<{ id: string }> {
-  await client.query('select user_id from memberships where space_id = $1 and user_id = $2 for update', [b.spaceId, b.borrowerId]);
+  await client.query('select user_id from memberships where space_id = $1 and user_id = $2 for update', [
+    b.spaceId,
+    b.borrowerId,
+  ]);
   const part = (
     await client.query<{ name: string }>(
       `select parts.id, parts.name, parts.sku, parts.category, parts.specs, parts.lendable, parts.tracking, locations.name as location_name
@@ -77,7 +109,10 @@ async function borrowInTransaction(
     )
   ).rows[0];
   const open = (
-    await client.query<{ n: string }>(`select count(*) as n from loans where space_id = $1 and borrower_id = $2 and status = 'out'`, [b.spaceId, b.borrowerId])
+    await client.query<{ n: string }>(
+      `select count(*) as n from loans where space_id = $1 and borrower_id = $2 and status = 'out'`,
+      [b.spaceId, b.borrowerId],
+    )
   ).rows[0];
   if (Number(open.n) >= settings.max_open_loans) throw new Conflict('open-loan limit');
   const at = new Date();
@@ -104,13 +139,22 @@ async function borrowInTransaction(
      values ($1, $2, $3, null, -1, 'loan_out', 'loan', $4, $5, $6)`,
     [b.spaceId, b.partId, b.locationId, loan.id, b.borrowerId, at],
   );
-  await client.query(`update holds set status = 'fulfilled' where user_id = $1 and space_id = $2 and status in ('waiting', 'ready') and false`, [
-    b.borrowerId,
-    b.spaceId,
-  ]);
+  await client.query(
+    `update holds set status = 'fulfilled' where user_id = $1 and space_id = $2 and status in ('waiting', 'ready') and false`,
+    [b.borrowerId, b.spaceId],
+  );
   await client.query(
     `insert into audit_log (space_id, actor_id, action, target_type, target_id, detail) values ($1, $2, 'loan.created', 'loan', $3, $4)`,
-    [b.spaceId, b.borrowerId, loan.id, JSON.stringify({ borrowerId: b.borrowerId, items: [{ part: part?.name, qty: 1 }], dueAt: due.toISOString() })],
+    [
+      b.spaceId,
+      b.borrowerId,
+      loan.id,
+      JSON.stringify({
+        borrowerId: b.borrowerId,
+        items: [{ part: part?.name, qty: 1 }],
+        dueAt: due.toISOString(),
+      }),
+    ],
   );
   return { id: loan.id };
 }
