@@ -159,6 +159,10 @@ describe('camera', () => {
       args: [
         '--no-sandbox',
         '--disable-gpu',
+        '--disable-background-networking',
+        '--disable-component-update',
+        '--disable-quic',
+        '--no-first-run',
         '--use-fake-ui-for-media-stream',
         '--use-fake-device-for-media-stream',
         `--use-file-for-fake-video-capture=${video}`,
@@ -183,7 +187,20 @@ describe('camera', () => {
         else if (!leaving && r.resourceType() === 'script') lateScripts.push(r.url());
       });
       await page.getByRole('button', { name: 'Use camera' }).click();
-      await page.waitForURL((u) => u.pathname === `/shelf/parts/${part.id}`, { timeout: 30_000 });
+      // Decoding frames of a fake camera on a busy two-core machine can take a while; say what the page
+      // showed if it never gets there.
+      await page
+        .waitForURL((u) => u.pathname === `/shelf/parts/${part.id}`, { timeout: 60_000 })
+        .catch(async (err) => {
+          const shown = await page
+            .locator('main')
+            .innerText()
+            .catch(() => '(page gone)');
+          throw new Error(
+            `never reached the part page for ${part.code}; the page said: ${shown.slice(0, 400)}`,
+            { cause: err },
+          );
+        });
       expect(lateScripts.length).toBeGreaterThan(0);
     } finally {
       await camBrowser.close();
