@@ -35,7 +35,10 @@ trap cleanup EXIT
 status=0
 step() { log "$1"; shift; "$@" || { log "FAILED: $*"; status=1; }; }
 
-step "lint" node node_modules/eslint/bin/eslint.js . --max-warnings=0
+# `npm test -- <vitest filters>` runs only those test files (no lint or type check): for working on one
+# piece. Plain `npm test` (and CI) runs everything.
+FILTERS=("$@")
+[ ${#FILTERS[@]} -eq 0 ] && step "lint" node node_modules/eslint/bin/eslint.js . --max-warnings=0
 
 log "throwaway PostgreSQL on port $PG_PORT"
 pg_start "$RUN/pg" "$PG_PORT" throwaway
@@ -47,13 +50,13 @@ node node_modules/tsx/dist/cli.mjs scripts/seed.ts
 log "building the app for the tests"
 node node_modules/next/dist/bin/next build >"$RUN/build.log" 2>&1 || { tail -60 "$RUN/build.log"; exit 1; }
 # After the build, so the route types Next generates in .next-test are fresh.
-step "type check" node node_modules/typescript/bin/tsc --noEmit
+[ ${#FILTERS[@]} -eq 0 ] && step "type check" node node_modules/typescript/bin/tsc --noEmit
 node node_modules/next/dist/bin/next start -p "$APP_PORT" -H 127.0.0.1 >"$RUN/app.log" 2>&1 &
 APP_PID=$!
 wait_http "$APP_BASE_URL/signin" 120 || { tail -50 "$RUN/app.log"; exit 1; }
 
 log "vitest: unit, integration, e2e"
-node node_modules/vitest/vitest.mjs run --reporter=default --reporter=json --outputFile="$RUN/vitest.json" || status=1
+node node_modules/vitest/vitest.mjs run --reporter=default --reporter=json --outputFile="$RUN/vitest.json" "${FILTERS[@]}" || status=1
 node -e '
   const r = require(process.argv[1]);
   console.log(`vitest: ${r.numPassedTests} passed, ${r.numFailedTests} failed`);
