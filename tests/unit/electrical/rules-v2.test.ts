@@ -244,3 +244,19 @@ describe('schema defaults for the new inputs (from memory)', () => {
     expect(p.heatSink).toBeUndefined();
   });
 });
+
+describe('rule 7 figures for every driver type', () => {
+  it('linear and resistor builds carry the sink figures with a sink, and only then', () => {
+    for (const spec of [linearSpec({ driver: { sinkCPerW: 2 } }), resistorSpec()]) {
+      const bare = checkKit(spec);
+      expect(bare.figures.sinkC).toBeUndefined();
+      expect(bare.figures.sinkCPerWNeeded).toBeGreaterThan(0);
+      const sunk = checkKit({ ...spec, heatSink: { count: 1, cPerW: 3 } });
+      const n = spec.string.count;
+      // T_sink = 25 + N × P × 3 (from memory defaults as above)
+      expect(sunk.figures.sinkC).toBeCloseTo(25 + n * sunk.figures.ledWatts * 3, 9);
+      expect(sunk.figures.ledJunctionC).toBeCloseTo(sunk.figures.sinkC! + sunk.figures.ledWatts * 10, 9);
+      expect(sunk.figures.sinkCPerWNeeded).toBeCloseTo((100 - 25 - sunk.figures.ledWatts * 10) / (n * sunk.figures.ledWatts), 9);
+    }
+  });
+});
