@@ -47,7 +47,13 @@ function runCheck(spec: KitSpec) {
 function compareFor(spec: KitSpec) {
   try {
     const amps = spec.driver.type === 'resistor' ? undefined : spec.driver.outputAmps;
-    return compareTopologies(spec.string, spec.supply, { amps, pwmDuty: spec.pwmDuty });
+    return compareTopologies(spec.string, spec.supply, {
+      amps,
+      pwmDuty: spec.pwmDuty,
+      wiring: spec.wiring,
+      heatSink: spec.heatSink,
+      ambientC: spec.ambientC,
+    });
   } catch {
     return null; // the comparison is an extra: without it the check still stands
   }

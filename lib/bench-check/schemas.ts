@@ -1,8 +1,8 @@
 import { z } from 'zod';
-import { defaultDriveAmps, stringSpecSchema, supplySpecSchema } from '@/lib/electrical';
+import { ambientCSchema, defaultDriveAmps, heatSinkSpecSchema, stringSpecSchema, supplySpecSchema, wiringSpecSchema } from '@/lib/electrical';
 
 // The body of POST /api/bench-check/compare: one LED string on one supply, and optionally the current
-// to drive it at and a PWM duty. Strict like the check's own schema: an unknown key is named, not dropped.
+// to drive it at, a PWM duty, the wire run, the LEDs' heat sinks and the room temperature. Strict like the check's own schema: an unknown key is named, not dropped.
 
 /** Lowest drive current the comparison accepts: 0.1 mA. Below it a series resistor from a 1000 V supply
  *  would exceed the check's 10 MΩ cap, and no LED on a bench is driven that faintly. */
@@ -22,6 +22,9 @@ export const compareBodySchema = z.strictObject({
     .positive({ error: 'PWM duty must be greater than 0' })
     .max(1, { error: 'PWM duty cannot be more than 1' })
     .optional(),
+  wiring: wiringSpecSchema.optional(),
+  heatSink: heatSinkSpecSchema.optional(),
+  ambientC: ambientCSchema.optional(),
 }).superRefine((body, ctx) => {
   // Without `amps` the comparison drives the LEDs at 70 % of their rating; that too must reach 0.1 mA.
   if (body.amps !== undefined) return;

@@ -24,7 +24,13 @@ export function benchCheck(raw: unknown): BenchCheckAnswer {
 export function benchCompare(raw: unknown): CompareAnswer {
   const body = parseBenchBody(raw, compareBodySchema);
   return computed(raw, () => ({
-    rows: compareTopologies(body.string, body.supply, { amps: body.amps, pwmDuty: body.pwmDuty }).map(({ report, ...row }) =>
+    rows: compareTopologies(body.string, body.supply, {
+      amps: body.amps,
+      pwmDuty: body.pwmDuty,
+      wiring: body.wiring,
+      heatSink: body.heatSink,
+      ambientC: body.ambientC,
+    }).map(({ report, ...row }) =>
       report ? { ...row, report } : row,
     ),
   }));

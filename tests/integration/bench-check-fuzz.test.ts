@@ -79,6 +79,9 @@ const compareBody = fc.record({
   string: stringSpec, supply,
   amps: fc.constantFrom(1e-4, 0.35, 1, 100),
   pwmDuty: fc.constantFrom(5e-324, 0.5, 1),
+  wiring: fc.record({ lengthMeters: fc.constantFrom(0.1, 2, 1000), awg: fc.constantFrom(-3, 22, 40) }),
+  heatSink: fc.record({ count: fc.integer({ min: 1, max: 50 }), cPerW: fc.constantFrom(0.1, 10, 200) }),
+  ambientC: fc.constantFrom(-20, 25, 60),
 }, { requiredKeys: ['string', 'supply'] });
 
 type Json = unknown;
