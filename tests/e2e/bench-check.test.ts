@@ -141,7 +141,7 @@ describe('bench check fits 390 px with no sideways scroll', () => {
     expect(await fitsWidth(page)).toBe(true);
 
     await input(page, 'supply.volts').fill('48'); // near the 60 V limit: the limit is drawn on the scale
-    await page.locator('[data-plot="selv"] line').waitFor();
+    await page.locator('[data-plot="selv"] line').waitFor({ state: 'attached' }); // a vertical line has no width: attached, not visible
     expect(await fitsWidth(page)).toBe(true);
 
     await input(page, 'supply.volts').fill('1e308');
