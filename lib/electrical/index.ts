@@ -50,20 +50,20 @@ export type {
   HeatSinkSpec,
 } from './schema';
 export { ledThermal, regulatorJunctionC, LED_BOARD_C_PER_W, BARE_STAR_C_PER_W, REGULATOR_INTERFACE_C_PER_W, REGULATOR_FREE_AIR_C_PER_W, JUNCTION_CAUTION_MARGIN_C } from './thermal';
-export { checkKit, evaluateKit } from './checkKit';
+export { checkKit, evaluateKit, finite } from './checkKit';
 export type { KitReport, KitFigures } from './checkKit';
-export { CHECK_DIRECTION, CHECK_TITLE, checkMargin, worst } from './checks';
+export { CHECK_DIRECTION, CHECK_TITLE, checkMargin, worst, isAbove, isBelow, RELATIVE_TOLERANCE } from './checks';
 export type { Check, CheckId, Verdict } from './checks';
 export { safetyCautions, generalCautions } from './cautions';
 export type { Caution } from './cautions';
-export { supplyWindow, stringVolts, buckDuty, buckRippleAmps, resistorAmps } from './circuit';
-export { awgDiameterMm, awgOhmsPerMeter, loopOhms } from './awg';
+export { supplyWindow, stringVolts, buckDuty, buckRippleAmps, worstBuckRippleAmps, resistorAmps, constantPowerDraw } from './circuit';
+export { awgDiameterMm, awgAreaMm2, awgOhmsPerMeter, loopOhms } from './awg';
 export { awgName } from './wire';
 export { E12, E24, nearestAtOrAbove, nearestAtOrBelow, wattageAtOrAbove } from './eSeries';
 export { designSeriesResistor } from './seriesResistor';
 export type { SeriesResistorDesign } from './seriesResistor';
-export { compareTopologies, defaultDriveAmps } from './compareTopologies';
-export type { TopologyRow } from './compareTopologies';
+export { compareTopologies, compareOptionsSchema, defaultDriveAmps } from './compareTopologies';
+export type { TopologyRow, CompareOptions } from './compareTopologies';
 export { rankCandidates, rankCandidatesNaive, compareCandidates } from './rank';
 export type { RankQuery, RankResult, Candidate, ShelfSupply, ShelfDriver } from './rank';
-export { formatVolts, formatAmps, formatWatts, formatPercent, formatSi, formatQuantity } from './format';
+export { formatVolts, formatAmps, formatWatts, formatPercent, formatCelsius, formatSi, formatQuantity, formatPair } from './format';

@@ -71,7 +71,7 @@ export function headroom(ctx: KitContext, vLow: number, drop: number, extra: num
   return check(ctx, 'headroom', verdict, vLow, needMax, 'V', () => {
     const parts = (string: number) => ` (string ${formatVolts(string)} + ${formatVolts(extra)} ${extraName})`;
     const fit = Math.floor((vLow - extra) / ctx.spec.string.led.vfMax);
-    const fewer = fit >= 1 && fit < ctx.spec.string.count ? `, or drive at most ${fit} LEDs from this one` : '';
+    const fewer = fit >= 1 && fit < ctx.spec.string.count ? `, or drive at most ${fit} LED${fit === 1 ? '' : 's'} from this one` : '';
     const advice = `Use a supply of at least ${formatVolts(supplyForLowEnd(ctx, needMax, drop))}${fewer}.`;
     const where = drop > 0 ? ' at the driver' : '';
     if (verdict === 'ok') {
@@ -159,7 +159,7 @@ export function wireCurrentDensity(ctx: KitContext, ampsOn: number): Check {
   const density = ampsOn / ctx.wireAreaMm2!;
   const verdict = verdictAtMost(density, WIRE_DENSITY_FAIL_A_PER_MM2, WIRE_DENSITY_CAUTION_A_PER_MM2);
   return check(ctx, 'wire-current-density', verdict, density, WIRE_DENSITY_FAIL_A_PER_MM2, 'A/mm²', () => {
-    const gauge = `${awgName(wiring.awg)} AWG (${formatQuantity(ctx.wireAreaMm2!, 'mm²', 1)})`;
+    const gauge = `${awgName(wiring.awg)} AWG (${Number(ctx.wireAreaMm2!.toPrecision(3))} mm²)`;
     let thinnest: number | undefined;
     for (let awg = MAX_AWG; awg >= MIN_AWG && thinnest === undefined; awg--)
       if (!isAbove(ampsOn / awgAreaMm2(awg), WIRE_DENSITY_CAUTION_A_PER_MM2)) thinnest = awg;

@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { formatAmps, formatPercent, formatQuantity, formatSi, formatVolts, formatWatts } from '@/lib/electrical';
+import { formatAmps, formatCelsius, formatPair, formatPercent, formatQuantity, formatSi, formatVolts, formatWatts } from '@/lib/electrical';
 import { ceilTo, floorTo } from '@/lib/electrical/format';
 
 // Display precision is a product rule (PRODUCT.md): V to 0.1, A to the mA, W to 0.01.
@@ -37,5 +37,42 @@ describe('figures for people', () => {
     expect(ceilTo(0.1 + 0.2, 0.1)).toBe(0.3);
     expect(floorTo(34.2857, 0.1)).toBe(34.2);
     expect(floorTo(34.3, 0.1)).toBe(34.3);
+  });
+});
+
+describe('a value beside its limit', () => {
+  // The contract's rule: when a verdict depends on the difference, the two never print the same.
+  it('adds decimals until two different numbers read apart', () => {
+    expect(formatPair(13.49, 13.5, 'V')).toEqual(['13.49 V', '13.50 V']);
+    expect(formatPair(13.4999, 13.5, 'V')).toEqual(['13.4999 V', '13.5000 V']);
+    expect(formatPair(24, 36, 'V')).toEqual(['24.0 V', '36.0 V']);
+    expect(formatPair(3.004, 3, 'W')).toEqual(['3.004 W', '3.000 W']);
+    expect(formatPair(0.9501, 0.95, 'ratio')).toEqual(['95.01 %', '95.00 %']);
+    expect(formatPair(100.4, 100, '°C')).toEqual(['100.4 °C', '100.0 °C']);
+    expect(formatPair(10.04, 10, 'A/mm²')).toEqual(['10.04 A/mm²', '10.00 A/mm²']);
+  });
+
+  it('prints both currents in one unit, chosen by the larger', () => {
+    expect(formatPair(0.9999, 1, 'A')).toEqual(['0.9999 A', '1.0000 A']);
+    expect(formatPair(0.35, 0.7, 'A')).toEqual(['350 mA', '700 mA']);
+    expect(formatPair(0.35, 1, 'A')).toEqual(['0.350 A', '1.000 A']);
+  });
+
+  it('leaves numbers equal within the tolerance alike (the check treats them as equal)', () => {
+    expect(formatPair(3 * 3.2, 9.6, 'V')).toEqual(['9.6 V', '9.6 V']);
+  });
+
+  it('temperatures to the degree, extra digits on request', () => {
+    expect(formatCelsius(80.6)).toBe('81 °C');
+    expect(formatCelsius(80.64, 1)).toBe('80.6 °C');
+    expect(formatCelsius(Infinity)).toBe('—');
+    expect(formatQuantity(2.25, '°C/W')).toBe('2.3 °C/W');
+    expect(formatQuantity(Number.NaN, 'A/mm²')).toBe('—');
+    expect(formatSi(1234, 'Ω', 2)).toBe('1.234 kΩ');
+    expect(formatAmps(0.35, 1)).toBe('350.0 mA');
+    expect(formatAmps(0.35, 0, 2)).toBe('0.350 A');
+    expect(formatVolts(12.345, 2)).toBe('12.345 V');
+    expect(formatWatts(1.2346, 1)).toBe('1.235 W');
+    expect(formatPercent(0.12345, 1)).toBe('12.35 %');
   });
 });
