@@ -149,7 +149,7 @@ describe('bench check fits 390 px with no sideways scroll', () => {
     await errorFor(page, 'string.vfTyp').waitFor();
     expect(await fitsWidth(page)).toBe(true);
 
-    await page.getByLabel('Linear', { exact: true }).check();
+    await page.locator('input[name="driverType"][value="linear"]').check();
     await input(page, 'linear.sinkCPerW').fill('5');
     expect(await fitsWidth(page)).toBe(true);
     await page.context().close();
