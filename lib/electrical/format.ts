@@ -83,7 +83,9 @@ export function formatPair(value: number, limit: number, unit: string): [string,
   const equal = Math.abs(value - limit) <= 1e-9 * Math.abs(limit);
   let a = formatQuantity(value, unit, 0, scaleOf);
   let b = formatQuantity(limit, unit, 0, scaleOf);
-  for (let extra = 1; a === b && !equal && extra <= 20; extra++) {
+  // A non-zero number that prints as zero ("0 mA" for a 0.1 mA rating) also gets more digits.
+  const lostToZero = (text: string, x: number) => x !== 0 && parseFloat(text) === 0;
+  for (let extra = 1; ((a === b && !equal) || lostToZero(a, value) || lostToZero(b, limit)) && extra <= 20; extra++) {
     a = formatQuantity(value, unit, extra, scaleOf);
     b = formatQuantity(limit, unit, extra, scaleOf);
   }

@@ -58,6 +58,11 @@ describe('a value beside its limit', () => {
     expect(formatPair(0.35, 1, 'A')).toEqual(['0.350 A', '1.000 A']);
   });
 
+  it('never prints a non-zero number as zero', () => {
+    expect(formatPair(0.249, 0.0001, 'A')).toEqual(['249.0 mA', '0.1 mA']);
+    expect(formatPair(0, 0.5, 'V')).toEqual(['0.0 V', '0.5 V']);
+  });
+
   it('leaves numbers equal within the tolerance alike (the check treats them as equal)', () => {
     expect(formatPair(3 * 3.2, 9.6, 'V')).toEqual(['9.6 V', '9.6 V']);
   });

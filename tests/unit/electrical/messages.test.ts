@@ -181,8 +181,58 @@ describe('messages', () => {
     expect(msg(resistorSpec({ led: { maxAmps: 0.02 }, driver: { ohms: 0.01 } }), 'led-current')).toContain('Use at least 180 Ω');
     expect(msg(resistorSpec({ led: { maxAmps: 1e-9 } }), 'led-current')).toContain('Use a constant-current driver instead.');
     expect(msg(resistorSpec({ driver: { watts: 0.001 } }), 'resistor-power')).toBe(
-      'The resistor would dissipate up to 0.13 W, above its 0.00 W rating. Use a resistor rated 0.50 W or more.',
+      'The resistor would dissipate up to 0.130 W, above its 0.001 W rating. Use a resistor rated 0.50 W or more.',
     );
     expect(msg(resistorSpec({ driver: { ohms: 0.5, watts: 1 } }), 'resistor-power')).toContain('That is too much heat for a resistor');
+  });
+
+  it('a supply over the driver rating names the tolerance only when there is one', () => {
+    expect(msg(buckSpec({ supply: { volts: 38 } }), 'supply-vs-driver-max')).toBe(
+      "The supply can reach 38.0 V, above the driver's 36.0 V input rating. Choose a driver rated for at least 38.0 V in, or a supply of at most 36.0 V.",
+    );
+    expect(msg(buckSpec({ supply: { volts: 36, tolerancePct: 5 } }), 'supply-vs-driver-max')).toBe(
+      "The supply can reach 37.8 V with its 5.0 % tolerance, above the driver's 36.0 V input rating. Choose a driver rated for at least 37.8 V in, or a supply of at most 34.2 V.",
+    );
+  });
+
+  it('an LED over-current from ripple alone asks for less ripple or a smaller set current', () => {
+    const spec: KitSpec = {
+      supply: { volts: 24, tolerancePct: 0, maxAmps: 10 },
+      driver: { type: 'buck', minInputVolts: 6, maxInputVolts: 36, outputAmps: 1, efficiency: 1, inductorHenries: 50e-6, switchingHz: 300e3 },
+      string: { count: 4, led: { vfMin: 3, vfTyp: 3, vfMax: 3, maxAmps: 1.1, maxWatts: 20 } },
+    };
+    expect(msg(spec, 'led-current')).toBe(
+      "With ripple the LEDs see 1.200 A, above the LED's 1.100 A rating; PWM dimming does not lower this peak. Lower the ripple (a larger inductor or a faster switching frequency) or choose a driver of at most 900 mA.",
+    );
+  });
+
+  it('a regulator too hot in free air: the sink that would do, the supply range that would waste less', () => {
+    expect(msg(linearSpec({ supply: { volts: 40 }, driver: { maxInputVolts: 50 } }), 'regulator-junction')).toBe(
+      'The driver would lose up to 10.08 W; its junction would reach about 655 °C in free air (no heat sink given), above its 125 °C maximum, and it will shut down or fail. A heat sink of at most 1.9 °C/W keeps it at or under 100 °C. A supply between 13.8 V and 14.6 V wastes less, or use a buck driver.',
+    );
+    expect(msg(linearSpec({ supply: { volts: 60 }, driver: { maxInputVolts: 60, outputAmps: 3 }, led: { maxAmps: 5, maxWatts: 50 } }), 'regulator-junction')).toMatch(
+      /No heat sink is enough at this loss\. A buck driver wastes far less\.$/,
+    );
+  });
+
+  it('a resistor through a wire run: the resistance needed allows for the wire', () => {
+    // (12 − 8.4) / 0.02 = 180 Ω in all, less 6.8 Ω of 20 m of 30 AWG → 173.2 Ω → E24 180 Ω
+    expect(msg(resistorSpec({ led: { maxAmps: 0.02 }, wiring: { lengthMeters: 10, awg: 30 } }), 'led-current')).toContain('Use at least 180 Ω');
+    expect(msg(resistorSpec({ led: { maxAmps: 0.02 }, wiring: { lengthMeters: 10, awg: 30 } }), 'led-current')).toContain('resistor lets 34 mA');
+  });
+
+  it('a sink for many LEDs may need to be better than 0.1 °C/W', () => {
+    // 200 LEDs of 3 W on one sink: (100 − 25 − 30) / 600 = 0.075 °C/W
+    const spec: KitSpec = {
+      supply: { volts: 24, maxAmps: 100 },
+      driver: { type: 'linear', maxInputVolts: 30, outputAmps: 1, dropoutVolts: 1, sinkCPerW: 1 },
+      string: { count: 200, led: { vfMin: 0.1, vfTyp: 0.1, vfMax: 3, maxAmps: 2, maxWatts: 10 } },
+      heatSink: { count: 1, cPerW: 1 },
+    };
+    expect(msg(spec, 'led-junction')).toContain('A sink of at most 0.075 °C/W each');
+  });
+
+  it('a tiny supply rating is not printed as zero', () => {
+    expect(msg(buckSpec({ supply: { volts: 20, maxAmps: 0.0001 } }), 'supply-current')).toContain("more than the supply's 0.1 mA");
   });
 });
