@@ -1,6 +1,9 @@
 // The bench-check form as the person types it (strings), and its conversion to a KitSpec. Currents are
-// entered in mA, duty and efficiency in %, inductance in µH and frequency in kHz; the spec is SI.
+// entered in mA, duty and efficiency in %, inductance in µH and frequency in kHz; the spec is SI. The spec
+// is validated with the check's own schema (same caps as the API); each problem lands on the field shown.
 import { type KitSpec, kitSpecSchema } from '@/lib/electrical';
+import { type ParsedNumber, parseTypedNumber } from './typed-number';
+import { FIELD_UNITS, scaledIssueMessage } from './field-units';
 
 export type DriverType = 'buck' | 'linear' | 'resistor';
 
@@ -17,12 +20,32 @@ export type FormState = {
     maxOutputVolts: string;
     inductorMicrohenries: string;
     switchingKilohertz: string;
+    inductorSatAmps: string;
   };
-  linear: { maxInputVolts: string; outputMilliamps: string; dropoutVolts: string; maxWatts: string };
+  linear: {
+    maxInputVolts: string;
+    outputMilliamps: string;
+    dropoutVolts: string;
+    maxWatts: string;
+    sinkCPerW: string;
+    junctionToCaseCPerW: string;
+    maxJunctionC: string;
+  };
   resistor: { ohms: string; watts: string };
-  string: { count: string; vfMin: string; vfTyp: string; vfMax: string; maxMilliamps: string; maxWatts: string };
+  string: {
+    count: string;
+    vfMin: string;
+    vfTyp: string;
+    vfMax: string;
+    maxMilliamps: string;
+    maxWatts: string;
+    thermalOhmsJs: string;
+    maxJunctionC: string;
+  };
   pwm: { on: boolean; dutyPct: string };
   wiring: { on: boolean; lengthMeters: string; awg: string };
+  heatSink: { on: boolean; count: string; cPerW: string };
+  ambient: { ambientC: string };
 };
 
 /** A 24 V 2 A supply, a 350 mA buck driver (6–36 V in) and five white LEDs: comfortably ok (a sixth turns it to caution). */
@@ -39,15 +62,18 @@ export const DEFAULT_FORM: FormState = {
     maxOutputVolts: '',
     inductorMicrohenries: '',
     switchingKilohertz: '',
+    inductorSatAmps: '',
   },
-  linear: { maxInputVolts: '30', outputMilliamps: '350', dropoutVolts: '1.2', maxWatts: '' },
+  linear: { maxInputVolts: '30', outputMilliamps: '350', dropoutVolts: '1.2', maxWatts: '', sinkCPerW: '', junctionToCaseCPerW: '', maxJunctionC: '' },
   resistor: { ohms: '33', watts: '2' },
-  string: { count: '5', vfMin: '2.8', vfTyp: '3.0', vfMax: '3.4', maxMilliamps: '700', maxWatts: '3' },
+  string: { count: '5', vfMin: '2.8', vfTyp: '3.0', vfMax: '3.4', maxMilliamps: '700', maxWatts: '3', thermalOhmsJs: '', maxJunctionC: '' },
   pwm: { on: false, dutyPct: '50' },
   wiring: { on: false, lengthMeters: '2', awg: '22' },
+  heatSink: { on: false, count: '1', cPerW: '10' },
+  ambient: { ambientC: '' },
 };
 
-/** Form field → spec path, so that a zod issue lands on the input that caused it. */
+/** Form field → spec path (driver fields shared by two driver types are resolved in fieldFor). */
 export const FIELD_FOR_PATH: Record<string, string> = {
   'supply.volts': 'supply.volts',
   'supply.tolerancePct': 'supply.tolerancePct',
@@ -59,8 +85,10 @@ export const FIELD_FOR_PATH: Record<string, string> = {
   'driver.maxOutputVolts': 'buck.maxOutputVolts',
   'driver.inductorHenries': 'buck.inductorMicrohenries',
   'driver.switchingHz': 'buck.switchingKilohertz',
+  'driver.inductorSatAmps': 'buck.inductorSatAmps',
   'driver.dropoutVolts': 'linear.dropoutVolts',
-  'driver.maxWatts': 'linear.maxWatts',
+  'driver.sinkCPerW': 'linear.sinkCPerW',
+  'driver.junctionToCaseCPerW': 'linear.junctionToCaseCPerW',
   'driver.ohms': 'resistor.ohms',
   'driver.watts': 'resistor.watts',
   'string.count': 'string.count',
@@ -69,60 +97,132 @@ export const FIELD_FOR_PATH: Record<string, string> = {
   'string.led.vfMax': 'string.vfMax',
   'string.led.maxAmps': 'string.maxMilliamps',
   'string.led.maxWatts': 'string.maxWatts',
+  'string.led.thermalOhmsJs': 'string.thermalOhmsJs',
+  'string.led.maxJunctionC': 'string.maxJunctionC',
   pwmDuty: 'pwm.dutyPct',
   'wiring.lengthMeters': 'wiring.lengthMeters',
   'wiring.awg': 'wiring.awg',
+  'heatSink.count': 'heatSink.count',
+  'heatSink.cPerW': 'heatSink.cPerW',
+  ambientC: 'ambient.ambientC',
 };
 
-// Fields entered in a scaled unit: the schema's words ("cannot be more than 1") would confuse there.
-const SCALED_MESSAGE: Record<string, string> = {
-  'buck.maxDutyPct': 'Enter a percentage above 0 and at most 100',
-  'buck.efficiencyPct': 'Enter a percentage above 0 and at most 100',
-  'pwm.dutyPct': 'Enter a percentage above 0 and at most 100',
-};
-
-/** Empty text → undefined (optional fields); anything else → a number (NaN when not one). */
-function num(text: string): number | undefined {
-  const t = text.trim().replace(',', '.');
-  return t === '' ? undefined : Number(t);
+/** Driver fields shared by two driver types map to the one on screen. */
+export function fieldFor(path: string, driverType: DriverType): string {
+  const own = driverType === 'linear' ? 'linear' : 'buck';
+  if (path === 'driver.maxInputVolts') return `${own}.maxInputVolts`;
+  if (path === 'driver.outputAmps') return `${own}.outputMilliamps`;
+  if (path === 'driver.maxWatts') return 'linear.maxWatts';
+  if (path === 'driver.maxJunctionC') return 'linear.maxJunctionC';
+  return FIELD_FOR_PATH[path] ?? path;
 }
-/** A value typed in a scaled unit, in SI: `unitsPerSi` is 1000 for mA, 100 for %, 1e-3 for kHz. */
-const scaled = (text: string, unitsPerSi: number) => {
-  const n = num(text);
-  if (n === undefined) return undefined;
-  // Dividing by a power of ten (rather than multiplying by 1e-3) keeps 350 mA exactly 0.35 A.
-  return unitsPerSi >= 1 ? n / unitsPerSi : n * (1 / unitsPerSi);
-};
-/** Required fields: empty is an error, so send NaN rather than leave the key out. */
-const required = (text: string, unitsPerSi = 1) => scaled(text, unitsPerSi) ?? Number.NaN;
 
-function driverOf(f: FormState): unknown {
-  if (f.driverType === 'buck') {
-    const b = f.buck;
+export type FormResult = {
+  spec: KitSpec | null;
+  /** Form field → what is wrong with it, in the field's own unit. */
+  errors: Record<string, string>;
+  /** Form field → how the typed text was read ("= 300 000 Hz", "read as 3.2"). */
+  echoes: Record<string, string>;
+};
+
+/** Reads every visible field, builds the spec, and validates it with the check's schema. */
+export function specFromForm(f: FormState): FormResult {
+  const errors: Record<string, string> = {};
+  const echoes: Record<string, string> = {};
+  const siValues: Record<string, number> = {};
+
+  // One typed field → its SI value; undefined when empty and optional. Text that is not a number, or a
+  // required field left empty, is marked here, before the schema sees a NaN.
+  const read = (field: string, text: string, required: boolean): number | undefined => {
+    const parsed: ParsedNumber = parseTypedNumber(text);
+    if (parsed.kind === 'empty') {
+      if (required) errors[field] = 'Required: enter a value';
+      return required ? Number.NaN : undefined;
+    }
+    if (parsed.kind === 'bad') {
+      errors[field] = parsed.message;
+      return Number.NaN;
+    }
+    const unit = FIELD_UNITS[field];
+    const si = unit ? unit.toSi(parsed.value) : parsed.value;
+    siValues[field] = si;
+    const echo = unit?.echo?.(si);
+    if (echo) echoes[field] = echo;
+    else if (parsed.readAs) echoes[field] = `read as ${parsed.readAs}`;
+    return si;
+  };
+  const req = (group: keyof FormState, key: string) => read(`${group}.${key}`, textOf(f, group, key), true);
+  const opt = (group: keyof FormState, key: string) => read(`${group}.${key}`, textOf(f, group, key), false);
+
+  const raw = dropUndefined({
+    supply: { volts: req('supply', 'volts'), tolerancePct: opt('supply', 'tolerancePct'), maxAmps: req('supply', 'maxAmps') },
+    driver: driverOf(f, req, opt),
+    string: {
+      count: req('string', 'count'),
+      led: {
+        vfMin: req('string', 'vfMin'),
+        vfTyp: req('string', 'vfTyp'),
+        vfMax: req('string', 'vfMax'),
+        maxAmps: req('string', 'maxMilliamps'),
+        maxWatts: req('string', 'maxWatts'),
+        thermalOhmsJs: opt('string', 'thermalOhmsJs'),
+        maxJunctionC: opt('string', 'maxJunctionC'),
+      },
+    },
+    pwmDuty: f.pwm.on ? req('pwm', 'dutyPct') : undefined,
+    wiring: f.wiring.on ? { lengthMeters: req('wiring', 'lengthMeters'), awg: req('wiring', 'awg') } : undefined,
+    heatSink: f.heatSink.on ? { count: req('heatSink', 'count'), cPerW: req('heatSink', 'cPerW') } : undefined,
+    ambientC: opt('ambient', 'ambientC'),
+  });
+
+  const parsed = kitSpecSchema.safeParse(raw);
+  if (parsed.success && Object.keys(errors).length === 0) return { spec: raw as KitSpec, errors, echoes };
+  if (!parsed.success) {
+    for (const issue of parsed.error.issues) {
+      const field = fieldFor(issue.path.map(String).join('.'), f.driverType);
+      if (errors[field]) continue; // "not a number" or "required" already says it best
+      errors[field] = scaledIssueMessage(field, issue, siValues[field]) ?? issue.message;
+    }
+  }
+  for (const field of Object.keys(errors)) delete echoes[field];
+  return { spec: null, errors, echoes };
+}
+
+type Reader = (group: keyof FormState, key: string) => number | undefined;
+
+function driverOf(f: FormState, req: Reader, opt: Reader): unknown {
+  if (f.driverType === 'buck')
     return {
       type: 'buck',
-      minInputVolts: required(b.minInputVolts),
-      maxInputVolts: required(b.maxInputVolts),
-      outputAmps: required(b.outputMilliamps, 1000),
-      headroomVolts: num(b.headroomVolts),
-      maxDuty: scaled(b.maxDutyPct, 100),
-      efficiency: scaled(b.efficiencyPct, 100),
-      maxOutputVolts: num(b.maxOutputVolts),
-      inductorHenries: scaled(b.inductorMicrohenries, 1e6),
-      switchingHz: scaled(b.switchingKilohertz, 1e-3),
+      minInputVolts: req('buck', 'minInputVolts'),
+      maxInputVolts: req('buck', 'maxInputVolts'),
+      outputAmps: req('buck', 'outputMilliamps'),
+      headroomVolts: opt('buck', 'headroomVolts'),
+      maxDuty: opt('buck', 'maxDutyPct'),
+      efficiency: opt('buck', 'efficiencyPct'),
+      maxOutputVolts: opt('buck', 'maxOutputVolts'),
+      inductorHenries: opt('buck', 'inductorMicrohenries'),
+      switchingHz: opt('buck', 'switchingKilohertz'),
+      inductorSatAmps: opt('buck', 'inductorSatAmps'),
     };
-  }
-  if (f.driverType === 'linear') {
-    const l = f.linear;
+  if (f.driverType === 'linear')
     return {
       type: 'linear',
-      maxInputVolts: required(l.maxInputVolts),
-      outputAmps: required(l.outputMilliamps, 1000),
-      dropoutVolts: required(l.dropoutVolts),
-      maxWatts: num(l.maxWatts),
+      maxInputVolts: req('linear', 'maxInputVolts'),
+      outputAmps: req('linear', 'outputMilliamps'),
+      dropoutVolts: req('linear', 'dropoutVolts'),
+      maxWatts: opt('linear', 'maxWatts'),
+      sinkCPerW: opt('linear', 'sinkCPerW'),
+      junctionToCaseCPerW: opt('linear', 'junctionToCaseCPerW'),
+      maxJunctionC: opt('linear', 'maxJunctionC'),
     };
-  }
-  return { type: 'resistor', ohms: required(f.resistor.ohms), watts: required(f.resistor.watts) };
+  return { type: 'resistor', ohms: req('resistor', 'ohms'), watts: req('resistor', 'watts') };
+}
+
+function textOf(f: FormState, group: keyof FormState, key: string): string {
+  const g = f[group] as Record<string, unknown>;
+  const v = g?.[key];
+  return typeof v === 'string' ? v : '';
 }
 
 const dropUndefined = (o: unknown): unknown =>
@@ -130,40 +230,22 @@ const dropUndefined = (o: unknown): unknown =>
     ? Object.fromEntries(Object.entries(o).filter(([, v]) => v !== undefined).map(([k, v]) => [k, dropUndefined(v)]))
     : o;
 
-export type FormResult = { spec: KitSpec | null; errors: Record<string, string> };
-
-/** Builds the spec and validates it with the same schema as the server; errors keyed by form field. */
-export function specFromForm(f: FormState): FormResult {
-  const raw = dropUndefined({
-    supply: { volts: required(f.supply.volts), tolerancePct: num(f.supply.tolerancePct), maxAmps: required(f.supply.maxAmps) },
-    driver: driverOf(f),
-    string: {
-      count: required(f.string.count),
-      led: {
-        vfMin: required(f.string.vfMin),
-        vfTyp: required(f.string.vfTyp),
-        vfMax: required(f.string.vfMax),
-        maxAmps: required(f.string.maxMilliamps, 1000),
-        maxWatts: required(f.string.maxWatts),
-      },
-    },
-    pwmDuty: f.pwm.on ? required(f.pwm.dutyPct, 100) : undefined,
-    wiring: f.wiring.on ? { lengthMeters: required(f.wiring.lengthMeters), awg: required(f.wiring.awg) } : undefined,
-  });
-  const parsed = kitSpecSchema.safeParse(raw);
-  if (parsed.success) return { spec: raw as KitSpec, errors: {} };
-  const errors: Record<string, string> = {};
-  for (const issue of parsed.error.issues) {
-    const path = issue.path.join('.');
-    const field = fieldFor(path, f.driverType);
-    errors[field] ??= SCALED_MESSAGE[field] ?? issue.message;
+/**
+ * A saved draft (sessionStorage) laid over the defaults: only known keys with values of the right type,
+ * so an old or tampered draft can never break the page.
+ */
+export function restoreForm(saved: unknown): FormState {
+  const out = structuredClone(DEFAULT_FORM);
+  if (!saved || typeof saved !== 'object') return out;
+  const s = saved as Record<string, unknown>;
+  if (s.driverType === 'buck' || s.driverType === 'linear' || s.driverType === 'resistor') out.driverType = s.driverType;
+  for (const group of Object.keys(out) as (keyof FormState)[]) {
+    if (group === 'driverType') continue;
+    const target = out[group] as Record<string, string | boolean>;
+    const source = s[group];
+    if (!source || typeof source !== 'object') continue;
+    for (const [k, v] of Object.entries(source as Record<string, unknown>))
+      if (k in target && typeof v === typeof target[k] && (typeof v !== 'string' || v.length <= 60)) target[k] = v as string | boolean;
   }
-  return { spec: null, errors };
-}
-
-/** Driver fields shared by two driver types map to the one on screen. */
-function fieldFor(path: string, driverType: DriverType): string {
-  if (path === 'driver.maxInputVolts') return `${driverType === 'linear' ? 'linear' : 'buck'}.maxInputVolts`;
-  if (path === 'driver.outputAmps') return `${driverType === 'linear' ? 'linear' : 'buck'}.outputMilliamps`;
-  return FIELD_FOR_PATH[path] ?? path;
+  return out;
 }

@@ -8,10 +8,10 @@ import {
   checkMargin,
   formatAmps,
   formatPercent,
-  formatQuantity,
   formatVolts,
   formatWatts,
 } from '@/lib/electrical';
+import { formatValueAndLimit } from './units';
 
 /** A card with its own heading, labelled for screen readers. */
 function Panel({ id, title, icon, children }: { id: string; title: string; icon?: React.ReactNode; children: React.ReactNode }) {
@@ -63,8 +63,10 @@ export function ChecksList({ checks }: { checks: Check[] }) {
   return (
     <Panel id="checks-heading" title="Checks">
       <ul className="divide-y divide-stone-200 dark:divide-stone-800">
-        {sorted.map((c) => (
-          <li key={c.id} className="py-3 first:pt-0 last:pb-0" data-check={c.id}>
+        {sorted.map((c) => {
+          const [value, limit] = formatValueAndLimit(c.value, c.limit, c.unit);
+          return (
+          <li key={c.id} className="py-3 first:pt-0 last:pb-0" data-check={c.id} data-verdict={c.verdict}>
             <div className="flex flex-wrap items-center justify-between gap-2">
               <h3 className="font-semibold">{CHECK_TITLE[c.id]}</h3>
               <VerdictBadge verdict={c.verdict} />
@@ -72,20 +74,21 @@ export function ChecksList({ checks }: { checks: Check[] }) {
             <dl className="mt-1 flex flex-wrap gap-x-4 gap-y-1 text-sm tabular-nums">
               <div>
                 <dt className="muted inline">value </dt>
-                <dd className="inline font-semibold">{formatQuantity(c.value, c.unit)}</dd>
+                <dd className="inline font-semibold">{value}</dd>
               </div>
               <div>
                 <dt className="muted inline">limit </dt>
-                <dd className="inline font-semibold">{formatQuantity(c.limit, c.unit)}</dd>
+                <dd className="inline font-semibold">{limit}</dd>
               </div>
               <div>
                 <dt className="muted inline">margin </dt>
                 <dd className="inline font-semibold">{signedPercent(checkMargin(c))}</dd>
               </div>
             </dl>
-            <p className="mt-1 text-sm">{c.message}</p>
+            <p className="mt-1 text-sm break-words">{c.message}</p>
           </li>
-        ))}
+          );
+        })}
       </ul>
     </Panel>
   );
@@ -95,9 +98,9 @@ export function FiguresList({ report }: { report: KitReport }) {
   const f = report.figures;
   const rows: [string, string][] = [
     ['String voltage (min / typ / max)', `${formatVolts(f.stringVoltsMin)} / ${formatVolts(f.stringVoltsTyp)} / ${formatVolts(f.stringVoltsMax)}`],
-    ['LED current, peak', formatAmps(f.ledAmpsPeak)],
+    ['LED current, peak (incl. ripple)', formatAmps(f.ledAmpsPeak)],
     ['LED current, average', formatAmps(f.ledAmpsAvg)],
-    ['Power per LED', formatWatts(f.ledWatts)],
+    ['Power per LED (worst case)', formatWatts(f.ledWatts)],
     ['Power into the LEDs', formatWatts(f.outputWatts)],
     ['Power from the supply', formatWatts(f.inputWatts)],
     ['Supply current', formatAmps(f.supplyAmps)],
@@ -112,7 +115,7 @@ export function FiguresList({ report }: { report: KitReport }) {
     <Panel id="figures-heading" title="Figures">
       <dl className="grid grid-cols-1 gap-x-6 gap-y-1.5 text-sm sm:grid-cols-2">
         {rows.map(([k, v]) => (
-          <div key={k} className="flex justify-between gap-3 border-b border-stone-100 pb-1 dark:border-stone-800">
+          <div key={k} className="flex min-w-0 justify-between gap-3 border-b border-stone-100 pb-1 dark:border-stone-800">
             <dt className="muted">{k}</dt>
             <dd className="font-semibold tabular-nums">{v}</dd>
           </div>

@@ -29,10 +29,12 @@ export function TopologyTable({ rows }: { rows: TopologyRow[] }) {
             </tr>
           </thead>
           <tbody>
-            {rows.map((r) => (
-              <tr key={r.type}>
+            {[...rows].sort((a, b) => a.rank - b.rank).map((r) => (
+              <tr key={r.type} data-rank={r.rank}>
                 <th scope="row" className="font-semibold">
+                  {r.rank === 1 ? <span className="mr-1 text-xs font-bold text-teal-800 uppercase dark:text-teal-300">first choice</span> : null}
                   {NAME[r.type]}
+                  <span className="block text-xs font-normal">{r.reason}</span>
                   <span className="muted block text-xs font-normal">{r.driverNote}</span>
                 </th>
                 <td>

@@ -1,7 +1,10 @@
 import { useId } from 'react';
-import { type KitReport, type KitSpec, formatVolts, supplyWindow } from '@/lib/electrical';
+import { type KitReport, type KitSpec, formatAmps, formatVolts, supplyWindow } from '@/lib/electrical';
 
 type Band = { from: number; to: number };
+
+/** The low-voltage (SELV) limit for ripple-free DC; the check's own limit when it reports one. */
+const SELV_VOLTS = 60;
 
 /** The numbers the plot draws, from the spec and its report. */
 export function operatingWindow(spec: KitSpec, report: KitReport) {
@@ -13,7 +16,9 @@ export function operatingWindow(spec: KitSpec, report: KitReport) {
   const d = spec.driver;
   const driverInput: Band | null =
     d.type === 'buck' ? { from: d.minInputVolts, to: d.maxInputVolts } : d.type === 'linear' ? { from: 0, to: d.maxInputVolts } : null;
+  const selv = report.checks.find((c) => c.id === 'low-voltage-limit')?.limit ?? SELV_VOLTS;
   return {
+    selv,
     supply,
     atDriverLow,
     string: { from: report.figures.stringVoltsMin, to: report.figures.stringVoltsMax } as Band,
@@ -24,7 +29,7 @@ export function operatingWindow(spec: KitSpec, report: KitReport) {
 }
 
 function niceStep(span: number): number {
-  const raw = span / 6;
+  const raw = Number.isFinite(span) && span > 0 ? span / 6 : 1;
   const p = Math.pow(10, Math.floor(Math.log10(raw)));
   return [1, 2, 5, 10].map((m) => m * p).find((s) => s >= raw) ?? 10 * p;
 }
@@ -42,13 +47,17 @@ const ROW = 34;
 export function WindowPlot({ spec, report }: { spec: KitSpec; report: KitReport }) {
   const id = useId();
   const w = operatingWindow(spec, report);
-  const top = Math.max(w.supply.high, w.need.to, w.driverInput?.to ?? 0) * 1.08;
+  // The axis takes in the 60 V limit once the build comes within reach of it (above 30 V), so the
+  // limit is drawn where it is; below that it is marked at the edge, off scale.
+  const reach = Math.max(w.supply.high, w.need.to, w.driverInput?.to ?? 0);
+  const top = Math.max(reach, reach > w.selv / 2 ? w.selv : 0, 1) * 1.08;
   const step = niceStep(top);
   const axisMax = Math.ceil(top / step) * step;
+  const selvOnScale = w.selv <= axisMax;
   const x = (v: number) => LEFT + (Math.max(0, Math.min(v, axisMax)) / axisMax) * (W - LEFT - RIGHT);
   const rows = w.driverInput ? 3 : 2;
   const H = 20 + rows * ROW + 34;
-  const ticks = Array.from({ length: Math.round(axisMax / step) + 1 }, (_, i) => i * step);
+  const ticks = Array.from({ length: Math.min(30, Math.round(axisMax / step) + 1) }, (_, i) => Number((i * step).toPrecision(6)));
   const lowMargin = w.atDriverLow - w.need.to;
   const highMargin = w.driverInput ? w.driverInput.to - w.supply.high : null;
   const rowY = (i: number) => 20 + i * ROW;
@@ -111,7 +120,24 @@ export function WindowPlot({ spec, report }: { spec: KitSpec; report: KitReport 
         {w.driverInput ? (
           <line x1={x(w.driverInput.to)} x2={x(w.driverInput.to)} y1={12} y2={H - 28} strokeDasharray="4 3" className="stroke-red-700 dark:stroke-red-300" strokeWidth={1.5} />
         ) : null}
+
+        {/* the low-voltage limit: on scale a solid line, otherwise an arrow at the right edge */}
+        <g data-plot="selv">
+          {selvOnScale ? (
+            <>
+              <line x1={x(w.selv)} x2={x(w.selv)} y1={6} y2={H - 28} className="stroke-purple-700 dark:stroke-purple-300" strokeWidth={2} />
+              <text x={x(w.selv) - 3} y={10} textAnchor="end" className="fill-purple-800 text-[10px] font-semibold dark:fill-purple-200">
+                {w.selv} V limit
+              </text>
+            </>
+          ) : (
+            <text x={W - 2} y={10} textAnchor="end" className="fill-purple-800 text-[10px] font-semibold dark:fill-purple-200">
+              {w.selv} V limit →
+            </text>
+          )}
+        </g>
       </svg>
+      <CurrentStrip spec={spec} report={report} />
       <ul className="muted mt-2 grid gap-1 text-xs sm:grid-cols-2">
         <Legend swatch="bg-teal-600 dark:bg-teal-400" text={`supply ${formatVolts(w.supply.low)}–${formatVolts(w.supply.high)} (tolerance), nominal marked`} />
         {w.atDriverLow < w.supply.low ? <Legend swatch="bg-teal-200 dark:bg-teal-900" text={`lost in the wire: down to ${formatVolts(w.atDriverLow)}`} /> : null}
@@ -121,6 +147,10 @@ export function WindowPlot({ spec, report }: { spec: KitSpec; report: KitReport 
           text={`needed at the driver: ${formatVolts(w.need.from)} (typical) to ${formatVolts(w.need.to)} (worst case)${w.extra > 0 ? `, incl. ${formatVolts(w.extra)} for the driver` : ''}`}
         />
         {w.driverInput ? <Legend swatch="bg-stone-300 dark:bg-stone-600" text={`driver input ${formatVolts(w.driverInput.from)}–${formatVolts(w.driverInput.to)}`} /> : null}
+        <Legend
+          swatch="bg-purple-700 dark:bg-purple-300"
+          text={`${w.selv} V: the low-voltage limit for DC; above it the build is outside the bench's scope${selvOnScale ? '' : ' (off this scale)'}`}
+        />
       </ul>
     </figure>
   );
@@ -145,4 +175,53 @@ function Legend({ swatch, text }: { swatch: string; text: string }) {
 
 function signedVolts(v: number): string {
   return `${v >= 0 ? '+' : '−'}${formatVolts(Math.abs(v))}`;
+}
+
+/**
+ * The LED current on its own axis: the set current, the ripple on top of it up to the peak, and the
+ * limits the peak must stay under (the LED's rating, the inductor's saturation current when given).
+ */
+function CurrentStrip({ spec, report }: { spec: KitSpec; report: KitReport }) {
+  const id = useId();
+  const d = spec.driver;
+  const peak = report.figures.ledAmpsPeak;
+  const set = d.type === 'resistor' ? peak : d.outputAmps;
+  const ripple = report.figures.rippleAmps;
+  const ledMax = spec.string.led.maxAmps;
+  const sat = d.type === 'buck' ? d.inductorSatAmps : undefined;
+  const top = Math.max(peak, ledMax, sat ?? 0, 1e-6) * 1.1;
+  const x = (a: number) => LEFT + (Math.max(0, Math.min(a, top)) / top) * (W - LEFT - RIGHT);
+  const H = 58;
+  const summary =
+    `LED current: set ${formatAmps(set)}` +
+    (ripple !== undefined ? `, ripple ${formatAmps(ripple)} peak to peak, peak ${formatAmps(peak)}` : `, peak ${formatAmps(peak)}`) +
+    `; the LED is rated ${formatAmps(ledMax)}` +
+    (sat !== undefined ? `; the inductor saturates at ${formatAmps(sat)}.` : '.');
+  return (
+    <div className="mt-3" data-plot="current">
+      <svg viewBox={`0 0 ${W} ${H}`} className="mx-auto h-auto w-full max-w-lg" role="img" aria-labelledby={`${id}-t ${id}-d`}>
+        <title id={`${id}-t`}>LED current with ripple against its limits</title>
+        <desc id={`${id}-d`}>{summary}</desc>
+        <RowLabel y={12} text="LED current" />
+        <rect x={x(0)} width={Math.max(2, x(set) - x(0))} y={12} height={16} rx={3} className="fill-sky-600 dark:fill-sky-400" />
+        {peak > set ? (
+          <rect x={x(set)} width={Math.max(2, x(peak) - x(set))} y={12} height={16} className="fill-sky-300 dark:fill-sky-800" data-plot="ripple-peak" />
+        ) : null}
+        <line x1={x(ledMax)} x2={x(ledMax)} y1={6} y2={34} strokeDasharray="4 3" className="stroke-red-700 dark:stroke-red-300" strokeWidth={1.5} />
+        {sat !== undefined ? (
+          <line x1={x(sat)} x2={x(sat)} y1={6} y2={34} strokeDasharray="1 2" className="stroke-stone-900 dark:stroke-white" strokeWidth={1.5} />
+        ) : null}
+        <text x={x(0)} y={50} className="fill-stone-600 text-[11px] dark:fill-stone-400">0</text>
+        <text x={x(top)} y={50} textAnchor="end" className="fill-stone-600 text-[11px] dark:fill-stone-400">
+          {formatAmps(top)}
+        </text>
+      </svg>
+      <ul className="muted mt-1 grid gap-1 text-xs sm:grid-cols-2">
+        <Legend swatch="bg-sky-600 dark:bg-sky-400" text={`set current ${formatAmps(set)}`} />
+        {peak > set ? <Legend swatch="bg-sky-300 dark:bg-sky-800" text={`ripple peak ${formatAmps(peak)} (set + half of ${formatAmps(ripple ?? 2 * (peak - set))})`} /> : null}
+        <Legend swatch="bg-red-700 dark:bg-red-300" text={`LED rating ${formatAmps(ledMax)}`} />
+        {sat !== undefined ? <Legend swatch="bg-stone-900 dark:bg-white" text={`inductor saturation ${formatAmps(sat)}`} /> : null}
+      </ul>
+    </div>
+  );
 }
