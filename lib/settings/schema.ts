@@ -11,6 +11,11 @@ const zoneSet = new Set(TIME_ZONES);
 export const CURRENCIES: readonly string[] = Intl.supportedValuesOf('currency');
 const currencySet = new Set(CURRENCIES);
 
+/** The range the compatibility check accepts for the ambient temperature. */
+export const AMBIENT_MIN_C = -20;
+export const AMBIENT_MAX_C = 60;
+export const DEFAULT_AMBIENT_C = 25;
+
 const whole = (what: string, min: number, max: number) =>
   z
     .number({ error: `a whole number of ${what}` })
@@ -37,6 +42,12 @@ export const settingsSchema = z.object({
   reminderDaysBefore: whole('days', 0, 30),
   reminderEveryDays: whole('days', 1, 30),
   labelLayout: z.enum(LAYOUT_IDS, { error: `one of ${LAYOUT_IDS.join(', ')}` }),
+  /** Air temperature at the bench: where the heat check starts every junction temperature. */
+  ambientC: z
+    .number({ error: 'a temperature in °C' })
+    .finite('a temperature in °C')
+    .min(AMBIENT_MIN_C, `at least ${AMBIENT_MIN_C} °C`)
+    .max(AMBIENT_MAX_C, `at most ${AMBIENT_MAX_C} °C`),
 });
 export type Settings = z.infer<typeof settingsSchema>;
 export type SettingsFormInput = z.input<typeof settingsSchema>;
