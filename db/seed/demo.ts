@@ -71,6 +71,20 @@ const TEMPLATES = [
       ['WIRE-SIL-18R', 1, null],
     ],
   },
+  {
+    // The demo's heat lesson: the check says caution because one small sink carries four stars.
+    name: 'Shelf light, four warm whites',
+    description: 'Four 3 W warm white LEDs at 500 mA sharing one small round heat sink, a 500 mA buck driver and a 24 V wall supply.',
+    cautions: 'One small round sink for four stars runs hot: the check asks for a sink of at most about 7.6 °C/W. Swap in the 60 mm finned sink from the shelf before a long run.',
+    teaching: 'Run it for five minutes and touch the sink with the back of a finger: it gets hot. Then read the heat section of the check, and compare the sink it asks for with the finned sinks on the shelf.',
+    lines: [
+      ['DRV-B500-28', 1, 'driver'],
+      ['LED-3W-WW', 4, 'led'],
+      ['HS-RND-40', 1, null],
+      ['PSU-24V-1A', 1, 'supply'],
+      ['WIRE-TWIN-22', 1, 'wire'],
+    ],
+  },
 ] as const;
 
 /** Seeds the two invented spaces; does nothing when any space exists already. */
