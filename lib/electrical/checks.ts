@@ -26,7 +26,13 @@ export type CheckId =
   | 'led-power'
   | 'supply-current'
   | 'supply-peak'
-  | 'wire-drop';
+  | 'wire-drop'
+  | 'low-voltage-limit'
+  | 'inductor-saturation'
+  | 'typical-current'
+  | 'wire-current-density'
+  | 'led-junction'
+  | 'regulator-junction';
 
 type Direction = 'atMost' | 'atLeast';
 
@@ -46,6 +52,12 @@ export const CHECK_DIRECTION: Record<CheckId, Direction> = {
   'supply-current': 'atMost',
   'supply-peak': 'atMost',
   'wire-drop': 'atMost',
+  'low-voltage-limit': 'atMost',
+  'inductor-saturation': 'atMost',
+  'typical-current': 'atLeast',
+  'wire-current-density': 'atMost',
+  'led-junction': 'atMost',
+  'regulator-junction': 'atMost',
 };
 
 /** Short human titles for the page. */
@@ -64,6 +76,12 @@ export const CHECK_TITLE: Record<CheckId, string> = {
   'supply-current': 'Supply current',
   'supply-peak': 'Supply current during PWM pulses',
   'wire-drop': 'Voltage lost in the wire run',
+  'low-voltage-limit': 'Low-voltage (SELV) limit',
+  'inductor-saturation': 'Inductor saturation current',
+  'typical-current': 'Current with typical LEDs',
+  'wire-current-density': 'Current density in the wire',
+  'led-junction': 'LED junction temperature',
+  'regulator-junction': 'Linear driver junction temperature',
 };
 
 export const VERDICT_RANK: Record<Verdict, number> = { ok: 0, caution: 1, fail: 2 };

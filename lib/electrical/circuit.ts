@@ -12,7 +12,7 @@ export function supplyWindow(supply: Pick<ResolvedSupply, 'volts' | 'tolerancePc
 }
 
 /** Series string: forward voltages add (Kirchhoff's voltage law). */
-export function stringVolts(string: ResolvedString): StringVolts {
+export function stringVolts(string: { count: number; led: Pick<ResolvedString['led'], 'vfMin' | 'vfTyp' | 'vfMax'> }): StringVolts {
   const { count, led } = string;
   return { min: count * led.vfMin, typ: count * led.vfTyp, max: count * led.vfMax };
 }

@@ -5,7 +5,8 @@ import { evaluateKit } from './checkKit';
 import type { KitReport } from './report';
 import { HEAT_SINK_WATTS, LED_POWER_CAUTION_FRACTION } from './thresholds';
 import { supplyWindow } from './circuit';
-import { type ResolvedDriver, type StringSpec, type SupplySpec, kitSpecSchema, stringSpecSchema, supplySpecSchema } from './schema';
+import { type DriverSpec,
+  MAX_VOLTS, type StringSpec, type SupplySpec, kitSpecSchema, stringSpecSchema, supplySpecSchema } from './schema';
 import { designSeriesResistor } from './seriesResistor';
 
 /** A simple linear constant-current stage needs about a volt across it. */
@@ -50,7 +51,7 @@ export function compareTopologies(
   const amps = options.amps ?? defaultDriveAmps(string.led);
   const high = supplyWindow(supply).high;
 
-  const run = (driver: ResolvedDriver) =>
+  const run = (driver: DriverSpec) =>
     evaluateKit(kitSpecSchema.parse({ supply, driver, string, ...(options.pwmDuty !== undefined ? { pwmDuty: options.pwmDuty } : {}) }));
 
   const row = (type: TopologyRow['type'], report: KitReport, driverNote: string): TopologyRow => {
@@ -69,16 +70,19 @@ export function compareTopologies(
     };
   };
 
+  // The generic drivers accept the whole supply window, capped at the schema's bound (a supply above it
+  // fails the low-voltage limit anyway).
+  const maxIn = Math.min(high, MAX_VOLTS);
   const buck = run({
     type: 'buck',
-    minInputVolts: 0,
-    maxInputVolts: high,
+    minInputVolts: Math.min(1, maxIn),
+    maxInputVolts: maxIn,
     outputAmps: amps,
     headroomVolts: 1.5,
     maxDuty: 0.95,
     efficiency: 0.9,
   });
-  const linear = run({ type: 'linear', maxInputVolts: high, outputAmps: amps, dropoutVolts: GENERIC_LINEAR_DROPOUT_VOLTS });
+  const linear = run({ type: 'linear', maxInputVolts: maxIn, outputAmps: amps, dropoutVolts: GENERIC_LINEAR_DROPOUT_VOLTS });
 
   const rows = [
     row('buck', buck, 'a generic buck driver: 90 % efficient, 1.5 V headroom, 95 % maximum duty'),

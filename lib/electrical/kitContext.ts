@@ -3,6 +3,7 @@ import { loopOhms } from './awg';
 import { type Check, type CheckId, type Verdict, makeCheck } from './checks';
 import { type StringVolts, type SupplyWindow, stringVolts, supplyWindow } from './circuit';
 import { ceilTo } from './format';
+import { ledThermal } from './thermal';
 import type { ResolvedKitSpec } from './schema';
 
 export type KitContext = {
@@ -61,5 +62,6 @@ export function ledFigures(ctx: KitContext, peakAmps: number) {
     ledAmpsAvg: avg,
     ledWatts: ctx.spec.string.led.vfTyp * avg,
     outputWatts: sv.typ * avg,
+    ledJunctionC: ledThermal(ctx.spec.string.led.vfMax * avg, ctx.spec.string.count, ctx.spec.string.led, ctx.spec.ambientC, ctx.spec.heatSink).junctionC,
   };
 }

@@ -33,6 +33,7 @@ import {
   supplySpecSchema,
   wiringSpecSchema,
   kitSpecSchema,
+  DEFAULT_AMBIENT_C,
 } from './schema';
 
 export type ShelfSupply = { id: string; supply: SupplySpec };
@@ -134,6 +135,7 @@ function specOf(p: Prepared, supply: ResolvedSupply, driver: ResolvedDriver): Re
     supply,
     driver,
     string: p.string,
+    ambientC: DEFAULT_AMBIENT_C,
     ...(p.pwmDuty !== undefined ? { pwmDuty: p.pwmDuty } : {}),
     ...(p.wiring !== undefined ? { wiring: p.wiring } : {}),
   };

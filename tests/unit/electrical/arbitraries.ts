@@ -4,17 +4,23 @@ import fc from 'fast-check';
 import type { DriverSpec, KitSpec, StringSpec, SupplySpec } from '@/lib/electrical';
 
 const num = (min: number, max: number) => fc.double({ min, max, noNaN: true, noDefaultInfinity: true });
+/** Strictly above `min`: fast-check's minExcluded keeps the schema's open lower bounds out. */
+const above = (min: number, max: number) => fc.double({ min, max, noNaN: true, noDefaultInfinity: true, minExcluded: true });
 
+// `bench`: realistic bench values. `wide`: anywhere inside the schema's bounds, including the tiniest
+// accepted values (subnormals such as 1e-310) and the caps themselves, to shake out overflow and
+// division edge cases.
 export type Range = 'bench' | 'wide';
 const R = {
-  bench: { volts: [0.5, 100], amps: [0.001, 20], small: [0, 10], ohms: [0.1, 10_000], watts: [0.01, 100], vf: [0.5, 12], henries: [1e-7, 1e-2], hz: [1e3, 5e6], len: [0, 100] },
-  wide: { volts: [1e-300, 1e300], amps: [1e-300, 1e300], small: [0, 1e300], ohms: [1e-300, 1e300], watts: [1e-300, 1e300], vf: [1e-300, 1e300], henries: [1e-300, 1e300], hz: [1e-300, 1e300], len: [0, 1e300] },
+  bench: { volts: [0.5, 100], amps: [0.001, 20], small: [0.01, 10], ohms: [0.1, 10_000], watts: [0.01, 100], vf: [0.5, 12], henries: [1e-7, 1e-2], hz: [1e3, 5e6], len: [0.01, 100], tol: [0, 20], th: [0.1, 100], amb: [0, 40] },
+  wide: { volts: [0, 1000], amps: [0, 100], small: [0, 1000], ohms: [0.01, 1e7], watts: [0, 1000], vf: [0, 60], henries: [1e-7, 1], hz: [1e3, 1e7], len: [0, 1000], tol: [0, 50], th: [0, 200], amb: [-20, 60] },
 } as const;
+const pos = (range: Range, r: readonly [number, number]) => (range === 'wide' || r[0] === 0 ? above(r[0], r[1]) : num(r[0], r[1]));
 
 export function supplyArb(range: Range = 'bench'): fc.Arbitrary<SupplySpec> {
   const r = R[range];
   return fc.record(
-    { volts: num(r.volts[0], r.volts[1]), tolerancePct: num(0, 99.9), maxAmps: num(r.amps[0], r.amps[1]) },
+    { volts: pos(range, r.volts), tolerancePct: num(r.tol[0], r.tol[1]), maxAmps: pos(range, r.amps), kind: fc.constant('dc' as const) },
     { requiredKeys: ['volts', 'maxAmps'] },
   );
 }
@@ -24,34 +30,38 @@ export function driverArb(range: Range = 'bench'): fc.Arbitrary<DriverSpec> {
   const buck = fc
     .record(
       {
-        inputs: fc.tuple(num(r.small[0], r.small[1]), num(r.volts[0], r.volts[1])),
-        outputAmps: num(r.amps[0], r.amps[1]),
-        headroomVolts: num(r.small[0], r.small[1]),
-        maxDuty: num(0.01, 1),
-        efficiency: num(0.01, 1),
-        maxOutputVolts: num(r.volts[0], r.volts[1]),
+        inputs: fc.tuple(pos(range, r.small), pos(range, r.volts)),
+        outputAmps: pos(range, r.amps),
+        headroomVolts: pos(range, r.small),
+        maxDuty: above(0, 1),
+        efficiency: above(0, 1),
+        maxOutputVolts: pos(range, r.volts),
         inductorHenries: num(r.henries[0], r.henries[1]),
         switchingHz: num(r.hz[0], r.hz[1]),
+        inductorSatAmps: pos(range, r.amps),
       },
       { requiredKeys: ['inputs', 'outputAmps'] },
     )
     .map(({ inputs, ...rest }): DriverSpec => {
       const [a, b] = inputs;
-      return { type: 'buck', minInputVolts: Math.min(a, b), maxInputVolts: Math.max(a, b, Number.MIN_VALUE), ...rest };
+      return { type: 'buck', minInputVolts: Math.min(a, b), maxInputVolts: Math.max(a, b), ...rest };
     });
   const linear = fc
     .record(
       {
-        maxInputVolts: num(r.volts[0], r.volts[1]),
-        outputAmps: num(r.amps[0], r.amps[1]),
-        dropoutVolts: num(r.small[0], r.small[1]),
-        maxWatts: num(r.watts[0], r.watts[1]),
+        maxInputVolts: pos(range, r.volts),
+        outputAmps: pos(range, r.amps),
+        dropoutVolts: pos(range, r.small),
+        maxWatts: pos(range, r.watts),
+        sinkCPerW: pos(range, r.th),
+        junctionToCaseCPerW: pos(range, r.th),
+        maxJunctionC: num(50, 200),
       },
       { requiredKeys: ['maxInputVolts', 'outputAmps', 'dropoutVolts'] },
     )
     .map((d): DriverSpec => ({ type: 'linear', ...d }));
   const resistor = fc
-    .record({ ohms: num(r.ohms[0], r.ohms[1]), watts: num(r.watts[0], r.watts[1]) })
+    .record({ ohms: num(r.ohms[0], r.ohms[1]), watts: pos(range, r.watts) })
     .map((d): DriverSpec => ({ type: 'resistor', ...d }));
   return fc.oneof(buck, linear, resistor);
 }
@@ -59,15 +69,20 @@ export function driverArb(range: Range = 'bench'): fc.Arbitrary<DriverSpec> {
 export function stringArb(range: Range = 'bench', maxCount = 24): fc.Arbitrary<StringSpec> {
   const r = R[range];
   return fc
-    .record({
-      count: fc.integer({ min: 1, max: maxCount }),
-      vf: fc.tuple(num(r.vf[0], r.vf[1]), num(r.vf[0], r.vf[1]), num(r.vf[0], r.vf[1])),
-      maxAmps: num(r.amps[0], r.amps[1]),
-      maxWatts: num(r.watts[0], r.watts[1]),
-    })
-    .map(({ count, vf, maxAmps, maxWatts }) => {
+    .record(
+      {
+        count: fc.integer({ min: 1, max: range === 'wide' ? 200 : maxCount }),
+        vf: fc.tuple(pos(range, r.vf), pos(range, r.vf), pos(range, r.vf)),
+        maxAmps: pos(range, r.amps),
+        maxWatts: pos(range, r.watts),
+        thermalOhmsJs: pos(range, r.th),
+        maxJunctionC: num(50, 200),
+      },
+      { requiredKeys: ['count', 'vf', 'maxAmps', 'maxWatts'] },
+    )
+    .map(({ count, vf, ...rest }) => {
       const [vfMin, vfTyp, vfMax] = [...vf].sort((a, b) => a - b);
-      return { count, led: { vfMin, vfTyp, vfMax, maxAmps, maxWatts } };
+      return { count, led: { vfMin, vfTyp, vfMax, ...rest } };
     });
 }
 
@@ -78,8 +93,10 @@ export function kitSpecArb(range: Range = 'bench'): fc.Arbitrary<KitSpec> {
       supply: supplyArb(range),
       driver: driverArb(range),
       string: stringArb(range),
-      pwmDuty: num(Number.MIN_VALUE, 1).filter((d) => d > 0),
-      wiring: fc.record({ lengthMeters: num(r.len[0], r.len[1]), awg: fc.integer({ min: -3, max: 40 }) }),
+      pwmDuty: above(0, 1),
+      wiring: fc.record({ lengthMeters: pos(range, r.len), awg: fc.integer({ min: -3, max: 40 }) }),
+      heatSink: fc.record({ count: fc.integer({ min: 1, max: 50 }), cPerW: pos(range, r.th) }),
+      ambientC: num(r.amb[0], r.amb[1]),
     },
     { requiredKeys: ['supply', 'driver', 'string'] },
   );
@@ -89,14 +106,14 @@ export function kitSpecArb(range: Range = 'bench'): fc.Arbitrary<KitSpec> {
 // Breaking a valid spec in one place, for the invalid-input tests (unit and HTTP).
 
 export type Leaf = { path: string[]; atLeastZero: boolean };
-const ZERO_OK = new Set(['tolerancePct', 'minInputVolts', 'headroomVolts', 'dropoutVolts', 'lengthMeters']);
+const ZERO_OK = new Set(['tolerancePct', 'ambientC']);
 
 /** Every numeric field of a spec, with whether zero is allowed there. */
 export function numericLeaves(spec: KitSpec): Leaf[] {
   const out: Leaf[] = [];
   const walk = (o: Record<string, unknown>, path: string[]) => {
     for (const [k, v] of Object.entries(o)) {
-      if (typeof v === 'number' && k !== 'awg') out.push({ path: [...path, k], atLeastZero: ZERO_OK.has(k) });
+      if (typeof v === 'number' && k !== 'awg' && k !== 'ambientC') out.push({ path: [...path, k], atLeastZero: ZERO_OK.has(k) });
       else if (v && typeof v === 'object') walk(v as Record<string, unknown>, [...path, k]);
     }
   };
@@ -141,7 +158,10 @@ export function badValue(kind: BadKind, leaf: Leaf): unknown {
       return OPTIONAL.has(leaf.path[leaf.path.length - 1]) ? -1 : undefined;
   }
 }
-const OPTIONAL = new Set(['tolerancePct', 'headroomVolts', 'maxDuty', 'efficiency', 'maxOutputVolts', 'inductorHenries', 'switchingHz', 'maxWatts', 'pwmDuty']);
+const OPTIONAL = new Set([
+  'tolerancePct', 'headroomVolts', 'maxDuty', 'efficiency', 'maxOutputVolts', 'inductorHenries', 'switchingHz',
+  'maxWatts', 'inductorSatAmps', 'sinkCPerW', 'junctionToCaseCPerW', 'maxJunctionC', 'thermalOhmsJs', 'pwmDuty',
+]);
 
 /** A JSON body that must be refused, and the field the refusal must name. */
 export function malformedBodyArb(): fc.Arbitrary<{ body: string; field: string; what: string }> {

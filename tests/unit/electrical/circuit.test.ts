@@ -45,7 +45,7 @@ describe('supply window and string', () => {
 
   it('series forward voltages add', () => {
     // Kirchhoff's voltage law around a series loop (Horowitz & Hill, The Art of Electronics, ch. 1).
-    const s = stringVolts({ count: 6, led: { vfMin: 2.8, vfTyp: 3.0, vfMax: 3.4, maxAmps: 0.7, maxWatts: 3 } });
+    const s = stringVolts({ count: 6, led: { vfMin: 2.8, vfTyp: 3.0, vfMax: 3.4 } });
     expect(s.min).toBeCloseTo(16.8, 12);
     expect(s.typ).toBeCloseTo(18, 12);
     expect(s.max).toBeCloseTo(20.4, 12);

@@ -82,7 +82,7 @@ const shelfArb = (maxSupplies: number, maxDrivers: number) =>
     drivers: fc.array(driverArb('bench'), { minLength: 0, maxLength: maxDrivers }),
     limit: fc.integer({ min: 1, max: 30 }),
     pwmDuty: fc.option(fc.double({ min: 0.05, max: 1, noNaN: true }), { nil: undefined }),
-    wiring: fc.option(fc.record({ lengthMeters: fc.double({ min: 0, max: 20, noNaN: true }), awg: fc.integer({ min: 10, max: 30 }) }), {
+    wiring: fc.option(fc.record({ lengthMeters: fc.double({ min: 0.01, max: 20, noNaN: true }), awg: fc.integer({ min: 10, max: 30 }) }), {
       nil: undefined,
     }),
   });

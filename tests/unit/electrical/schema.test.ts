@@ -45,7 +45,7 @@ describe('kitSpecSchema defaults (the contract)', () => {
       pwmDuty: 1,
       wiring: { lengthMeters: 2, awg: 20 },
     };
-    expect(kitSpecSchema.parse(full)).toEqual(full);
+    expect(kitSpecSchema.parse(full)).toMatchObject(full);
   });
 
   it('allows equal forward voltages and a duty of exactly 1', () => {
