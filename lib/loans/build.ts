@@ -42,6 +42,13 @@ export function ownPartLines(own: OwnParts | null | undefined, tag: string, fres
   if (own.supply) lines.push(line('supply', `your own ${own.supply.volts} V supply`, own.supply));
   if (own.driver) lines.push(line('driver', `your own ${own.driver.type} driver`, own.driver));
   if (own.string) lines.push(line('led', 'your own LEDs', own.string.led, own.string.count));
+  if (own.heatSink)
+    lines.push({
+      ...line('wire', `your own heat sinks (${own.heatSink.cPerW} °C/W)`, { celsiusPerWatt: own.heatSink.cPerW }, own.heatSink.count),
+      partId: `own:${tag}:heat_sink`,
+      category: 'heat_sink',
+      chainRole: null,
+    });
   return lines;
 }
 

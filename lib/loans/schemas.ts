@@ -44,10 +44,12 @@ export const ownPartsSchema = z
     supply: kitSpecSchema.shape.supply.optional(),
     driver: kitSpecSchema.shape.driver.optional(),
     string: kitSpecSchema.shape.string.optional(),
+    /** The sinks the borrower's LEDs sit on, when they bring their own. */
+    heatSink: kitSpecSchema.shape.heatSink,
   })
   .strict()
-  .refine((o) => o.supply || o.driver || o.string, {
-    error: 'describe at least one part (supply, driver or string)',
+  .refine((o) => o.supply || o.driver || o.string || o.heatSink, {
+    error: 'describe at least one part (supply, driver, string or heatSink)',
     path: ['supply'],
   });
 export type OwnParts = z.output<typeof ownPartsSchema>;

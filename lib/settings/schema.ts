@@ -1,5 +1,6 @@
 import { z } from 'zod';
 import { LAYOUT_IDS } from '@/labels/layouts';
+import { MAX_AMBIENT_C, MIN_AMBIENT_C } from '@/lib/electrical';
 
 // The rules a space runs by. One schema for the form, the route handler and the service.
 
@@ -11,10 +12,9 @@ const zoneSet = new Set(TIME_ZONES);
 export const CURRENCIES: readonly string[] = Intl.supportedValuesOf('currency');
 const currencySet = new Set(CURRENCIES);
 
-/** The range the compatibility check accepts for the ambient temperature. */
-export const AMBIENT_MIN_C = -20;
-export const AMBIENT_MAX_C = 60;
-export const DEFAULT_AMBIENT_C = 25;
+/** The range the compatibility check accepts for the ambient temperature (one source: the check). */
+export const AMBIENT_MIN_C = MIN_AMBIENT_C;
+export const AMBIENT_MAX_C = MAX_AMBIENT_C;
 
 const whole = (what: string, min: number, max: number) =>
   z
