@@ -4,7 +4,7 @@ import { buck } from './buck';
 import { worst } from './checks';
 import { kitContext } from './kitContext';
 import { linear } from './linear';
-import type { KitReport } from './report';
+import type { KitFigures, KitReport } from './report';
 import { resistor } from './resistor';
 import { type KitSpec, type ResolvedKitSpec, kitSpecSchema } from './schema';
 
@@ -23,5 +23,21 @@ export function evaluateKit(spec: ResolvedKitSpec, options: { messages?: boolean
   const ctx = kitContext(spec, options.messages ?? true);
   const d = spec.driver;
   const { checks, figures } = d.type === 'buck' ? buck(ctx, d) : d.type === 'linear' ? linear(ctx, d) : resistor(ctx, d);
-  return { verdict: worst(checks.map((c) => c.verdict)), checks, figures };
+  return {
+    verdict: worst(checks.map((c) => c.verdict)),
+    checks: checks.map((c) => ({ ...c, value: finite(c.value), limit: finite(c.limit) })),
+    figures: Object.fromEntries(Object.entries(figures).map(([k, v]) => [k, finite(v)])) as KitFigures,
+  };
+}
+
+/**
+ * The bounds keep bench-sized inputs far from overflow, but the smallest accepted numbers (subnormals
+ * such as 1e-310) can still divide to ±Infinity or 0/0. The verdicts are decided before this (NaN
+ * fails every check); the report then carries the nearest finite number, so JSON never holds null.
+ */
+export function finite(x: number): number {
+  if (Number.isNaN(x)) return 0;
+  if (x === Infinity) return Number.MAX_VALUE;
+  if (x === -Infinity) return -Number.MAX_VALUE;
+  return x;
 }

@@ -108,19 +108,35 @@ export function checkMargin(check: Pick<Check, 'id' | 'value' | 'limit'>): numbe
 }
 
 /**
+ * Comparisons allow a relative tolerance of 1e-9, so a value that equals its limit on paper (3 × 3.2 V is
+ * 9.600000000000001 in binary floating point) sits on the limit's passing side.
+ */
+export const RELATIVE_TOLERANCE = 1e-9;
+
+/** value is above limit by more than the tolerance. */
+export function isAbove(value: number, limit: number): boolean {
+  return value > limit + RELATIVE_TOLERANCE * Math.abs(limit);
+}
+
+/** value is below limit by more than the tolerance. */
+export function isBelow(value: number, limit: number): boolean {
+  return value < limit - RELATIVE_TOLERANCE * Math.abs(limit);
+}
+
+/**
  * Verdict for a value that must stay at or under `failAbove`, with a caution band starting at
- * `cautionAbove` (a value exactly on a threshold is still on the good side).
+ * `cautionAbove` (a value on a threshold, within the tolerance, is still on the good side).
  */
 export function verdictAtMost(value: number, failAbove: number, cautionAbove = failAbove): Verdict {
-  if (Number.isNaN(value) || value > failAbove) return 'fail';
-  if (value > cautionAbove) return 'caution';
+  if (Number.isNaN(value) || isAbove(value, failAbove)) return 'fail';
+  if (isAbove(value, cautionAbove)) return 'caution';
   return 'ok';
 }
 
 /** Verdict for a value that must reach `okFrom`; below `failUnder` it fails. */
 export function verdictAtLeast(value: number, failUnder: number, okFrom = failUnder): Verdict {
-  if (Number.isNaN(value) || value < failUnder) return 'fail';
-  if (value < okFrom) return 'caution';
+  if (Number.isNaN(value) || isBelow(value, failUnder)) return 'fail';
+  if (isBelow(value, okFrom)) return 'caution';
   return 'ok';
 }
 

@@ -67,3 +67,20 @@ export function constantPowerInputVolts(
   const drop = (sourceVolts * x) / (2 * (1 + Math.sqrt(1 - x)));
   return { volts: sourceVolts - drop, collapsed: false };
 }
+
+/**
+ * What a constant-power load (a switching driver) draws through a wire of `ohms` from `sourceVolts`:
+ * the physical (smaller-current) root of I × (Vs − I × R) = P, and the voltage left at the load.
+ * No real root ("collapsed"): the figures are those at the most the wire can deliver, I = Vs / 2R.
+ */
+export function constantPowerDraw(
+  sourceVolts: number,
+  ohms: number,
+  watts: number,
+): { amps: number; volts: number; collapsed: boolean } {
+  const { volts, collapsed } = constantPowerInputVolts(sourceVolts, ohms, watts);
+  if (collapsed) return { amps: sourceVolts / (2 * ohms), volts, collapsed };
+  // 0 / 0 only when both the power and the voltage underflow to zero: then nothing flows.
+  const amps = volts > 0 ? watts / volts : 0;
+  return { amps, volts, collapsed };
+}

@@ -1,12 +1,31 @@
 // Buck vs linear vs series resistor for the same string on the same supply, each run through the
-// full check with a generic driver of that kind, so the comparison uses the same rules as a real build.
-import type { Verdict } from './checks';
+// full check (evaluateKit) with a generic driver of that kind, so the comparison uses the same rules as
+// a real build. Each row says in a few words why it stands where it does.
+import { z } from 'zod';
+import { VERDICT_RANK, type Verdict } from './checks';
 import { evaluateKit } from './checkKit';
+import { formatPercent, formatWatts } from './format';
 import type { KitReport } from './report';
 import { HEAT_SINK_WATTS, LED_POWER_CAUTION_FRACTION } from './thresholds';
 import { supplyWindow } from './circuit';
-import { type DriverSpec,
-  MAX_VOLTS, type StringSpec, type SupplySpec, kitSpecSchema, stringSpecSchema, supplySpecSchema } from './schema';
+import {
+  type DriverSpec,
+  type HeatSinkSpec,
+  type StringSpec,
+  type SupplySpec,
+  type WiringSpec,
+  MAX_AMPS,
+  MAX_OHMS,
+  MAX_VOLTS,
+  MIN_OHMS,
+  ambientCSchema,
+  heatSinkSpecSchema,
+  kitSpecSchema,
+  pwmDutySchema,
+  stringSpecSchema,
+  supplySpecSchema,
+  wiringSpecSchema,
+} from './schema';
 import { designSeriesResistor } from './seriesResistor';
 
 /** A simple linear constant-current stage needs about a volt across it. */
@@ -33,26 +52,41 @@ export type TopologyRow = {
   partsNote: string;
   /** How the generic driver was chosen. */
   driverNote: string;
+  /** 1 for the one a bench would build: passing first, then least heat, then fewest parts. */
+  rank: number;
+  /** Why it stands where it does, in a few words. */
+  reason: string;
   report: KitReport | null;
 };
 
-/** When no current is given: 70 % of the most the LED allows by current or by power. */
-export function defaultDriveAmps(led: { vfTyp: number; maxAmps: number; maxWatts: number }): number {
-  return LED_POWER_CAUTION_FRACTION * Math.min(led.maxAmps, led.maxWatts / led.vfTyp);
+/** The optional inputs of the comparison, validated with the same bounds as the check (paths as named here). */
+export const compareOptionsSchema = z.object({
+  amps: z
+    .number({ error: 'Drive current must be a number' })
+    .gt(0, { error: 'Drive current must be greater than 0 A' })
+    .lte(MAX_AMPS, { error: `Drive current cannot be more than ${MAX_AMPS} A` })
+    .optional(),
+  pwmDuty: pwmDutySchema.optional(),
+  wiring: wiringSpecSchema.optional(),
+  heatSink: heatSinkSpecSchema.optional(),
+  ambientC: ambientCSchema.optional(),
+});
+export type CompareOptions = { amps?: number; pwmDuty?: number; wiring?: WiringSpec; heatSink?: HeatSinkSpec; ambientC?: number };
+
+/** When no current is given: 70 % of the most the LED allows by current or by worst-case power. */
+export function defaultDriveAmps(led: { vfMax: number; maxAmps: number; maxWatts: number }): number {
+  return LED_POWER_CAUTION_FRACTION * Math.min(led.maxAmps, led.maxWatts / led.vfMax);
 }
 
-export function compareTopologies(
-  stringSpec: StringSpec,
-  supplySpec: SupplySpec,
-  options: { amps?: number; pwmDuty?: number } = {},
-): TopologyRow[] {
+export function compareTopologies(stringSpec: StringSpec, supplySpec: SupplySpec, options: CompareOptions = {}): TopologyRow[] {
   const string = stringSpecSchema.parse(stringSpec);
   const supply = supplySpecSchema.parse(supplySpec);
-  const amps = options.amps ?? defaultDriveAmps(string.led);
+  const opts = compareOptionsSchema.parse(options);
+  const amps = opts.amps ?? defaultDriveAmps(string.led);
   const high = supplyWindow(supply).high;
+  const { amps: _amps, ...extras } = opts;
 
-  const run = (driver: DriverSpec) =>
-    evaluateKit(kitSpecSchema.parse({ supply, driver, string, ...(options.pwmDuty !== undefined ? { pwmDuty: options.pwmDuty } : {}) }));
+  const run = (driver: DriverSpec) => evaluateKit(kitSpecSchema.parse({ supply, driver, string, ...extras }));
 
   const row = (type: TopologyRow['type'], report: KitReport, driverNote: string): TopologyRow => {
     const heat = report.figures.lossWatts;
@@ -66,6 +100,8 @@ export function compareTopologies(
       parts: PART_COUNT[type] + (heat > HEAT_SINK_WATTS ? 1 : 0),
       partsNote: PARTS_NOTE[type] + (heat > HEAT_SINK_WATTS ? ', plus a heat sink' : ''),
       driverNote,
+      rank: 0,
+      reason: '',
       report,
     };
   };
@@ -86,11 +122,12 @@ export function compareTopologies(
 
   const rows = [
     row('buck', buck, 'a generic buck driver: 90 % efficient, 1.5 V headroom, 95 % maximum duty'),
-    row('linear', linear, `a generic linear driver with ${GENERIC_LINEAR_DROPOUT_VOLTS.toFixed(1)} V dropout`),
+    row('linear', linear, `a generic linear driver with ${GENERIC_LINEAR_DROPOUT_VOLTS.toFixed(1)} V dropout, no heat sink`),
   ];
 
   const design = designSeriesResistor({ string, supply, amps });
-  if (!design.feasible) {
+  const ohms = design.feasible ? design.ohms : NaN;
+  if (!design.feasible || !(ohms >= MIN_OHMS && ohms <= MAX_OHMS)) {
     rows.push({
       type: 'resistor',
       verdict: 'fail',
@@ -100,13 +137,41 @@ export function compareTopologies(
       supplyAmps: 0,
       parts: PART_COUNT.resistor,
       partsNote: PARTS_NOTE.resistor,
-      driverNote: design.reason,
+      driverNote: design.feasible ? 'the resistor this current needs is outside 0.01 Ω – 10 MΩ' : design.reason,
+      rank: 0,
+      reason: '',
       report: null,
     });
   } else {
     const watts = design.wattageToBuy ?? 50;
-    const report = run({ type: 'resistor', ohms: design.ohms, watts });
-    rows.push(row('resistor', report, `a resistor of ${design.ohms} Ω (${design.series}), rated ${watts} W`));
+    const report = run({ type: 'resistor', ohms, watts });
+    rows.push(row('resistor', report, `a resistor of ${ohms} Ω (${design.series}), rated ${watts} W`));
+  }
+  return rankRows(rows);
+}
+
+/**
+ * How a bench chooses between topologies that all light the LEDs: a passing build first; among those,
+ * the one that wastes least heat (it needs no heat sink and the supply does less work), then fewer parts.
+ */
+function rankRows(rows: TopologyRow[]): TopologyRow[] {
+  const order = [...rows].sort(
+    (a, b) => VERDICT_RANK[a.verdict] - VERDICT_RANK[b.verdict] || a.heatWatts - b.heatWatts || a.parts - b.parts,
+  );
+  for (const r of rows) {
+    r.rank = order.indexOf(r) + 1;
+    r.reason = reasonFor(r);
   }
   return rows;
+}
+
+function reasonFor(r: TopologyRow): string {
+  if (!r.report) return r.driverNote;
+  if (r.verdict === 'fail') {
+    const failed = r.report.checks.filter((c) => c.verdict === 'fail').map((c) => c.id);
+    return `fails: ${failed.join(', ')}`;
+  }
+  const heat = r.heatWatts > HEAT_SINK_WATTS ? `wastes ${formatWatts(r.heatWatts)} (needs a heat sink)` : `wastes ${formatWatts(r.heatWatts)}`;
+  const caution = r.verdict === 'caution' ? ', with cautions' : '';
+  return `${formatPercent(r.efficiency)} efficient, ${heat}, ${r.parts} part${r.parts === 1 ? '' : 's'}${caution}`;
 }

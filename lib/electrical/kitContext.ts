@@ -1,9 +1,8 @@
 // What every check of one kit shares: the parsed spec and the quantities derived from it once.
-import { loopOhms } from './awg';
+import { awgAreaMm2, loopOhms } from './awg';
 import { type Check, type CheckId, type Verdict, makeCheck } from './checks';
 import { type StringVolts, type SupplyWindow, stringVolts, supplyWindow } from './circuit';
 import { ceilTo } from './format';
-import { ledThermal } from './thermal';
 import type { ResolvedKitSpec } from './schema';
 
 export type KitContext = {
@@ -16,6 +15,8 @@ export type KitContext = {
   pwm: number;
   /** Out-and-back resistance of the wire run, 0 without one. */
   wireOhms: number;
+  /** Conductor area of the wire run, mm² (ASTM B258 diameter); undefined without one. */
+  wireAreaMm2?: number;
   /** Whether to write the messages (ranking thousands of pairs skips them until the winners are known). */
   words: boolean;
 };
@@ -28,6 +29,7 @@ export function kitContext(spec: ResolvedKitSpec, words: boolean): KitContext {
     sv: stringVolts(spec.string),
     pwm: spec.pwmDuty ?? 1,
     wireOhms: spec.wiring ? loopOhms(spec.wiring.lengthMeters, spec.wiring.awg) : 0,
+    ...(spec.wiring ? { wireAreaMm2: awgAreaMm2(spec.wiring.awg) } : {}),
     words,
   };
 }
@@ -48,20 +50,4 @@ export function check(
 /** Nominal supply whose low end, after `drop` in the wire, still reaches `atDriver`. */
 export function supplyForLowEnd(ctx: KitContext, atDriver: number, drop: number): number {
   return ceilTo((atDriver + drop) / (1 - ctx.tol), 0.1);
-}
-
-/** The figures every driver type reports the same way, from the LED current it sets (before PWM). */
-export function ledFigures(ctx: KitContext, peakAmps: number) {
-  const { sv, pwm } = ctx;
-  const avg = pwm * peakAmps;
-  return {
-    stringVoltsMin: sv.min,
-    stringVoltsTyp: sv.typ,
-    stringVoltsMax: sv.max,
-    ledAmpsPeak: peakAmps,
-    ledAmpsAvg: avg,
-    ledWatts: ctx.spec.string.led.vfTyp * avg,
-    outputWatts: sv.typ * avg,
-    ledJunctionC: ledThermal(ctx.spec.string.led.vfMax * avg, ctx.spec.string.count, ctx.spec.string.led, ctx.spec.ambientC, ctx.spec.heatSink).junctionC,
-  };
 }

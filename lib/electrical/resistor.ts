@@ -1,68 +1,94 @@
 // Series resistor: the simplest current limit, and the one most sensitive to supply and LED spread.
-import type { Check } from './checks';
-import { verdictAtLeast, verdictAtMost } from './checks';
+import type { Check, Verdict } from './checks';
+import { isAbove, verdictAtMost } from './checks';
 import { resistorAmps } from './circuit';
 import { nearestAtOrAbove, wattageAtOrAbove } from './eSeries';
-import { formatAmps, formatSi, formatWatts } from './format';
-import { type KitContext, check, ledFigures } from './kitContext';
+import { formatAmps, formatPair, formatSi, formatVolts, formatWatts } from './format';
+import { type KitContext, check } from './kitContext';
 import type { DriverPart } from './report';
 import type { ResolvedResistor } from './schema';
-import { headroom, ledPower, supplyCurrent, supplyPeak, wireDrop } from './sharedChecks';
-import { RESISTOR_DERATING_FRACTION, RESISTOR_SPREAD_CAUTION_FRACTION } from './thresholds';
+import { ledCurrent, ledJunction, ledPower, lowVoltageLimit, supplyCurrent, wireCurrentDensity, wireDrop } from './sharedChecks';
+import { RESISTOR_DERATING_FRACTION } from './thresholds';
+
+/**
+ * Rule 4 for a resistor: the LED power vf × (V − N × vf) / R is largest at one of the forward-voltage
+ * corners we know; take the largest of the three at the supply's high end.
+ */
+export function resistorLedWatts(vHigh: number, count: number, vfs: number[], ohms: number): number {
+  return Math.max(...vfs.map((vf) => vf * resistorAmps(vHigh, count * vf, ohms)));
+}
 
 export function resistor(ctx: KitContext, d: ResolvedResistor): DriverPart {
   const { supply, sv, pwm, spec } = ctx;
+  const led = spec.string.led;
   // The wire run is part of the series loop, so it adds to the resistance.
   const loop = d.ohms + ctx.wireOhms;
-  const ampsTyp = resistorAmps(supply.nominal, sv.typ, loop);
+  // Rule 9: typical current at the nominal supply; the worst corner (supply high, LEDs at vfMin).
+  const ampsTyp = (supply.nominal - sv.typ) / loop;
   const ampsMax = resistorAmps(supply.high, sv.min, loop);
-  const ampsLow = resistorAmps(supply.low, sv.max, loop);
-  const dropLow = ctx.wireOhms * ampsLow;
-  const vLow = supply.low - dropLow;
-  const heatMax = pwm * ampsMax * ampsMax * d.ohms;
-  const efficiency = Math.min(1, sv.typ / supply.nominal);
-  const leds = ledFigures(ctx, ampsTyp);
+  const heat = ampsMax * ampsMax * d.ohms;
+  const ledWatts = pwm * resistorLedWatts(supply.high, spec.string.count, [led.vfMin, led.vfTyp, led.vfMax], loop);
+  const drop = ctx.wireOhms * ampsMax;
+  const avg = pwm * ampsMax;
 
   const checks: Check[] = [
-    headroom(ctx, vLow, dropLow, 0, null),
-    resistorPower(ctx, heatMax, d.watts),
-    resistorSpread(ctx, ampsLow, ampsTyp, ampsMax),
-    ledCurrentWorstCorner(ctx, ampsMax),
-    ledPower(ctx, ampsMax),
-    supplyCurrent(ctx, pwm * ampsMax),
+    lowVoltageLimit(ctx),
+    typicalCurrent(ctx, ampsTyp),
+    ledCurrent(ctx, ampsMax, 'At worst (supply high, low-Vf LEDs) the resistor lets', resistorAdvice(ctx, loop)),
+    resistorPower(ctx, heat, d.watts),
+    ledPower(ctx, ledWatts, led.maxWatts / led.vfMax),
+    supplyCurrent(ctx, avg),
   ];
-  if (spec.pwmDuty !== undefined) checks.push(supplyPeak(ctx, ampsMax));
   if (spec.wiring)
     checks.push(
-      wireDrop(ctx, ctx.wireOhms * ampsMax, false, (ohms) => ohms * resistorAmps(supply.high, sv.min, d.ohms + ohms)),
+      wireDrop(ctx, drop, false, (ohms) => ohms * resistorAmps(supply.high, sv.min, d.ohms + ohms)),
+      wireCurrentDensity(ctx, ampsMax),
     );
+  const junction = ledJunction(ctx, ledWatts);
+  checks.push(junction.check);
 
   return {
     checks,
     figures: {
-      ...leds,
-      inputWatts: leds.outputWatts / efficiency,
-      supplyAmps: leds.ledAmpsAvg,
-      lossWatts: heatMax,
-      efficiency,
+      stringVoltsMin: sv.min,
+      stringVoltsTyp: sv.typ,
+      stringVoltsMax: sv.max,
+      ledAmpsPeak: ampsMax,
+      ledAmpsAvg: avg,
+      ledWatts,
+      outputWatts: spec.string.count * ledWatts,
+      inputWatts: supply.high * avg,
+      supplyAmps: avg,
+      lossWatts: pwm * heat,
+      efficiency: Math.min(1, sv.typ / supply.nominal),
       resistorAmpsMax: ampsMax,
-      ...(spec.wiring ? { wireDropVolts: ctx.wireOhms * ampsMax } : {}),
+      ...(spec.wiring ? { wireDropVolts: drop } : {}),
+      ledJunctionC: junction.thermal.junctionC,
+      ...(junction.thermal.sinkC !== undefined ? { sinkC: junction.thermal.sinkC } : {}),
+      ...(junction.thermal.sinkCPerWNeeded !== undefined ? { sinkCPerWNeeded: junction.thermal.sinkCPerWNeeded } : {}),
     },
   };
 }
 
-function ledCurrentWorstCorner(ctx: KitContext, ampsMax: number): Check {
+function resistorAdvice(ctx: KitContext, loop: number): string {
   const { maxAmps } = ctx.spec.string.led;
-  const verdict = verdictAtMost(ampsMax, maxAmps);
-  return check(ctx, 'led-current', verdict, ampsMax, maxAmps, 'A', () => {
-    const through = `At worst (supply high, low-Vf LEDs) the resistor lets ${formatAmps(ampsMax)} through`;
-    if (verdict === 'ok') return `${through}, within the LED's ${formatAmps(maxAmps)} rating.`;
-    const neededOhms = (ctx.supply.high - ctx.sv.min) / maxAmps - ctx.wireOhms;
-    const advice =
-      neededOhms > 0 && Number.isFinite(neededOhms)
-        ? `Use at least ${formatSi(nearestAtOrAbove(neededOhms), 'Ω')} (next E24 value up).`
-        : 'Use a constant-current driver instead.';
-    return `${through}, above the LED's ${formatAmps(maxAmps)} rating. ${advice}`;
+  const neededOhms = (ctx.supply.high - ctx.sv.min) / maxAmps - (loop - (ctx.spec.driver as ResolvedResistor).ohms);
+  return neededOhms >= 0.01 && neededOhms <= 1e7
+    ? `Use at least ${formatSi(nearestAtOrAbove(neededOhms), 'Ω')} (next E24 value up).`
+    : 'Use a constant-current driver instead.';
+}
+
+/** Rule 9: with typical LEDs at the nominal supply some current must flow, or the LEDs stay dark. */
+function typicalCurrent(ctx: KitContext, ampsTyp: number): Check {
+  const { supply, sv } = ctx;
+  // Compared as voltages, with the tolerance: a supply equal to N × Vf,typ gives no current → fail.
+  const verdict: Verdict = isAbove(supply.nominal, sv.typ) ? 'ok' : 'fail';
+  const value = verdict === 'fail' ? Math.min(0, ampsTyp) : ampsTyp;
+  return check(ctx, 'typical-current', verdict, value, 0, 'A', () => {
+    const [v, l] = formatPair(supply.nominal, sv.typ, 'V');
+    return verdict === 'ok'
+      ? `With typical LEDs the resistor passes ${formatAmps(ampsTyp)} at the nominal ${v}.`
+      : `The nominal supply (${v}) is not above the typical string voltage (${l}): typical LEDs stay dark or barely glow. Use a supply of at least ${formatVolts(sv.max + 1)}, or fewer LEDs.`;
   });
 }
 
@@ -72,19 +98,11 @@ function resistorPower(ctx: KitContext, heat: number, rating: number): Check {
     const buy = wattageAtOrAbove(heat / RESISTOR_DERATING_FRACTION);
     const advice =
       buy !== null ? `Use a resistor rated ${formatWatts(buy)} or more.` : 'That is too much heat for a resistor: use a constant-current driver.';
-    if (verdict === 'ok') return `The resistor dissipates at most ${formatWatts(heat)}, no more than half its ${formatWatts(rating)} rating.`;
+    const [v, l] = formatPair(heat, rating, 'W');
+    if (verdict === 'ok') return `The resistor dissipates at most ${v}, no more than half its ${l} rating.`;
     if (verdict === 'caution')
-      return `The resistor dissipates up to ${formatWatts(heat)}, more than half its ${formatWatts(rating)} rating, so it will run hot. ${advice}`;
-    return `The resistor would dissipate up to ${formatWatts(heat)}, above its ${formatWatts(rating)} rating. ${advice}`;
+      return `The resistor dissipates up to ${v}, more than half its ${l} rating, so it will run hot. ${advice}`;
+    return `The resistor would dissipate up to ${v}, above its ${l} rating. ${advice}`;
   });
 }
 
-function resistorSpread(ctx: KitContext, ampsLow: number, ampsTyp: number, ampsMax: number): Check {
-  const limit = RESISTOR_SPREAD_CAUTION_FRACTION * ampsTyp;
-  const verdict = verdictAtLeast(ampsLow, -Infinity, limit);
-  return check(ctx, 'resistor-spread', verdict, ampsLow, limit, 'A', () =>
-    verdict === 'ok'
-      ? `Across the supply and LED spread the current stays between ${formatAmps(ampsLow)} and ${formatAmps(ampsMax)}.`
-      : `At the supply's low end with high-Vf LEDs the current falls to ${formatAmps(ampsLow)}, under half the typical ${formatAmps(ampsTyp)}, so brightness will vary. More supply headroom or a constant-current driver evens it out.`,
-  );
-}

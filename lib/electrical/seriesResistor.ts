@@ -3,7 +3,7 @@
 import { RESISTOR_DERATING_FRACTION } from './thresholds';
 import { resistorAmps, stringVolts, supplyWindow } from './circuit';
 import { SERIES, type ESeriesName, nearestAtOrAbove, wattageAtOrAbove } from './eSeries';
-import { type StringSpec, type SupplySpec, stringSpecSchema, supplySpecSchema } from './schema';
+import { MAX_OHMS, type StringSpec, type SupplySpec, stringSpecSchema, supplySpecSchema } from './schema';
 
 export type SeriesResistorDesign =
   | { feasible: false; reason: string }
@@ -41,6 +41,8 @@ export function designSeriesResistor(input: {
   if (!(spare > 0))
     return { feasible: false, reason: 'The supply is not above the string’s typical voltage, so no resistor can work.' };
   const ohmsExact = spare / input.amps;
+  if (!(ohmsExact <= MAX_OHMS))
+    return { feasible: false, reason: 'The resistor this current needs is above 10 MΩ: the current is too small to set with a resistor.' };
   const ohms = nearestAtOrAbove(ohmsExact, SERIES[series]);
   const ampsTyp = resistorAmps(w.nominal, sv.typ, ohms);
   const ampsMax = resistorAmps(w.high, sv.min, ohms);

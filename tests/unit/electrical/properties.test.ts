@@ -31,19 +31,38 @@ describe('properties of checkKit', () => {
     );
   });
 
-  it('raising the supply voltage never makes the headroom verdict worse', () => {
+  it('raising the supply voltage never makes the headroom verdict worse (resistor: the typical current)', () => {
     fc.assert(
       fc.property(
-        kitSpecArb('bench'),
-        fc.array(fc.double({ min: 0.1, max: 200, noNaN: true }), { minLength: 2, maxLength: 12 }),
+        fc.oneof(kitSpecArb('bench'), kitSpecArb('wide')),
+        fc.array(fc.double({ min: Number.MIN_VALUE, max: 1000, noNaN: true }), { minLength: 2, maxLength: 12 }),
         (spec, volts) => {
+          const id = spec.driver.type === 'resistor' ? 'typical-current' : 'headroom';
           const ranks = [...volts]
             .sort((a, b) => a - b)
-            .map((v) => RANK[checkOf(checkKit({ ...spec, supply: { ...spec.supply, volts: v } }), 'headroom').verdict]);
+            .map((v) => RANK[checkOf(checkKit({ ...spec, supply: { ...spec.supply, volts: v } }), id).verdict]);
           for (let i = 1; i < ranks.length; i++) expect(ranks[i]).toBeLessThanOrEqual(ranks[i - 1]);
         },
       ),
       { numRuns: 500 },
+    );
+  });
+
+  it('no accepted input puts NaN, ±Infinity or null anywhere in the report', () => {
+    fc.assert(
+      fc.property(fc.oneof(kitSpecArb('bench'), kitSpecArb('wide')), (spec) => {
+        const r = checkKit(spec);
+        const numbers: number[] = [];
+        const walk = (v: unknown) => {
+          if (typeof v === 'number') numbers.push(v);
+          else if (v === null) numbers.push(Number.NaN);
+          else if (typeof v === 'object') Object.values(v as object).forEach(walk);
+        };
+        walk(r);
+        expect(numbers.every(Number.isFinite)).toBe(true);
+        expect(JSON.stringify(r)).not.toContain('null');
+      }),
+      { numRuns: 3000 },
     );
   });
 

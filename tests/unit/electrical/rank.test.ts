@@ -28,7 +28,7 @@ const DRIVERS: ShelfDriver[] = [
 ];
 
 describe('what works with this string', () => {
-  it('ranks only passing pairs, ok before caution, best margin first', () => {
+  it('ranks only passing pairs, ok before caution, then drive, supply use and margin', () => {
     const { candidates } = rankCandidates({ string: STRING, supplies: SUPPLIES, drivers: DRIVERS, limit: 50 });
     expect(candidates.length).toBeGreaterThan(0);
     for (const c of candidates) {
@@ -42,8 +42,13 @@ describe('what works with this string', () => {
     }
     const rank = candidates.map((c) => (c.verdict === 'ok' ? 0 : 1));
     expect([...rank].sort()).toEqual(rank);
-    for (let i = 1; i < candidates.length; i++)
-      if (candidates[i].verdict === candidates[i - 1].verdict) expect(candidates[i].margin).toBeLessThanOrEqual(candidates[i - 1].margin);
+    for (let i = 1; i < candidates.length; i++) {
+      const [a, b] = [candidates[i - 1], candidates[i]];
+      if (a.verdict !== b.verdict) continue;
+      expect(b.drive).toBeLessThanOrEqual(a.drive);
+      if (a.drive === b.drive) expect(b.supplyUse).toBeLessThanOrEqual(a.supplyUse);
+      if (a.drive === b.drive && a.supplyUse === b.supplyUse) expect(b.margin).toBeLessThanOrEqual(a.margin);
+    }
     const ids = candidates.map((c) => `${c.supplyId}+${c.driverId}`);
     // 12 V cannot light an 18 V string; 48 V exceeds every driver here; 1 A exceeds the LED's 700 mA
     expect(ids.some((x) => x.startsWith('s12+') || x.startsWith('s48+'))).toBe(false);
@@ -51,6 +56,48 @@ describe('what works with this string', () => {
     // 24 V / 350 mA buck is the everyday answer (caution on duty at worst case); 28 V clears it
     expect(ids).toContain('s28+b350-36');
     expect(candidates[0].verdict).toBe('ok');
+    for (const c of candidates) expect(c.reason).toMatch(/drives the LEDs at .* of their rating; uses \d+ % of the supply's current/);
+  });
+
+  it('prefers the driver nearest the LEDs’ rated current: a free 700 mA driver before 350 mA ones', () => {
+    // LEDs rated 1 A and 4 W on one shared 2 °C/W heat sink (700 mA at vfMax 3.4 V is 2.38 W, under the
+    // 70 % line of 2.8 W; the junction stays near 63 °C).
+    const led = { vfMin: 2.8, vfTyp: 3.0, vfMax: 3.4, maxAmps: 1, maxWatts: 4 };
+    const drivers: ShelfDriver[] = [
+      { id: 'a-350', driver: { type: 'buck', minInputVolts: 6, maxInputVolts: 36, outputAmps: 0.35 } },
+      { id: 'b-350', driver: { type: 'buck', minInputVolts: 6, maxInputVolts: 36, outputAmps: 0.35 } },
+      { id: 'z-700', driver: { type: 'buck', minInputVolts: 6, maxInputVolts: 36, outputAmps: 0.7 } },
+    ];
+    const supplies: ShelfSupply[] = [{ id: 's24', supply: { volts: 24, maxAmps: 5 } }];
+    const { candidates } = rankCandidates({ string: { count: 3, led }, supplies, drivers, heatSink: { count: 1, cPerW: 2 } });
+    expect(candidates.map((c) => c.driverId)).toEqual(['z-700', 'a-350', 'b-350']);
+    expect(candidates[0].verdict).toBe('ok');
+    // the 350 mA ones pass too, but light the LEDs at a third of their rating
+    expect(candidates[1].verdict).toBe('ok');
+    expect(candidates[1].drive).toBeCloseTo(0.35, 12);
+    expect(candidates[0].drive).toBeCloseTo(0.7, 12);
+    expect(candidates[0].reason).toContain('700 mA, 70 % of their rating');
+  });
+
+  it('uses the supply sensibly: a well-matched supply before the shelf’s biggest', () => {
+    const supplies: ShelfSupply[] = [
+      { id: 'big', supply: { volts: 24, maxAmps: 20 } },
+      { id: 'fits', supply: { volts: 24, maxAmps: 1 } },
+    ];
+    const { candidates } = rankCandidates({ string: STRING, supplies, drivers: [DRIVERS[1]], heatSink: { count: 6, cPerW: 5 } });
+    // 6 × 3.4 V × 0.7 A / 0.9 / 22.8 V = 0.696 A: 70 % of the 1 A supply, 3 % of the 20 A one
+    expect(candidates.map((c) => c.supplyId)).toEqual(['fits', 'big']);
+    expect(candidates[0].supplyUse).toBeCloseTo(0.6, 12);
+  });
+
+  it('reads shelf specs that carry extra fields of their own', () => {
+    const r = rankCandidates({
+      string: STRING,
+      supplies: [{ id: 'noted', supply: { volts: 28, maxAmps: 2, note: 'bench 3' } as unknown as ShelfSupply['supply'] }],
+      drivers: [{ id: 'd', driver: { ...DRIVERS[0].driver, colour: 'green' } as unknown as ShelfDriver['driver'] }],
+    });
+    expect(r.skippedIds).toEqual([]);
+    expect(r.candidates.map((c) => c.supplyId)).toEqual(['noted']);
   });
 
   it('honours a fixed supply or driver', () => {
@@ -105,7 +152,7 @@ function query(s: {
   };
 }
 
-const pairs = (r: ReturnType<typeof rankCandidates>) => r.candidates.map((c) => [c.supplyId, c.driverId, c.verdict, c.margin]);
+const pairs = (r: ReturnType<typeof rankCandidates>) => r.candidates.map((c) => [c.supplyId, c.driverId, c.verdict, c.drive, c.supplyUse, c.margin, c.reason]);
 
 describe('pruned search gives the naive answers', () => {
   it('on small random shelves', () => {

@@ -61,7 +61,8 @@ describe('buck vs linear vs resistor', () => {
     const [buck, linear, resistor] = rows;
     // buck: the generic 90 % driver (TI SLVA477 style energy balance: P_in = P_out / η)
     expect(buck.efficiency).toBe(0.9);
-    expect(buck.heatWatts).toBeCloseTo((18 * 0.35) / 0.9 - 18 * 0.35, 9);
+    // worst case: the string at its maximum, 6 × 3.4 = 20.4 V
+    expect(buck.heatWatts).toBeCloseTo((20.4 * 0.35) / 0.9 - 20.4 * 0.35, 9);
     // linear: η = Vstring / V = 18 / 24 and worst heat (25.2 − 16.8) × 0.35 = 2.94 W → needs a heat sink
     expect(linear.efficiency).toBeCloseTo(0.75, 12);
     expect(linear.heatWatts).toBeCloseTo(2.94, 9);
@@ -86,9 +87,46 @@ describe('buck vs linear vs resistor', () => {
     expect(rows.every((r) => r.verdict === 'fail')).toBe(true);
   });
 
-  it('defaults the current to 70 % of what the LED allows', () => {
-    // 0.7 × min(0.7 A, 3 W / 3 V) = 0.49 A
+  it('defaults the current to 70 % of what the LED allows (common practice (no source))', () => {
+    // 0.7 × min(0.7 A, 3 W / 3.4 V) = 0.7 × 0.7 = 0.49 A
     const rows = compareTopologies(string, { volts: 24, maxAmps: 2 });
     expect(rows[0].report?.figures.ledAmpsPeak).toBeCloseTo(0.49, 12);
+    // a power-limited LED: 0.7 × 2 W / 3.4 V = 0.41176 A
+    const hot = compareTopologies({ count: 6, led: { ...string.led, maxWatts: 2 } }, { volts: 24, maxAmps: 2 });
+    expect(hot[0].report?.figures.ledAmpsPeak).toBeCloseTo((0.7 * 2) / 3.4, 12);
+  });
+
+  it('ranks the passing topology that wastes least first, and says why', () => {
+    // 24 V: the buck's worst-case duty is a caution, the bare linear regulator fails on heat, the resistor
+    // passes: passing comes first.
+    const tight = compareTopologies(string, { volts: 24, maxAmps: 2 }, { amps: 0.35 });
+    expect(tight.map((r) => [r.type, r.verdict, r.rank])).toEqual([
+      ['buck', 'caution', 2],
+      ['linear', 'fail', 3],
+      ['resistor', 'ok', 1],
+    ]);
+    // 27 V: buck and resistor both pass; the buck wastes less
+    const rows = compareTopologies(string, { volts: 27, maxAmps: 2 }, { amps: 0.35 });
+    const byRank = [...rows].sort((a, b) => a.rank - b.rank);
+    expect(byRank.map((r) => r.verdict).slice(0, 2)).toEqual(['ok', 'ok']);
+    expect(byRank[0].type).toBe('buck');
+    expect(byRank[0].reason).toMatch(/90\.0 % efficient/);
+    expect(byRank[1].reason).toMatch(/needs a heat sink/);
+    for (const r of rows) expect(r.reason.length).toBeGreaterThan(5);
+    // a failing row says which checks fail
+    const failing = compareTopologies(string, { volts: 12, maxAmps: 2 }, { amps: 0.35 }).find((r) => r.type === 'buck')!;
+    expect(failing.reason).toMatch(/^fails: .*headroom/);
+  });
+
+  it('takes the same optional inputs as the check (heat sink, ambient, wiring) and validates them', () => {
+    const rows = compareTopologies(string, { volts: 24, maxAmps: 2 }, { amps: 0.35, ambientC: 40, heatSink: { count: 1, cPerW: 2 } });
+    expect(rows[0].report?.figures.sinkC).toBeDefined();
+    expect(() => compareTopologies(string, { volts: 24, maxAmps: 2 }, { amps: 1e308 })).toThrow(/Drive current/);
+  });
+
+  it('a subnormal drive current does not throw: the resistor it needs is out of range', () => {
+    const rows = compareTopologies(string, { volts: 24, maxAmps: 2 }, { amps: 1e-310 });
+    expect(rows.find((r) => r.type === 'resistor')?.report).toBeNull();
+    expect(JSON.stringify(rows)).not.toContain('null,"');
   });
 });
