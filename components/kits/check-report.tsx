@@ -105,13 +105,12 @@ function BuildNote({ build, kind }: { build: NonNullable<StoredReport['build']>;
   );
 }
 
-/** The heat figures of the check (present when the check models the LEDs' junction temperature). */
-type HeatFigures = { ledJunctionC?: number; sinkC?: number; sinkCPerWNeeded?: number };
 const celsius = (c: number) => `${c.toFixed(0)} °C`;
 const cPerW = (r: number) => `${(Math.floor(r * 10) / 10).toFixed(1)} °C/W`;
 
 function Heat({ report, chain }: { report: KitReport; chain?: StoredReport['chain'] }) {
-  const f = report.figures as KitReport['figures'] & HeatFigures;
+  const f = report.figures;
+  // Reports stored before the check modelled heat have no junction figure.
   if (f.ledJunctionC === undefined) return null;
   const hot = report.checks.some((c) => c.verdict !== 'ok' && /junction|heat|thermal|sink/i.test(c.id));
   return (
@@ -121,12 +120,19 @@ function Heat({ report, chain }: { report: KitReport; chain?: StoredReport['chai
         LED junction about <strong>{celsius(f.ledJunctionC)}</strong>
         {f.sinkC !== undefined ? `, heat sink about ${celsius(f.sinkC)}` : ''}
         {chain?.heatSink ? ` (on ${chain.heatSink})` : ' (no heat sink in the chain)'}.
+        {f.regulatorJunctionC !== undefined
+          ? ` Linear driver junction about ${celsius(f.regulatorJunctionC)}.`
+          : ''}
       </p>
-      {hot ? (
-        <p className="mt-1">
-          {f.sinkCPerWNeeded !== undefined
-            ? `What fixes it: a sink of at most ${cPerW(f.sinkCPerWNeeded)}${chain?.heatSink ? ' each, as many as now' : ' for each LED'}, or less current.`
-            : 'No heat sink alone fixes it: use fewer watts per LED (a lower current) or LEDs rated hotter.'}
+      {f.sinkCPerWNeeded !== undefined ? (
+        <p className="text-sm">
+          Largest heat sink that keeps the LEDs 25 °C under their maximum:{' '}
+          <strong>a sink of at most {cPerW(f.sinkCPerWNeeded)}</strong>
+          {chain?.heatSink ? ' each, as many as now' : ' for each LED'}.
+        </p>
+      ) : hot ? (
+        <p className="text-sm">
+          No heat sink alone fixes it: use fewer watts per LED (a lower current) or LEDs rated hotter.
         </p>
       ) : null}
     </div>

@@ -48,7 +48,7 @@ const TEMPLATES = [
   {
     name: 'Plant light, six reds',
     description: 'Six red LEDs at 700 mA on a heat-sink bar, fed from a 24 V 2 A supply.',
-    cautions: 'At 700 mA each red LED runs near its power rating: keep all six on the bar and let it cool before packing the box.',
+    cautions: 'At 700 mA the six reds make about 12 W of heat: keep all six on the bar and let it cool before packing the box.',
     teaching: 'Red LEDs have a lower forward voltage, so six of them fit under a 24 V supply with room to spare. Feel how warm the bar gets after ten minutes.',
     lines: [
       ['DRV-B700-30', 1, 'driver'],

@@ -40,7 +40,7 @@ export const DEMO_PARTS: DemoPart[] = [
   { sku: 'LED-1W-CW', name: '1 W cool white LED on 20 mm star', category: 'led', tracking: 'counted', bin: 'leds', qty: 60, priceMinor: 90, reorder: 20, specs: led(2.8, 3.1, 3.5, 0.35, 1.2, 'cool white', 12, 125) },
   { sku: 'LED-3W-CW', name: '3 W cool white LED on 20 mm star', category: 'led', tracking: 'counted', bin: 'leds', qty: 48, priceMinor: 150, reorder: 24, specs: led(2.9, 3.2, 3.6, 0.7, 3, 'cool white', 9, 125) },
   { sku: 'LED-3W-WW', name: '3 W warm white LED on 20 mm star', category: 'led', tracking: 'counted', bin: 'leds', qty: 36, priceMinor: 150, reorder: 24, specs: led(2.9, 3.2, 3.6, 0.7, 3, 'warm white', 9, 125) },
-  { sku: 'LED-3W-RD', name: '3 W red LED on 20 mm star', category: 'led', tracking: 'counted', bin: 'leds', qty: 30, priceMinor: 140, reorder: 12, specs: led(2.0, 2.3, 2.8, 0.7, 2, 'red', 10, 115) },
+  { sku: 'LED-3W-RD', name: '3 W red LED on 20 mm star', category: 'led', tracking: 'counted', bin: 'leds', qty: 30, priceMinor: 140, reorder: 12, specs: led(2.0, 2.3, 2.8, 1.0, 3, 'red', 10, 115) },
   { sku: 'LED-3W-GN', name: '3 W green LED on 20 mm star', category: 'led', tracking: 'counted', bin: 'leds', qty: 18, priceMinor: 160, reorder: 12, specs: led(3.0, 3.4, 3.8, 0.7, 3, 'green', 9, 125) },
   { sku: 'LED-3W-BL', name: '3 W royal blue LED on 20 mm star', category: 'led', tracking: 'counted', bin: 'leds', qty: 8, priceMinor: 160, reorder: 12, specs: led(3.0, 3.3, 3.7, 0.7, 3, 'royal blue', 9, 125) },
   { sku: 'LED-3W-AM', name: '3 W amber LED on 20 mm star', category: 'led', tracking: 'counted', bin: 'leds', qty: 14, priceMinor: 150, reorder: 6, specs: led(2.0, 2.3, 2.8, 0.7, 2, 'amber', 10, 115) },
