@@ -3,6 +3,9 @@
 import fc from 'fast-check';
 import type { DriverSpec, KitSpec, StringSpec, SupplySpec } from '@/lib/electrical';
 
+/** fast-check run counts, scaled down under mutation testing (FC_SCALE in its vitest config). */
+export const runs = (n: number, min = 10) => Math.max(min, Math.round(n * Number(process.env.FC_SCALE ?? 1)));
+
 const num = (min: number, max: number) => fc.double({ min, max, noNaN: true, noDefaultInfinity: true });
 /** Strictly above `min`: fast-check's minExcluded keeps the schema's open lower bounds out. */
 const above = (min: number, max: number) => fc.double({ min, max, noNaN: true, noDefaultInfinity: true, minExcluded: true });

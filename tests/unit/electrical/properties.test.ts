@@ -2,7 +2,7 @@ import fc from 'fast-check';
 import { describe, expect, it } from 'vitest';
 import { ZodError } from 'zod';
 import { type KitSpec, type Verdict, checkKit, worst } from '@/lib/electrical';
-import { BAD_KINDS, badValue, kitSpecArb, numericLeaves, withValueAt } from './arbitraries';
+import { BAD_KINDS, badValue, kitSpecArb, numericLeaves, runs, withValueAt } from './arbitraries';
 import { checkOf } from './fixtures';
 
 const RANK: Record<Verdict, number> = { ok: 0, caution: 1, fail: 2 };
@@ -15,7 +15,7 @@ describe('properties of checkKit', () => {
         expect(['ok', 'caution', 'fail']).toContain(r.verdict);
         expect(r.checks.length).toBeGreaterThan(0);
       }),
-      { numRuns: 2000 },
+      { numRuns: runs(2000) },
     );
   });
 
@@ -27,7 +27,7 @@ describe('properties of checkKit', () => {
         const hardest = Math.max(...r.checks.map((c) => RANK[c.verdict]));
         expect(RANK[r.verdict]).toBe(hardest);
       }),
-      { numRuns: 1000 },
+      { numRuns: runs(1000) },
     );
   });
 
@@ -44,7 +44,7 @@ describe('properties of checkKit', () => {
           for (let i = 1; i < ranks.length; i++) expect(ranks[i]).toBeLessThanOrEqual(ranks[i - 1]);
         },
       ),
-      { numRuns: 500 },
+      { numRuns: runs(500) },
     );
   });
 
@@ -62,7 +62,7 @@ describe('properties of checkKit', () => {
         expect(numbers.every(Number.isFinite)).toBe(true);
         expect(JSON.stringify(r)).not.toContain('null');
       }),
-      { numRuns: 3000 },
+      { numRuns: runs(3000) },
     );
   });
 
@@ -75,7 +75,7 @@ describe('properties of checkKit', () => {
         expect(b.stringVoltsTyp).toBeGreaterThanOrEqual(a.stringVoltsTyp);
         expect(b.stringVoltsMax).toBeGreaterThanOrEqual(a.stringVoltsMax);
       }),
-      { numRuns: 500 },
+      { numRuns: runs(500) },
     );
   });
 
@@ -88,7 +88,7 @@ describe('properties of checkKit', () => {
         expect(checkOf(dim, 'led-power').value).toBeLessThanOrEqual(checkOf(full, 'led-power').value);
         expect(dim.figures.ledAmpsPeak).toBe(full.figures.ledAmpsPeak);
       }),
-      { numRuns: 300 },
+      { numRuns: runs(300) },
     );
   });
 });
@@ -113,7 +113,7 @@ describe('invalid input always yields a ZodError naming the field', () => {
           expect((error as ZodError).issues.map((i) => i.path.join('.'))).toContain(leaf.path.join('.'));
         },
       ),
-      { numRuns: 1000 },
+      { numRuns: runs(1000) },
     );
   });
 

@@ -8,7 +8,7 @@ import {
   rankCandidates,
   rankCandidatesNaive,
 } from '@/lib/electrical';
-import { driverArb, stringArb, supplyArb } from './arbitraries';
+import { driverArb, runs, stringArb, supplyArb } from './arbitraries';
 
 const STRING = { count: 6, led: { vfMin: 2.8, vfTyp: 3.0, vfMax: 3.4, maxAmps: 0.7, maxWatts: 3 } };
 const SUPPLIES: ShelfSupply[] = [
@@ -161,7 +161,7 @@ describe('pruned search gives the naive answers', () => {
         const q = query(s);
         expect(pairs(rankCandidates(q))).toEqual(pairs(rankCandidatesNaive(q)));
       }),
-      { numRuns: 300 },
+      { numRuns: runs(300) },
     );
   });
 
@@ -193,7 +193,7 @@ describe('pruned search gives the naive answers', () => {
           expect(fast.checked).toBeLessThanOrEqual(slow.checked);
         },
       ),
-      { numRuns: 25 },
+      { numRuns: runs(25, 2) },
     );
   }, 60_000); // a correctness test; the machine may be busy
 
