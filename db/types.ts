@@ -33,6 +33,8 @@ export interface SpacesTable {
   reminder_days_before: Generated<number>;
   reminder_every_days: Generated<number>;
   label_layout: Generated<string>;
+  /** Air temperature at the bench, °C, for the heat check (migration 0003_build_gate). */
+  ambient_c: Generated<number>;
   settings: JsonDefault<Record<string, unknown>>;
   created_at: TimestampDefault;
 }
@@ -194,6 +196,8 @@ export interface LoansTable {
   caution_acknowledged: Generated<boolean>;
   override_reason: string | null;
   override_by: string | null;
+  /** Parts the borrower described as their own, checked with the loan (migration 0003_build_gate). */
+  own_parts: JsonNullable<unknown>;
   created_at: TimestampDefault;
 }
 

@@ -22,7 +22,7 @@ export function formatValue(unit: string, v: number): string {
 }
 
 type Props = {
-  result: Pick<StoredReport, 'kind' | 'report' | 'chain' | 'missing' | 'problems'>;
+  result: Pick<StoredReport, 'kind' | 'report' | 'chain' | 'missing' | 'problems' | 'build'>;
   verdict: 'ok' | 'caution' | 'fail' | null;
   headingLevel?: 2 | 3;
 };
@@ -41,17 +41,24 @@ export function CheckReport({ result, verdict, headingLevel = 2 }: Props) {
           <span className="muted text-sm">Not checked</span>
         )}
       </div>
+      {result.build ? <BuildNote build={result.build} kind={result.kind} /> : null}
       {result.kind === 'checked' && result.report ? (
         <Checked report={result.report} chain={result.chain} />
       ) : null}
       {result.kind === 'incomplete' ? (
         <div>
-          <p>The electrical chain is not complete, so the check cannot run. Missing:</p>
+          <p>The electrical chain is not complete, so the check cannot run yet. Missing:</p>
           <ul className="ml-5 list-disc">
             {(result.missing ?? []).map((m) => (
               <li key={m}>{m}</li>
             ))}
           </ul>
+          {result.build?.present.length ? (
+            <p className="mt-2">
+              When you borrow {(result.missing ?? []).length > 1 ? 'them' : 'it'}, or describe your own, the whole
+              build is checked against: {result.build.present.join(', ')}.
+            </p>
+          ) : null}
         </div>
       ) : null}
       {result.kind === 'unreadable' ? (
@@ -73,13 +80,72 @@ export function CheckReport({ result, verdict, headingLevel = 2 }: Props) {
   );
 }
 
+/** Loose parts are checked as the borrower's whole build: say what else went into it. */
+function BuildNote({ build, kind }: { build: NonNullable<StoredReport['build']>; kind: StoredReport['kind'] }) {
+  const others = build.chains.length > 1;
+  if (!build.held.length && !build.own.length && !others) return null;
+  return (
+    <div className="rounded-lg border border-stone-300 p-3 text-sm dark:border-stone-700" data-build>
+      <p className="font-semibold">Checked as your whole build</p>
+      {build.held.length ? <p>Already out with you: {build.held.join(', ')}.</p> : null}
+      {build.own.length ? <p>Your own parts: {build.own.join(', ')}.</p> : null}
+      {others && kind === 'checked' ? (
+        <ul className="mt-1 space-y-1">
+          {build.chains.map((c, i) => (
+            <li key={i} className="flex flex-wrap items-center gap-2">
+              {c.verdict !== 'unreadable' ? <VerdictBadge verdict={c.verdict} /> : null}
+              <span className="break-words">
+                {c.chain.supply} → {c.chain.driver} → {c.chain.ledCount} × {c.chain.led}
+              </span>
+            </li>
+          ))}
+        </ul>
+      ) : null}
+    </div>
+  );
+}
+
+const celsius = (c: number) => `${c.toFixed(0)} °C`;
+const cPerW = (r: number) => `${(Math.floor(r * 10) / 10).toFixed(1)} °C/W`;
+
+function Heat({ report, chain }: { report: KitReport; chain?: StoredReport['chain'] }) {
+  const f = report.figures;
+  // Reports stored before the check modelled heat have no junction figure.
+  if (f.ledJunctionC === undefined) return null;
+  const hot = report.checks.some((c) => c.verdict !== 'ok' && /junction|heat|thermal|sink/i.test(c.id));
+  return (
+    <div data-heat>
+      <p className="font-semibold">Heat</p>
+      <p className="text-sm">
+        LED junction about <strong>{celsius(f.ledJunctionC)}</strong>
+        {f.sinkC !== undefined ? `, heat sink about ${celsius(f.sinkC)}` : ''}
+        {chain?.heatSink ? ` (on ${chain.heatSink})` : ' (no heat sink in the chain)'}.
+        {f.regulatorJunctionC !== undefined
+          ? ` Linear driver junction about ${celsius(f.regulatorJunctionC)}.`
+          : ''}
+      </p>
+      {f.sinkCPerWNeeded !== undefined ? (
+        <p className="text-sm">
+          Largest heat sink that keeps the LEDs 25 °C under their maximum:{' '}
+          <strong>a sink of at most {cPerW(f.sinkCPerWNeeded)}</strong>
+          {chain?.heatSink ? ' each, as many as now' : ' for each LED'}.
+        </p>
+      ) : hot ? (
+        <p className="text-sm">
+          No heat sink alone fixes it: use fewer watts per LED (a lower current) or LEDs rated hotter.
+        </p>
+      ) : null}
+    </div>
+  );
+}
+
 function Checked({ report, chain }: { report: KitReport; chain?: StoredReport['chain'] }) {
   const notOk = report.checks.filter((c) => c.verdict !== 'ok');
   const f = report.figures;
   return (
     <>
       {chain ? (
-        <p className="text-sm">
+        <p className="text-sm break-words">
           {chain.supply} → {chain.driver} → {chain.ledCount} × {chain.led}
         </p>
       ) : null}
@@ -100,6 +166,7 @@ function Checked({ report, chain }: { report: KitReport; chain?: StoredReport['c
       ) : (
         <p>Every check passes with these exact parts.</p>
       )}
+      <Heat report={report} chain={chain} />
       <details>
         <summary className="cursor-pointer font-semibold">All checks and figures</summary>
         <ul className="mt-2 divide-y divide-stone-200 dark:divide-stone-800">

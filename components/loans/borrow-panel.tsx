@@ -7,7 +7,12 @@ import { ErrorNote } from './error-note';
 
 type Selection =
   | { kitBoxId: string }
-  | { unitIds: string[]; counted: { partId: string; locationId: string; qty: number }[] };
+  | {
+      unitIds: string[];
+      counted: { partId: string; locationId: string; qty: number }[];
+      /** Parts the borrower brings, described with the check's own fields. */
+      ownParts?: Record<string, unknown>;
+    };
 
 // The borrow confirmation, built for a phone: the due date, the acknowledgement when the check gave
 // cautions, a steward's written override when it failed, and one big button. The server checks it all
@@ -64,7 +69,7 @@ export function BorrowPanel({
       <div className="card" role="status">
         <p className="font-semibold">This cannot be borrowed as it is.</p>
         <p className="mt-1">
-          The check failed on these exact parts. See what would work instead, or ask a steward at the bench.
+          The check failed on these exact parts{'kitBoxId' in selection ? '' : ', checked together with the rest of your build'}. See what would work instead, or ask a steward at the bench.
         </p>
       </div>
     );

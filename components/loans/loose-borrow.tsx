@@ -10,6 +10,7 @@ import { Alternatives } from './alternatives';
 import { callApi } from './api';
 import { BorrowPanel } from './borrow-panel';
 import { ErrorNote } from './error-note';
+import { OwnLeds, type OwnLedsValue } from './own-leds';
 
 type Counted = { partId: string; locationId: string; qty: number };
 type PreviewJson = Omit<Preview, 'dueAt'> & { dueAt: string };
@@ -35,8 +36,15 @@ export function LooseBorrow({
   const [partId, setPartId] = useState('');
   const [bin, setBin] = useState('');
   const [qty, setQty] = useState(1);
+  const [ownLeds, setOwnLeds] = useState<OwnLedsValue | null>(null);
+  const ownParts = ownLeds ? { string: ownLeds } : undefined;
   const preview = useMutation({
-    mutationFn: () => callApi<{ preview: PreviewJson }>('/api/loans/preview', 'POST', { unitIds, counted }),
+    mutationFn: () =>
+      callApi<{ preview: PreviewJson }>('/api/loans/preview', 'POST', {
+        unitIds,
+        counted,
+        ...(ownParts ? { ownParts } : {}),
+      }),
   });
   const reset = () => preview.reset();
 
@@ -190,6 +198,14 @@ export function LooseBorrow({
         </ul>
       </section>
 
+      <OwnLeds
+        value={ownLeds}
+        onChange={(v) => {
+          setOwnLeds(v);
+          reset();
+        }}
+      />
+
       <button
         type="button"
         className="btn-primary w-full"
@@ -203,12 +219,18 @@ export function LooseBorrow({
       {p ? (
         <>
           <CheckReport result={p.outcome} verdict={p.outcome.verdict} />
+          {p.outcome.kind === 'incomplete' && p.outcome.missing.includes('LEDs for the string') && !ownLeds ? (
+            <p className="card text-sm">
+              Bringing your own LEDs? Describe them under “My own LEDs” and check again: they are checked with
+              the rest of the build.
+            </p>
+          ) : null}
           <Cautions cautions={p.outcome.cautions} />
           {p.gate === 'blocked' && p.outcome.kind === 'checked' ? (
             <Alternatives items={p.alternatives} />
           ) : null}
           <BorrowPanel
-            selection={{ unitIds, counted }}
+            selection={{ unitIds, counted, ...(ownParts ? { ownParts } : {}) }}
             gate={p.gate}
             available={p.available}
             unavailable={p.unavailable}

@@ -5,6 +5,8 @@ import { useState } from 'react';
 import { useForm, type FieldErrors } from 'react-hook-form';
 import { LAYOUTS } from '@/labels/layouts';
 import {
+  AMBIENT_MAX_C,
+  AMBIENT_MIN_C,
   CURRENCIES,
   settingsSchema,
   TIME_ZONES,
@@ -162,6 +164,27 @@ export function SettingsForm({ initial }: { initial: Settings }) {
             />
           </FormField>
         ))}
+      </fieldset>
+
+      <fieldset className="card">
+        <legend className="px-1 text-lg font-bold">The bench</legend>
+        <FormField
+          id="set-ambientC"
+          label="Air temperature at the bench (°C)"
+          error={err('ambientC')}
+          hint={`Every heat check starts from this; a warm room leaves less room for the LEDs. ${AMBIENT_MIN_C} to ${AMBIENT_MAX_C} °C.`}
+        >
+          <input
+            {...field('ambientC', { valueAsNumber: true })}
+            {...describedBy('set-ambientC', err('ambientC'), true)}
+            type="number"
+            min={AMBIENT_MIN_C}
+            max={AMBIENT_MAX_C}
+            step={0.5}
+            inputMode="decimal"
+            className="field"
+          />
+        </FormField>
       </fieldset>
 
       <fieldset className="card">

@@ -48,7 +48,7 @@ const TEMPLATES = [
   {
     name: 'Plant light, six reds',
     description: 'Six red LEDs at 700 mA on a heat-sink bar, fed from a 24 V 2 A supply.',
-    cautions: 'At 700 mA each red LED runs near its power rating: keep all six on the bar and let it cool before packing the box.',
+    cautions: 'At 700 mA the six reds make about 12 W of heat: keep all six on the bar and let it cool before packing the box.',
     teaching: 'Red LEDs have a lower forward voltage, so six of them fit under a 24 V supply with room to spare. Feel how warm the bar gets after ten minutes.',
     lines: [
       ['DRV-B700-30', 1, 'driver'],
@@ -69,6 +69,20 @@ const TEMPLATES = [
       ['HS-FIN-60', 2, null],
       ['PSU-36V-2A', 1, 'supply'],
       ['WIRE-SIL-18R', 1, null],
+    ],
+  },
+  {
+    // The demo's heat lesson: the check says caution because one small sink carries four stars.
+    name: 'Shelf light, four warm whites',
+    description: 'Four 3 W warm white LEDs at 500 mA sharing one small round heat sink, a 500 mA buck driver and a 24 V wall supply.',
+    cautions: 'One small round sink for four stars runs hot: the check asks for a sink of at most about 7.6 °C/W. Swap in the 60 mm finned sink from the shelf before a long run.',
+    teaching: 'Run it for five minutes and touch the sink with the back of a finger: it gets hot. Then read the heat section of the check, and compare the sink it asks for with the finned sinks on the shelf.',
+    lines: [
+      ['DRV-B500-28', 1, 'driver'],
+      ['LED-3W-WW', 4, 'led'],
+      ['HS-RND-40', 1, null],
+      ['PSU-24V-1A', 1, 'supply'],
+      ['WIRE-TWIN-22', 1, 'wire'],
     ],
   },
 ] as const;

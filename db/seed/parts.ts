@@ -18,8 +18,9 @@ export type DemoPart = {
 const buck = (minIn: number, maxIn: number, amps: number, extra: Record<string, unknown> = {}) => ({
   type: 'buck', minInputVolts: minIn, maxInputVolts: maxIn, outputAmps: amps, headroomVolts: 1.5, efficiency: 0.9, maxDuty: 0.95, ...extra,
 });
-const led = (vfMin: number, vfTyp: number, vfMax: number, maxAmps: number, maxWatts: number, colour: string) => ({
-  vfMin, vfTyp, vfMax, atAmps: maxAmps, maxAmps, maxWatts, colour,
+// Thermal figures are invented for the demo: junction to solder point (°C/W) and the hottest junction.
+const led = (vfMin: number, vfTyp: number, vfMax: number, maxAmps: number, maxWatts: number, colour: string, thermalOhmsJs: number, maxJunctionC: number) => ({
+  vfMin, vfTyp, vfMax, atAmps: maxAmps, maxAmps, maxWatts, thermalOhmsJs, maxJunctionC, colour,
 });
 const supply = (volts: number, maxAmps: number, mains = true) => ({ volts, tolerancePct: 5, maxAmps, mains });
 
@@ -36,15 +37,15 @@ export const DEMO_PARTS: DemoPart[] = [
   { sku: 'RES-27R-3W', name: 'Series resistor, 27 Ω, 3 W, wirewound', category: 'driver', tracking: 'counted', bin: 'consumables', qty: 20, priceMinor: 45, reorder: 5, specs: { type: 'resistor', ohms: 27, watts: 3 } },
   { sku: 'RES-10R-2W', name: 'Series resistor, 10 Ω, 2 W, metal film', category: 'driver', tracking: 'counted', bin: 'consumables', qty: 30, priceMinor: 35, reorder: 5, specs: { type: 'resistor', ohms: 10, watts: 2 } },
   // LEDs on star boards (counted, in bags)
-  { sku: 'LED-1W-CW', name: '1 W cool white LED on 20 mm star', category: 'led', tracking: 'counted', bin: 'leds', qty: 60, priceMinor: 90, reorder: 20, specs: led(2.8, 3.1, 3.5, 0.35, 1.2, 'cool white') },
-  { sku: 'LED-3W-CW', name: '3 W cool white LED on 20 mm star', category: 'led', tracking: 'counted', bin: 'leds', qty: 48, priceMinor: 150, reorder: 24, specs: led(2.9, 3.2, 3.6, 0.7, 3, 'cool white') },
-  { sku: 'LED-3W-WW', name: '3 W warm white LED on 20 mm star', category: 'led', tracking: 'counted', bin: 'leds', qty: 36, priceMinor: 150, reorder: 24, specs: led(2.9, 3.2, 3.6, 0.7, 3, 'warm white') },
-  { sku: 'LED-3W-RD', name: '3 W red LED on 20 mm star', category: 'led', tracking: 'counted', bin: 'leds', qty: 30, priceMinor: 140, reorder: 12, specs: led(2.0, 2.3, 2.8, 0.7, 2, 'red') },
-  { sku: 'LED-3W-GN', name: '3 W green LED on 20 mm star', category: 'led', tracking: 'counted', bin: 'leds', qty: 18, priceMinor: 160, reorder: 12, specs: led(3.0, 3.4, 3.8, 0.7, 3, 'green') },
-  { sku: 'LED-3W-BL', name: '3 W royal blue LED on 20 mm star', category: 'led', tracking: 'counted', bin: 'leds', qty: 8, priceMinor: 160, reorder: 12, specs: led(3.0, 3.3, 3.7, 0.7, 3, 'royal blue') },
-  { sku: 'LED-3W-AM', name: '3 W amber LED on 20 mm star', category: 'led', tracking: 'counted', bin: 'leds', qty: 14, priceMinor: 150, reorder: 6, specs: led(2.0, 2.3, 2.8, 0.7, 2, 'amber') },
-  { sku: 'LED-5W-CW', name: '5 W cool white LED on 20 mm star', category: 'led', tracking: 'counted', bin: 'leds', qty: 24, priceMinor: 240, reorder: 8, specs: led(3.0, 3.3, 3.8, 1.5, 5, 'cool white') },
-  { sku: 'LED-1W-DR', name: '1 W deep red LED on 20 mm star', category: 'led', tracking: 'counted', bin: 'leds', qty: 20, priceMinor: 110, reorder: 6, specs: led(1.8, 2.1, 2.5, 0.35, 0.9, 'deep red') },
+  { sku: 'LED-1W-CW', name: '1 W cool white LED on 20 mm star', category: 'led', tracking: 'counted', bin: 'leds', qty: 60, priceMinor: 90, reorder: 20, specs: led(2.8, 3.1, 3.5, 0.35, 1.2, 'cool white', 12, 125) },
+  { sku: 'LED-3W-CW', name: '3 W cool white LED on 20 mm star', category: 'led', tracking: 'counted', bin: 'leds', qty: 48, priceMinor: 150, reorder: 24, specs: led(2.9, 3.2, 3.6, 0.7, 3, 'cool white', 9, 125) },
+  { sku: 'LED-3W-WW', name: '3 W warm white LED on 20 mm star', category: 'led', tracking: 'counted', bin: 'leds', qty: 36, priceMinor: 150, reorder: 24, specs: led(2.9, 3.2, 3.6, 0.7, 3, 'warm white', 9, 125) },
+  { sku: 'LED-3W-RD', name: '3 W red LED on 20 mm star', category: 'led', tracking: 'counted', bin: 'leds', qty: 30, priceMinor: 140, reorder: 12, specs: led(2.0, 2.3, 2.8, 1.0, 3, 'red', 10, 115) },
+  { sku: 'LED-3W-GN', name: '3 W green LED on 20 mm star', category: 'led', tracking: 'counted', bin: 'leds', qty: 18, priceMinor: 160, reorder: 12, specs: led(3.0, 3.4, 3.8, 0.7, 3, 'green', 9, 125) },
+  { sku: 'LED-3W-BL', name: '3 W royal blue LED on 20 mm star', category: 'led', tracking: 'counted', bin: 'leds', qty: 8, priceMinor: 160, reorder: 12, specs: led(3.0, 3.3, 3.7, 0.7, 3, 'royal blue', 9, 125) },
+  { sku: 'LED-3W-AM', name: '3 W amber LED on 20 mm star', category: 'led', tracking: 'counted', bin: 'leds', qty: 14, priceMinor: 150, reorder: 6, specs: led(2.0, 2.3, 2.8, 0.7, 2, 'amber', 10, 115) },
+  { sku: 'LED-5W-CW', name: '5 W cool white LED on 20 mm star', category: 'led', tracking: 'counted', bin: 'leds', qty: 24, priceMinor: 240, reorder: 8, specs: led(3.0, 3.3, 3.8, 1.5, 5, 'cool white', 6, 135) },
+  { sku: 'LED-1W-DR', name: '1 W deep red LED on 20 mm star', category: 'led', tracking: 'counted', bin: 'leds', qty: 20, priceMinor: 110, reorder: 6, specs: led(1.8, 2.1, 2.5, 0.35, 0.9, 'deep red', 12, 115) },
   // Supplies (each labelled)
   { sku: 'PSU-12V-1.5A', name: '12 V 1.5 A wall supply', category: 'supply', tracking: 'unit', bin: 'supplies', units: 3, specs: supply(12, 1.5) },
   { sku: 'PSU-12V-3A', name: '12 V 3 A desk supply', category: 'supply', tracking: 'unit', bin: 'supplies', units: 2, specs: supply(12, 3) },

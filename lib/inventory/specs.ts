@@ -58,6 +58,15 @@ export const ledSpecs = z
     atAmps: pos('test current').optional(),
     maxAmps: pos('maximum current'),
     maxWatts: pos('maximum power'),
+    // Heat: junction to the star's solder point, and the hottest the junction may run. Optional; the
+    // check assumes typical values for a 1–3 W star when they are not given.
+    thermalOhmsJs: pos('junction-to-solder-point thermal resistance').max(200, 'at most 200 °C/W').optional(),
+    maxJunctionC: z.coerce
+      .number({ error: 'maximum junction temperature must be a number' })
+      .finite()
+      .min(50, 'at least 50 °C')
+      .max(200, 'at most 200 °C')
+      .optional(),
     colour: z.string().max(40).optional(),
   })
   .refine((l) => l.vfMin <= l.vfTyp && l.vfTyp <= l.vfMax, {

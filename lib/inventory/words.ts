@@ -71,6 +71,8 @@ export const SPEC_FIELDS: Partial<
     { key: 'atAmps', label: 'Stated at current', unit: 'A' },
     { key: 'maxAmps', label: 'Maximum current', unit: 'A' },
     { key: 'maxWatts', label: 'Maximum power', unit: 'W' },
+    { key: 'thermalOhmsJs', label: 'Thermal resistance, junction to solder point', unit: '°C/W' },
+    { key: 'maxJunctionC', label: 'Maximum junction temperature', unit: '°C' },
     { key: 'colour', label: 'Colour', kind: 'text' },
   ],
   supply: [

@@ -6,6 +6,7 @@ import { isStaff, type Ctx } from '@/lib/auth/roles';
 import { ConflictError, ForbiddenError, InvalidError, NotFoundError } from '@/lib/errors';
 import { keySpec } from '@/lib/inventory/specs';
 import { checkLines, type CheckOutcome } from '@/lib/loans/check';
+import { loanSettings } from '@/lib/loans/settings';
 import type { TemplateInput } from './schemas';
 
 // Kit templates: a named bill of parts with teaching notes and cautions; the lines with a chain role
@@ -108,7 +109,7 @@ export async function getTemplate(db: Db, ctx: Ctx, templateId: string): Promise
       qty: r.qty,
       chainRole: r.chainRole,
     })),
-    { fromKitBox: true },
+    { fromKitBox: true, ambientC: (await loanSettings(db, ctx.spaceId)).ambientC },
   );
   return {
     id: t.id,

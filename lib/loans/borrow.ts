@@ -4,6 +4,7 @@ import { audit } from '@/lib/audit/log';
 import { isStaff, type Ctx } from '@/lib/auth/roles';
 import { now } from '@/lib/clock';
 import { ConflictError, ForbiddenError, NotFoundError } from '@/lib/errors';
+import { buildNote, looseOutcome, refusalReasons } from './build';
 import { checkLines, storedReport } from './check';
 import { computeDueAt } from './due';
 import { limitReached, openLoanCount } from './lock';
@@ -21,6 +22,8 @@ export type BorrowResult = {
   dueAt: Date;
   verdict: 'ok' | 'caution' | 'fail' | null;
   overridden: boolean;
+  /** What was checked as the borrower's whole build, or what it still lacks; null when not a build. */
+  note: string | null;
 };
 
 /** A box or unit may be taken when it is on the shelf, or held ready for this borrower. */
@@ -103,20 +106,30 @@ export async function borrow(db: Db, ctx: Ctx, input: BorrowInput): Promise<Borr
       }
     }
 
-    // The check, on the server, on exactly these parts.
-    const outcome = checkLines(lines, { fromKitBox: boxId !== null });
+    // The check, on the server, on exactly these parts: a box on its contents, loose parts together
+    // with the rest of the borrower's build (read under the borrower's lock taken above).
+    const outcome = boxId
+      ? checkLines(lines, { fromKitBox: true, ambientC: settings.ambientC })
+      : await looseOutcome(trx, ctx.spaceId, borrowerId, lines, input.ownParts, settings.ambientC);
     const gate = gateFor(outcome);
+    const reasons = refusalReasons(outcome);
+    const said = reasons.length ? ` ${reasons.join('. ')}.` : '';
     if (gate === 'blocked' && !input.override)
       throw new ConflictError(
-        'The compatibility check failed: this cannot be lent as it is. A steward may override it with a written reason.',
+        `The compatibility check failed:${said} This cannot be lent as it is. A steward may override it with a written reason.`,
         {
           override: ['the check failed; a steward override with a reason is needed'],
+          ...(outcome.build ? { build: reasons } : {}),
         },
       );
     if (gate === 'acknowledge' && !input.acknowledgeCaution)
-      throw new ConflictError('The check gave cautions: confirm that you read them before borrowing.', {
-        acknowledgeCaution: ['tick that you read the cautions'],
-      });
+      throw new ConflictError(
+        `The check gave cautions:${said} Confirm that you read them before borrowing.`,
+        {
+          acknowledgeCaution: ['tick that you read the cautions'],
+          ...(outcome.build ? { build: reasons } : {}),
+        },
+      );
 
     const open = await openLoanCount(trx, ctx.spaceId, borrowerId);
     if (open >= settings.maxOpenLoans)
@@ -141,6 +154,7 @@ export async function borrow(db: Db, ctx: Ctx, input: BorrowInput): Promise<Borr
         caution_acknowledged: gate === 'acknowledge',
         override_reason: overridden ? input.override!.reason : null,
         override_by: overridden ? ctx.userId : null,
+        own_parts: input.ownParts ? JSON.stringify(input.ownParts) : null,
         created_at: at,
       })
       .returning('id')
@@ -242,8 +256,13 @@ export async function borrow(db: Db, ctx: Ctx, input: BorrowInput): Promise<Borr
         action: 'loan.override',
         targetType: 'loan',
         targetId: loan.id,
-        detail: { reason: input.override!.reason, verdict: outcome.verdict, kind: outcome.kind },
+        detail: {
+          reason: input.override!.reason,
+          verdict: outcome.verdict,
+          kind: outcome.kind,
+          ...(outcome.build ? { build: reasons } : {}),
+        },
       });
-    return { id: loan.id, dueAt, verdict: outcome.verdict, overridden };
+    return { id: loan.id, dueAt, verdict: outcome.verdict, overridden, note: buildNote(outcome) };
   });
 }

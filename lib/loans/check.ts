@@ -1,6 +1,6 @@
 import { z } from 'zod';
 import type { ChainRole, PartCategory } from '@/db/types';
-import { assembleChain } from '@/lib/kits/chain';
+import { assembleChain, type ChainParts } from '@/lib/kits/chain';
 import { checkKit, generalCautions, safetyCautions, type Caution, type KitReport, type KitSpec } from '@/lib/electrical';
 
 // The compatibility check on the exact parts of a loan: assemble the chain from the lines, run checkKit,
@@ -15,7 +15,20 @@ export type CheckLine = {
   chainRole: ChainRole | null;
 };
 
-export type CheckOutcome =
+/**
+ * When a loose borrow is checked together with what the borrower already has out (lib/loans/build.ts):
+ * every supply → driver → LED chain those parts can make, with its verdict; the parts that came from
+ * earlier loans or were described as the borrower's own; and, while the build is not complete, what it
+ * has so far (what the missing part will be checked against).
+ */
+export type BuildInfo = {
+  chains: { chain: ChainParts; verdict: KitReport['verdict'] | 'unreadable' }[];
+  held: string[];
+  own: string[];
+  present: string[];
+};
+
+type Outcome =
   /** A full chain, checked. */
   | {
       kind: 'checked';
@@ -33,7 +46,9 @@ export type CheckOutcome =
   /** Nothing electrical to check (a meter, a soldering iron). */
   | { kind: 'none'; verdict: null; cautions: Caution[] };
 
-export type ChainParts = { supply: string; driver: string; led: string; ledCount: number };
+export type CheckOutcome = Outcome & { build?: BuildInfo };
+
+export type { ChainParts };
 
 const CHAIN_CATEGORIES: PartCategory[] = ['supply', 'driver', 'led'];
 
@@ -56,7 +71,10 @@ function mergeLines(lines: CheckLine[]): CheckLine[] {
  * Checks the parts. `fromKitBox`: a box's template names its chain, so a box with half a chain is
  * short and blocked; loose parts with half a chain (only a supply, say) are simply not checked.
  */
-export function checkLines(lines: CheckLine[], { fromKitBox }: { fromKitBox: boolean }): CheckOutcome {
+export function checkLines(
+  lines: CheckLine[],
+  { fromKitBox, ambientC }: { fromKitBox: boolean; ambientC?: number },
+): CheckOutcome {
   const merged = mergeLines(lines);
   const roleOf = (l: CheckLine) => l.chainRole ?? (CHAIN_CATEGORIES.includes(l.category) ? l.category : null);
   const chainLines = merged.filter((l) => roleOf(l) !== null);
@@ -71,6 +89,7 @@ export function checkLines(lines: CheckLine[], { fromKitBox }: { fromKitBox: boo
       qty: l.qty,
       specs: l.specs,
     })),
+    { ambientC },
   );
   if (!chain.ok)
     return {
@@ -123,15 +142,18 @@ export function storedReport(outcome: CheckOutcome): Record<string, unknown> {
         report: outcome.report,
         cautions: outcome.cautions,
         chain: outcome.chain,
+        ...withBuild(outcome),
       };
     case 'incomplete':
-      return { kind: 'incomplete', missing: outcome.missing, cautions: outcome.cautions };
+      return { kind: 'incomplete', missing: outcome.missing, cautions: outcome.cautions, ...withBuild(outcome) };
     case 'unreadable':
-      return { kind: 'unreadable', problems: outcome.problems, cautions: outcome.cautions };
+      return { kind: 'unreadable', problems: outcome.problems, cautions: outcome.cautions, ...withBuild(outcome) };
     case 'none':
       return { kind: 'none', cautions: outcome.cautions };
   }
 }
+
+const withBuild = (o: CheckOutcome) => (o.build ? { build: o.build } : {});
 
 export type StoredReport = {
   kind: CheckOutcome['kind'];
@@ -141,6 +163,7 @@ export type StoredReport = {
   chain?: ChainParts;
   missing?: string[];
   problems?: string[];
+  build?: BuildInfo;
 };
 
 /** Reads a stored report back, including the older `{ spec, report }` shape of the demo seed. */
@@ -160,5 +183,6 @@ export function readStoredReport(raw: unknown): StoredReport | null {
     chain: r.chain as ChainParts | undefined,
     missing: Array.isArray(r.missing) ? (r.missing as string[]) : undefined,
     problems: Array.isArray(r.problems) ? (r.problems as string[]) : undefined,
+    build: r.build && typeof r.build === 'object' ? (r.build as BuildInfo) : undefined,
   };
 }

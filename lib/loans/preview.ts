@@ -3,10 +3,11 @@ import type { Db } from '@/db/connect';
 import type { Ctx } from '@/lib/auth/roles';
 import { now } from '@/lib/clock';
 import { whatWorksWith, type Alternative } from './alternatives';
+import { buildNote, looseOutcome } from './build';
 import { checkLines, type CheckOutcome } from './check';
 import { computeDueAt } from './due';
 import { limitReached, openLoanCount } from './lock';
-import type { Selection } from './schemas';
+import type { OwnParts, Selection } from './schemas';
 import { chainRoleOf, resolveSelection, type SelectedBox, type SelectionLine } from './selection';
 import { loanSettings } from './settings';
 
@@ -28,6 +29,8 @@ export type Preview = {
   alternatives: Alternative[];
   openLoans: number;
   maxOpenLoans: number;
+  /** What was checked as the borrower's whole build, or what it still lacks. */
+  note: string | null;
 };
 
 /** ok → lend; caution → lend once the borrower says they read the reasons; fail → only a steward's override. */
@@ -39,12 +42,14 @@ export async function previewLoan(
   db: Db,
   ctx: Ctx,
   sel: Selection,
-  opts: { borrowerId?: string } = {},
+  opts: { borrowerId?: string; ownParts?: OwnParts } = {},
 ): Promise<Preview> {
   const borrowerId = opts.borrowerId ?? ctx.userId;
   const settings = await loanSettings(db, ctx.spaceId);
   const { box, lines } = await resolveSelection(db, ctx.spaceId, sel);
-  const outcome = checkLines(lines, { fromKitBox: box !== null });
+  const outcome = box
+    ? checkLines(lines, { fromKitBox: true, ambientC: settings.ambientC })
+    : await looseOutcome(db, ctx.spaceId, borrowerId, lines, opts.ownParts, settings.ambientC);
 
   const unavailable: string[] = [];
   const readyFor = await readyHoldTargets(db, ctx.spaceId, borrowerId);
@@ -101,6 +106,7 @@ export async function previewLoan(
     alternatives,
     openLoans,
     maxOpenLoans: settings.maxOpenLoans,
+    note: buildNote(outcome),
   };
 }
 

@@ -1,4 +1,5 @@
 import { z } from 'zod';
+import { kitSpecSchema } from '@/lib/electrical';
 
 // Inputs of the loan services, one place for the route handlers, the forms and the API document.
 const id = (what: string) => z.uuid({ error: `${what} must be an id` });
@@ -34,16 +35,40 @@ export const selectionSchema = z.union([boxSelection, looseSelection], {
 });
 export type Selection = z.infer<typeof selectionSchema>;
 
+/**
+ * Parts the borrower brings themselves ("I have my own LEDs: these"), described with the same fields
+ * as the compatibility check, so they are checked with what they borrow.
+ */
+export const ownPartsSchema = z
+  .object({
+    supply: kitSpecSchema.shape.supply.optional(),
+    driver: kitSpecSchema.shape.driver.optional(),
+    string: kitSpecSchema.shape.string.optional(),
+    /** The sinks the borrower's LEDs sit on, when they bring their own. */
+    heatSink: kitSpecSchema.shape.heatSink,
+  })
+  .strict()
+  .refine((o) => o.supply || o.driver || o.string || o.heatSink, {
+    error: 'describe at least one part (supply, driver, string or heatSink)',
+    path: ['supply'],
+  });
+export type OwnParts = z.output<typeof ownPartsSchema>;
+
 /** What the preview route takes: a selection, and for a steward lending at the bench, the borrower. */
 export const previewSchema = z
   .object({
     kitBoxId: id('kitBoxId').optional(),
     unitIds: z.array(id('unitIds entry')).max(50).optional(),
     counted: z.array(countedPickSchema).max(50).optional(),
+    ownParts: ownPartsSchema.optional(),
     borrowerId: id('borrowerId').optional(),
   })
   .strict()
-  .transform((b, ctx) => ({ selection: toSelection(b, ctx), borrowerId: b.borrowerId }));
+  .transform((b, ctx) => ({
+    selection: toSelection(b, ctx),
+    ownParts: b.ownParts,
+    borrowerId: b.borrowerId,
+  }));
 
 export const borrowSchema = z
   .object({
@@ -61,6 +86,7 @@ export const borrowSchema = z
       })
       .strict()
       .optional(),
+    ownParts: ownPartsSchema.optional(),
     borrowerId: id('borrowerId').optional(),
   })
   .strict()
@@ -68,15 +94,24 @@ export const borrowSchema = z
     selection: toSelection(b, ctx),
     acknowledgeCaution: b.acknowledgeCaution ?? false,
     override: b.override,
+    ownParts: b.ownParts,
     borrowerId: b.borrowerId,
   }));
 export type BorrowInput = z.output<typeof borrowSchema>;
 
 function toSelection(
-  b: { kitBoxId?: string; unitIds?: string[]; counted?: z.infer<typeof countedPickSchema>[] },
+  b: { kitBoxId?: string; unitIds?: string[]; counted?: z.infer<typeof countedPickSchema>[]; ownParts?: unknown },
   ctx: z.RefinementCtx,
 ): Selection {
   const loose = (b.unitIds?.length ?? 0) + (b.counted?.length ?? 0) > 0;
+  if (b.kitBoxId && b.ownParts) {
+    ctx.addIssue({
+      code: 'custom',
+      path: ['ownParts'],
+      message: 'a kit box is checked on its own contents; describe your own parts with loose parts',
+    });
+    return z.NEVER;
+  }
   if (b.kitBoxId && loose) {
     ctx.addIssue({
       code: 'custom',

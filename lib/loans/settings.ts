@@ -19,6 +19,8 @@ export type LoanSettings = DueRule & {
   maxRenewals: number;
   maxOpenHolds: number;
   spaceName: string;
+  /** Air temperature at the bench, °C: the heat check starts from it. */
+  ambientC: number;
 };
 
 export async function loanSettings(db: Db, spaceId: string): Promise<LoanSettings> {
@@ -32,6 +34,7 @@ export async function loanSettings(db: Db, spaceId: string): Promise<LoanSetting
       'max_open_loans',
       'reminder_days_before',
       'reminder_every_days',
+      'ambient_c',
       'settings',
     ])
     .where('id', '=', spaceId)
@@ -47,6 +50,7 @@ export async function loanSettings(db: Db, spaceId: string): Promise<LoanSetting
     maxOpenLoans: s.max_open_loans,
     reminderDaysBefore: s.reminder_days_before,
     reminderEveryDays: Math.max(1, s.reminder_every_days),
+    ambientC: s.ambient_c,
     ...extra,
   };
 }

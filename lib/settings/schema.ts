@@ -1,5 +1,6 @@
 import { z } from 'zod';
 import { LAYOUT_IDS } from '@/labels/layouts';
+import { MAX_AMBIENT_C, MIN_AMBIENT_C } from '@/lib/electrical';
 
 // The rules a space runs by. One schema for the form, the route handler and the service.
 
@@ -10,6 +11,10 @@ const zoneSet = new Set(TIME_ZONES);
 /** ISO 4217 alphabetic codes of currencies in use, as this runtime's Intl knows them. */
 export const CURRENCIES: readonly string[] = Intl.supportedValuesOf('currency');
 const currencySet = new Set(CURRENCIES);
+
+/** The range the compatibility check accepts for the ambient temperature (one source: the check). */
+export const AMBIENT_MIN_C = MIN_AMBIENT_C;
+export const AMBIENT_MAX_C = MAX_AMBIENT_C;
 
 const whole = (what: string, min: number, max: number) =>
   z
@@ -37,6 +42,12 @@ export const settingsSchema = z.object({
   reminderDaysBefore: whole('days', 0, 30),
   reminderEveryDays: whole('days', 1, 30),
   labelLayout: z.enum(LAYOUT_IDS, { error: `one of ${LAYOUT_IDS.join(', ')}` }),
+  /** Air temperature at the bench: where the heat check starts every junction temperature. */
+  ambientC: z
+    .number({ error: 'a temperature in °C' })
+    .finite('a temperature in °C')
+    .min(AMBIENT_MIN_C, `at least ${AMBIENT_MIN_C} °C`)
+    .max(AMBIENT_MAX_C, `at most ${AMBIENT_MAX_C} °C`),
 });
 export type Settings = z.infer<typeof settingsSchema>;
 export type SettingsFormInput = z.input<typeof settingsSchema>;

@@ -18,6 +18,7 @@ const COLUMNS = {
   reminderDaysBefore: 'reminder_days_before',
   reminderEveryDays: 'reminder_every_days',
   labelLayout: 'label_layout',
+  ambientC: 'ambient_c',
 } as const satisfies Record<keyof Settings, string>;
 
 type Column = (typeof COLUMNS)[keyof Settings];
@@ -39,6 +40,7 @@ function toSettings(row: Record<Column, string | number>): Settings {
     reminderDaysBefore: Number(row.reminder_days_before),
     reminderEveryDays: Number(row.reminder_every_days),
     labelLayout: knownLayout(String(row.label_layout)),
+    ambientC: Number(row.ambient_c),
   };
 }
 

@@ -25,6 +25,7 @@ const stored = () =>
       'reminder_days_before',
       'reminder_every_days',
       'label_layout',
+      'ambient_c',
     ])
     .where('id', '=', spaceId)
     .executeTakeFirstOrThrow();
@@ -65,6 +66,7 @@ describe('settings', () => {
       reminderDaysBefore: 0,
       reminderEveryDays: 2,
       labelLayout: 'letter-30',
+      ambientC: 18.5,
     };
     const res = await patch(body);
     expect(res.status).toBe(200);
@@ -79,6 +81,7 @@ describe('settings', () => {
       reminder_days_before: 0,
       reminder_every_days: 2,
       label_layout: 'letter-30',
+      ambient_c: 18.5,
     });
     const entry = await db
       .selectFrom('audit_log')
@@ -117,6 +120,8 @@ describe('settings', () => {
     ['reminderDaysBefore', { reminderDaysBefore: -1 }],
     ['reminderEveryDays', { reminderEveryDays: 0 }],
     ['labelLayout', { labelLayout: 'sheet-of-nothing' }],
+    ['ambientC', { ambientC: 60.5 }],
+    ['ambientC', { ambientC: '20' }],
     ['name', { name: '   ' }],
     ['(body)', {}],
     ['(body)', 'not json at all'],

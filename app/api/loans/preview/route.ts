@@ -10,8 +10,8 @@ import { previewSchema } from '@/lib/loans/schemas';
 // The check on the exact parts before borrowing: report, cautions, what to change, what works instead.
 export const POST = handle(async (req: Request) => {
   const ctx = await requireUser();
-  const { selection, borrowerId } = await parseJsonBody(req, previewSchema);
+  const { selection, borrowerId, ownParts } = await parseJsonBody(req, previewSchema);
   if (borrowerId && borrowerId !== ctx.userId && !isStaff(ctx)) throw new ForbiddenError();
-  const preview = await previewLoan(db, ctx, selection, { borrowerId });
+  const preview = await previewLoan(db, ctx, selection, { borrowerId, ownParts });
   return NextResponse.json({ preview });
 });
