@@ -1,15 +1,16 @@
 import { sql } from 'kysely';
 import { describe, expect, it } from 'vitest';
 import { listMessages } from '@/lib/mail/mailbox';
+import { runSaleSweep } from '@/lib/sales/jobs';
 import { makeUser, testDb } from '../helpers/db';
 import { HttpSession } from '../helpers/http';
-import { saleRow, setUpCounterShop } from './sales-fixtures';
+import { saleRow, setUpCounterShop, stripeOn } from './sales-fixtures';
 
 // No GET changes anything. A sale's status, the Books page and its reports, and the calendar link are
 // read any number of times with the rows of every table they could touch counted (and the sales of the
 // space fingerprinted) before and after, and no mail sent. The changes they used to make on the way
 // now happen on POSTs (a "check again" on the status page, the Books sweep button, a new calendar
-// address); those are shown to change what the GETs did not.
+// address) and in the scheduled sweep job; those are shown to change what the GETs did not.
 
 const db = testDb();
 const t = setUpCounterShop({ webhooks: false });
@@ -32,14 +33,17 @@ async function snapshot(spaceId: string, email: string) {
   return { ...counts.rows[0], mail: (await listMessages({ to: email })).length };
 }
 
-/** A card sale whose checkout session has run out (its expiry set in the past). */
-async function overdueSale(): Promise<string> {
+/**
+ * A card sale whose checkout session has run out (its expiry set `agoMs` in the past). Two minutes by
+ * default: overdue for a status check and the Books sweep, still inside the scheduled job's grace.
+ */
+async function overdueSale(agoMs = 2 * 60_000): Promise<string> {
   const res = await t.member.post('/api/sales', { lines: [{ partId: t.shop.parts.pads.id, qty: 2 }] });
   expect(res.status).toBe(201);
   const { sale } = (await res.json()) as { sale: { id: string } };
   await db
     .updateTable('sales')
-    .set({ expires_at: new Date(Date.now() - 3_600_000) })
+    .set({ expires_at: new Date(Date.now() - agoMs) })
     .where('id', '=', sale.id)
     .execute();
   return sale.id;
@@ -85,6 +89,19 @@ describe('GETs on money change nothing', () => {
     expect((await saleRow(db, saleId)).status).toBe('expired');
   });
 
+  it('the scheduled sweep job settles sales well past their expiry, and leaves the rest to the processor', async () => {
+    const late = await overdueSale(20 * 60_000);
+    const recent = await overdueSale();
+    const run = await runSaleSweep(db, () => stripeOn(t.fake.port), {
+      now: new Date(),
+      spaceIds: [t.shop.space.id],
+    });
+    expect(run).toMatchObject({ spaces: 1, checked: 1, expired: 1, spacesNotReached: 0 });
+    expect((await saleRow(db, late)).status).toBe('expired');
+    expect((await saleRow(db, recent)).status).toBe('pending');
+    expect(await sessionStatus(recent)).toBe('open');
+  });
+
   it('GET /api/calendar/link writes no token; POST makes one, which GET then shows', async () => {
     const person = await makeUser(db, t.shop.space.id, ['member'], 'Calendar reader');
     const s = new HttpSession();
@@ -97,7 +114,11 @@ describe('GETs on money change nothing', () => {
       expect(await res.json()).toEqual({ url: null });
     }
     expect(await snapshot(t.shop.space.id, person.email)).toEqual(before);
-    const row = await db.selectFrom('users').select('calendar_token').where('id', '=', person.id).executeTakeFirstOrThrow();
+    const row = await db
+      .selectFrom('users')
+      .select('calendar_token')
+      .where('id', '=', person.id)
+      .executeTakeFirstOrThrow();
     expect(row.calendar_token).toBeNull();
 
     const made = await s.post('/api/calendar/link', {});
@@ -107,4 +128,3 @@ describe('GETs on money change nothing', () => {
     expect(await (await s.get('/api/calendar/link')).json()).toEqual({ url });
   });
 });
-

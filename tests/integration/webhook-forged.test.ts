@@ -114,6 +114,11 @@ describe('a payment for a checkout session Ohmstead did not open', () => {
     expect(listed).toEqual([
       expect.objectContaining({ type: 'checkout.session.completed', saleId: sale.id }),
     ]);
+    const books = await (await t.treasurer.get('/books')).text();
+    expect(books).toContain('To investigate');
+    expect(books).toContain(foreign.id);
+    const csv = await (await t.treasurer.get('/api/books/export')).text();
+    expect(csv.split('\r\n').find((line) => line.includes(foreign.id))).toMatch(/to investigate/);
 
     // The genuine session still pays the sale, once, and moves the stock once.
     expect((await payOnFake(t.fake, sale.checkout_session_id!)).status).toBe(200);
