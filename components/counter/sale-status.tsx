@@ -1,5 +1,5 @@
 'use client';
-import { useMutation, useQuery } from '@tanstack/react-query';
+import { useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
 import { CircleCheck, Clock, OctagonX } from 'lucide-react';
 import Link from 'next/link';
 import { useEffect } from 'react';
@@ -10,8 +10,11 @@ import { formatMoney } from '@/lib/money';
 const PAID = new Set(['paid', 'partially_refunded', 'refunded']);
 
 // Where the processor's page sends the buyer back. The sale's state comes from the server, which
-// hears it from the signed webhook; this page only polls until the sale is no longer pending.
+// hears it from the signed webhook; this page polls (reads only) until the sale is no longer pending.
+// "Check again" asks the processor directly (a POST), and is sent once by itself when the payment
+// page has run out, so a sale nobody can pay any more ends without waiting for anyone.
 export function SaleStatus({ saleId, cancelled }: { saleId: string; cancelled: boolean }) {
+  const queryClient = useQueryClient();
   const cancel = useMutation({ mutationFn: () => callApi(`/api/sales/${saleId}/cancel`, 'POST') });
   const { mutate: cancelNow } = cancel;
   useEffect(() => {
@@ -24,6 +27,17 @@ export function SaleStatus({ saleId, cancelled }: { saleId: string; cancelled: b
     refetchInterval: (query) => (query.state.data?.status === 'pending' ? 1500 : false),
     staleTime: 0,
   });
+  const check = useMutation({
+    mutationFn: () => callApi<{ sale: SaleView }>(`/api/sales/${saleId}/settle`, 'POST').then((r) => r.sale),
+    onSuccess: (sale) => queryClient.setQueryData(['sale', saleId], sale),
+  });
+  const { mutate: checkNow, isIdle: notCheckedYet } = check;
+  const runOut =
+    q.data?.status === 'pending' && q.data.expiresAt !== null && new Date(q.data.expiresAt) < new Date();
+  useEffect(() => {
+    if (runOut && notCheckedYet) checkNow();
+  }, [runOut, notCheckedYet, checkNow]);
+
   if (q.isPending) return <p role="status">Looking up the sale…</p>;
   if (q.isError) return <p role="alert">{errorText(q.error)}</p>;
   const sale = q.data;
@@ -32,9 +46,20 @@ export function SaleStatus({ saleId, cancelled }: { saleId: string; cancelled: b
   return (
     <div className="card space-y-3" data-sale-status={sale.status}>
       {sale.status === 'pending' ? (
-        <p role="status" className="flex items-center gap-2 text-lg font-bold">
-          <Clock aria-hidden className="size-6" /> Waiting for the card processor to confirm…
-        </p>
+        <div className="space-y-2">
+          <p role="status" className="flex items-center gap-2 text-lg font-bold">
+            <Clock aria-hidden className="size-6" /> Waiting for the card processor to confirm…
+          </p>
+          <button
+            type="button"
+            className="btn-quiet"
+            onClick={() => check.mutate()}
+            disabled={check.isPending}
+          >
+            {check.isPending ? 'Asking the processor…' : 'Check again'}
+          </button>
+          {check.isError ? <p role="alert">{errorText(check.error)}</p> : null}
+        </div>
       ) : PAID.has(sale.status) ? (
         <p
           role="status"

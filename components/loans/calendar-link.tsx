@@ -8,8 +8,12 @@ import { ErrorNote } from './error-note';
 export function CalendarLink() {
   const ids = useId();
   const [url, setUrl] = useState<string | null>(null);
+  // Reading the address writes nothing; the first time there is none yet, so one is made (a POST).
   const show = useMutation({
-    mutationFn: () => callApi<{ url: string }>('/api/calendar/link', 'GET'),
+    mutationFn: async () => {
+      const current = await callApi<{ url: string | null }>('/api/calendar/link', 'GET');
+      return current.url ? current : callApi<{ url: string }>('/api/calendar/link', 'POST');
+    },
     onSuccess: (d) => setUrl(d.url),
   });
   const rotate = useMutation({

@@ -3,6 +3,7 @@
 // very same rules, and unit tests can feed it text directly.
 import Papa from 'papaparse';
 import type { PartCategory } from '@/db/types';
+import { csvUnguard, writeCsv } from '@/lib/csv';
 import { minorUnitExponent, parseMoney } from '@/lib/money';
 import { CATEGORIES, CATEGORY_WORDS } from './schemas';
 import { parseSpecs } from './specs';
@@ -78,7 +79,7 @@ function specKey(category: PartCategory, written: string): string {
   return SPEC_FIELDS[category]?.find((f) => f.key.toLowerCase() === written.toLowerCase())?.key ?? written;
 }
 /** Undo the export's guard against spreadsheet formulas ('=…). */
-const unguard = (v: string) => (/^'[=+\-@\t\r]/.test(v) ? v.slice(1) : v);
+const unguard = csvUnguard;
 
 const TRUE = new Set(['yes', 'y', 'true', '1', 'x']);
 const FALSE = new Set(['no', 'n', 'false', '0', '']);
@@ -266,9 +267,6 @@ export function importFields(errors: RowError[]): Record<string, string[]> {
   return fields;
 }
 
-/** A spreadsheet would run a cell starting with = + - @ as a formula: keep it text. */
-const guard = (v: unknown) => (typeof v === 'string' && /^[=+\-@\t\r]/.test(v) ? `'${v}` : v);
-
 export type ExportPart = {
   sku: string;
   name: string;
@@ -330,7 +328,7 @@ export function partsToCsv(parts: ExportPart[], currency: string): string {
               : 'no'
             : String(p.specs[k]),
       ),
-    ].map(guard),
+    ],
   );
-  return Papa.unparse({ fields, data }, { newline: '\r\n' });
+  return writeCsv(fields, data); // every cell guarded against spreadsheet formulas
 }

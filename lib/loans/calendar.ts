@@ -11,16 +11,17 @@ import { NotFoundError } from '@/lib/errors';
 const newToken = () => randomBytes(24).toString('base64url');
 const TOKEN_SHAPE = /^[A-Za-z0-9_-]{32}$/;
 
-export async function calendarToken(db: Db, userId: string): Promise<string> {
+/** The person's current feed token, or null before they ask for one (reading writes nothing). */
+export async function calendarToken(db: Db, userId: string): Promise<string | null> {
   const row = await db
-    .updateTable('users')
-    .set({ calendar_token: sql<string>`coalesce(calendar_token, ${newToken()})` })
+    .selectFrom('users')
+    .select('calendar_token')
     .where('id', '=', userId)
-    .returning('calendar_token')
-    .executeTakeFirstOrThrow();
-  return row.calendar_token!;
+    .executeTakeFirst();
+  return row?.calendar_token ?? null;
 }
 
+/** A new token (the first one, or one that replaces and so revokes the old). */
 export async function rotateCalendarToken(db: Db, userId: string): Promise<string> {
   const token = newToken();
   await db.updateTable('users').set({ calendar_token: token }).where('id', '=', userId).execute();

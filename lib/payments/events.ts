@@ -2,7 +2,9 @@ import 'server-only';
 import type Stripe from 'stripe';
 import type { Db } from '@/db/connect';
 import type { Sale } from '@/db/types';
-import { markSaleEnded, markSalePaid } from '@/lib/sales/paid';
+import { acceptPayment } from '@/lib/sales/accept';
+import { markSaleEnded } from '@/lib/sales/paid';
+import { recordRefusedPayment } from '@/lib/sales/refused';
 import { applyRefund, lockSale, parseRefundMetadata, refundsOfSale } from '@/lib/sales/refunds';
 
 export type EventOutcome = {
@@ -27,23 +29,32 @@ type Obj = {
   metadata?: Record<string, string> | null;
   client_reference_id?: string | null;
   payment_intent?: unknown;
+  amount?: number | null;
+  amount_total?: number | null;
+  currency?: string | null;
 };
 
-async function findSale(trx: Db, obj: Obj): Promise<Sale | undefined> {
-  const saleId = asUuid(obj.metadata?.saleId) ?? asUuid(obj.client_reference_id);
-  if (saleId)
-    return trx
-      .selectFrom('sales')
-      .selectAll()
-      .where('id', '=', saleId)
-      .where('reverses_sale_id', 'is', null)
-      .executeTakeFirst();
-  const pi = idOf(obj.payment_intent);
-  if (!pi) return undefined;
+/**
+ * The sale an event is about, found only through ids Ohmstead stored itself: the checkout session it
+ * opened for the sale, or the payment intent of a payment it already accepted. The sale id in the
+ * event's metadata is never enough: anyone who can open a session at the processor can write it.
+ */
+async function ourSale(trx: Db, event: Stripe.Event, obj: Obj): Promise<Sale | undefined> {
+  const q = trx.selectFrom('sales').selectAll().where('reverses_sale_id', 'is', null);
+  if (event.type.startsWith('checkout.session.'))
+    return obj.id ? q.where('checkout_session_id', '=', obj.id).executeTakeFirst() : undefined;
+  const pi = event.type.startsWith('payment_intent.') ? (obj.id ?? null) : idOf(obj.payment_intent);
+  return pi ? q.where('payment_intent_id', '=', pi).executeTakeFirst() : undefined;
+}
+
+/** The sale the event's metadata names, when it is not ours by stored id: only ever reported, never changed. */
+async function claimedSale(trx: Db, obj: Obj): Promise<Pick<Sale, 'id' | 'space_id' | 'status'> | undefined> {
+  const id = asUuid(obj.metadata?.saleId) ?? asUuid(obj.client_reference_id);
+  if (!id) return undefined;
   return trx
     .selectFrom('sales')
-    .selectAll()
-    .where('payment_intent_id', '=', pi)
+    .select(['id', 'space_id', 'status'])
+    .where('id', '=', id)
     .where('reverses_sale_id', 'is', null)
     .executeTakeFirst();
 }
@@ -61,6 +72,15 @@ const done = (outcome: string, extra: Partial<EventOutcome> = {}): EventOutcome 
   ...extra,
 });
 
+type Found = {
+  event: Stripe.Event;
+  obj: Obj;
+  /** Ours by a stored id. */
+  sale: Sale | undefined;
+  /** Named in the metadata only. */
+  claimed: Pick<Sale, 'id' | 'space_id' | 'status'> | undefined;
+};
+
 /**
  * Applies one verified processor event, once. The event id goes into payment_events first (its
  * primary key): a second delivery finds it there and changes nothing, and concurrent deliveries of the
@@ -71,8 +91,10 @@ const done = (outcome: string, extra: Partial<EventOutcome> = {}): EventOutcome 
 export async function applyPaymentEvent(db: Db, event: Stripe.Event): Promise<EventOutcome> {
   const obj = event.data.object as unknown as Obj;
   return db.transaction().execute(async (trx) => {
-    const sale = await findSale(trx, obj);
-    const spaceId = sale?.space_id ?? (await knownSpace(trx, asUuid(obj.metadata?.spaceId)));
+    const sale = await ourSale(trx, event, obj);
+    const claimed = sale ? undefined : await claimedSale(trx, obj);
+    const spaceId =
+      sale?.space_id ?? claimed?.space_id ?? (await knownSpace(trx, asUuid(obj.metadata?.spaceId)));
     const inserted = await trx
       .insertInto('payment_events')
       .values({
@@ -89,7 +111,7 @@ export async function applyPaymentEvent(db: Db, event: Stripe.Event): Promise<Ev
       .executeTakeFirst();
     if (!inserted) return done('duplicate delivery: already applied');
 
-    const result = await dispatch(trx, event, sale);
+    const result = await dispatch(trx, { event, obj, sale, claimed });
     await trx
       .updateTable('payment_events')
       .set({ outcome: result.outcome })
@@ -99,31 +121,64 @@ export async function applyPaymentEvent(db: Db, event: Stripe.Event): Promise<Ev
   });
 }
 
-async function dispatch(trx: Db, event: Stripe.Event, sale: Sale | undefined): Promise<EventOutcome> {
+/** An event that names one of our sales without being its own: nothing changes; the treasurer is told. */
+async function refuse(trx: Db, f: Found, why: string): Promise<EventOutcome> {
+  await recordRefusedPayment(trx, {
+    spaceId: f.claimed!.space_id,
+    saleId: f.claimed!.id,
+    type: f.event.type,
+    eventId: f.event.id,
+    objectId: f.obj.id ?? null,
+    amountMinor: f.obj.amount_total ?? f.obj.amount ?? null,
+    currency: f.obj.currency ?? null,
+    why,
+  });
+  return done(`refused: ${why}`);
+}
+
+const notOurSession = (f: Found) =>
+  `checkout session ${f.obj.id ?? '(none)'} is not the one Ohmstead opened for sale ${f.claimed!.id}`;
+
+async function dispatch(trx: Db, f: Found): Promise<EventOutcome> {
+  const { event, sale, claimed } = f;
   switch (event.type) {
     case 'checkout.session.completed':
     case 'checkout.session.async_payment_succeeded': {
       const session = event.data.object;
+      if (!sale) return claimed ? refuse(trx, f, notOurSession(f)) : done('no matching sale');
       if (session.payment_status !== 'paid') return done('session complete, payment not yet paid');
-      return paid(trx, sale, event, {
-        pi: idOf(session.payment_intent),
-        amount: session.amount_total,
+      const out = await acceptPayment(trx, sale, {
+        sessionId: session.id,
+        paymentIntentId: idOf(session.payment_intent),
+        amountMinor: session.amount_total,
         currency: session.currency,
+        paidAt: new Date(event.created * 1000),
+        source: event.id,
+        type: event.type,
+        eventId: event.id,
       });
+      if ('refused' in out) return done(`refused: ${out.refused}`);
+      return out.changed
+        ? done('sale paid', { receipts: [sale.id] })
+        : done(`no change: sale already ${out.sale?.status}`);
     }
-    case 'payment_intent.succeeded': {
-      const pi = event.data.object;
-      return paid(trx, sale, event, { pi: pi.id, amount: pi.amount_received, currency: pi.currency });
-    }
-    case 'checkout.session.expired':
-    case 'checkout.session.async_payment_failed':
+    case 'payment_intent.succeeded':
     case 'payment_intent.payment_failed':
     case 'payment_intent.canceled': {
-      if (!sale) return done('no matching sale');
-      const status =
-        event.type === 'checkout.session.expired' || event.type === 'payment_intent.canceled'
-          ? 'expired'
-          : 'failed';
+      // A payment intent is tied to our sale only once the sale's own checkout session reports it as
+      // paid; until then its session's events decide (a declined card leaves the session open for
+      // another try; the session's expiry ends the sale).
+      if (sale) return done(`no change: sale already ${sale.status}`);
+      if (claimed)
+        return done(
+          `no change: ${event.type} names sale ${claimed.id} (${claimed.status}); its checkout session decides`,
+        );
+      return done('no matching sale');
+    }
+    case 'checkout.session.expired':
+    case 'checkout.session.async_payment_failed': {
+      if (!sale) return claimed ? refuse(trx, f, notOurSession(f)) : done('no matching sale');
+      const status = event.type === 'checkout.session.expired' ? 'expired' : 'failed';
       const changed = await markSaleEnded(trx, sale.id, status, { source: event.id });
       return done(changed ? `sale ${status}` : `no change: sale already ${sale.status}`);
     }
@@ -133,12 +188,22 @@ async function dispatch(trx: Db, event: Stripe.Event, sale: Sale | undefined): P
       const refund = event.data.object as Stripe.Refund;
       if (refund.status !== 'succeeded' && refund.status !== 'pending')
         return done(`refund ${refund.status}: nothing to book`);
-      if (!sale) return done('no matching sale');
+      if (!sale)
+        return claimed
+          ? refuse(
+              trx,
+              f,
+              `refund ${refund.id} is not of the payment Ohmstead accepted for sale ${claimed.id}`,
+            )
+          : done('no matching sale');
       return done(await bookProcessorRefund(trx, sale.id, refund, event.id));
     }
     case 'charge.refunded': {
       const charge = event.data.object;
-      if (!sale) return done('no matching sale');
+      if (!sale)
+        return claimed
+          ? refuse(trx, f, `charge ${charge.id} is not the payment Ohmstead accepted for sale ${claimed.id}`)
+          : done('no matching sale');
       const booked = await refundsOfSale(trx, sale.id)
         .select((eb) => eb.fn.coalesce(eb.fn.sum<number>('amount_minor'), eb.lit(0)).as('n'))
         .where('processor_refund_id', 'is not', null)
@@ -150,26 +215,6 @@ async function dispatch(trx: Db, event: Stripe.Event, sale: Sale | undefined): P
     default:
       return done('ignored: not an event we act on');
   }
-}
-
-async function paid(
-  trx: Db,
-  sale: Sale | undefined,
-  event: Stripe.Event,
-  money: { pi: string | null; amount: number | null; currency: string | null },
-): Promise<EventOutcome> {
-  if (!sale) return done('no matching sale');
-  const out = await markSalePaid(trx, {
-    saleId: sale.id,
-    paymentIntentId: money.pi,
-    amountMinor: money.amount,
-    currency: money.currency,
-    paidAt: new Date(event.created * 1000),
-    source: event.id,
-  });
-  return out.changed
-    ? done('sale paid', { receipts: [sale.id] })
-    : done(`no change: sale already ${out.sale?.status}`);
 }
 
 /** Books a processor refund on its sale (our own refunds carry their lines in the metadata). */

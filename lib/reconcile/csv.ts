@@ -1,4 +1,4 @@
-import Papa from 'papaparse';
+import { writeCsv } from '@/lib/csv';
 import { minorUnitExponent } from '@/lib/money';
 import type { Reconciliation } from './report';
 
@@ -20,7 +20,7 @@ const STATUS_WORDS = {
   amount_differs: 'amounts differ',
 } as const;
 
-/** The reconciliation as CSV: one row per line of the table, then the period's totals. */
+/** The reconciliation as CSV: one row per line of the table, the refused payments, then the totals. */
 export function reconciliationCsv(r: Reconciliation): string {
   const money = (n: number | null) => decimalAmount(n, r.currency);
   const rows = r.rows.map((x) => ({
@@ -59,24 +59,35 @@ export function reconciliationCsv(r: Reconciliation): string {
     currency: r.currency,
     ours: money(minor as number),
   }));
-  return Papa.unparse([...rows, ...totals], {
-    columns: [
-      'month',
-      'status',
-      'kind',
-      'at',
-      'sale_id',
-      'refund_id',
-      'buyer',
-      'currency',
-      'ours',
-      'processor',
-      'difference',
-      'fee',
-      'net',
-      'processor_id',
-      'balance_transaction',
-      'note',
-    ],
-  });
+  const investigate = r.investigate.map((x) => ({
+    month: r.month,
+    status: 'to investigate',
+    kind: x.type,
+    at: x.at,
+    sale_id: x.saleId ?? '',
+    currency: x.currency ?? '',
+    processor: x.amountMinor === null || !x.currency ? '' : decimalAmount(x.amountMinor, x.currency),
+    processor_id: x.objectId ?? '',
+    note: `Refused: ${x.why}`,
+  }));
+  return writeCsv(COLUMNS, [...rows, ...investigate, ...totals]);
 }
+
+const COLUMNS = [
+  'month',
+  'status',
+  'kind',
+  'at',
+  'sale_id',
+  'refund_id',
+  'buyer',
+  'currency',
+  'ours',
+  'processor',
+  'difference',
+  'fee',
+  'net',
+  'processor_id',
+  'balance_transaction',
+  'note',
+];

@@ -116,9 +116,13 @@ export function matchPeriod(input: {
   };
 
   for (const t of theirs.filter((x) => x.type === 'charge')) {
+    // A charge is a sale's own when it is the payment we accepted for it (its payment intent). The sale
+    // named in the metadata only counts when we hold no payment for that sale: anyone who can open a
+    // session at the processor can write a sale's id there.
+    const named = t.saleId ? salesById.get(t.saleId) : undefined;
+    const foreign = Boolean(named?.paymentIntentId && named.paymentIntentId !== t.paymentIntentId);
     const sale =
-      (t.saleId ? salesById.get(t.saleId) : undefined) ??
-      (t.paymentIntentId ? salesByPi.get(t.paymentIntentId) : undefined);
+      (t.paymentIntentId ? salesByPi.get(t.paymentIntentId) : undefined) ?? (foreign ? undefined : named);
     if (sale && periodSaleIds.has(sale.id) && !usedSales.has(sale.id)) {
       usedSales.add(sale.id);
       const same = Math.abs(t.amountMinor) === sale.totalMinor;
@@ -134,6 +138,20 @@ export function matchPeriod(input: {
         ...theirPart(t),
         differenceMinor: Math.abs(t.amountMinor) - sale.totalMinor,
         note: same ? '' : 'The processor charged a different amount from the sale.',
+      });
+    } else if (foreign && !sale && inPeriod(t.created)) {
+      rows.push({
+        key: t.txnId,
+        kind: 'charge',
+        status: 'theirs_only',
+        at: t.created.toISOString(),
+        saleId: named!.id,
+        refundId: null,
+        buyer: named!.buyer,
+        oursMinor: null,
+        ...theirPart(t),
+        differenceMinor: null,
+        note: 'A charge that names our sale but is not the payment we accepted for it: look into it.',
       });
     } else if (inPeriod(t.created)) {
       const note = !sale

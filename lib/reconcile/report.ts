@@ -2,6 +2,7 @@ import type Stripe from 'stripe';
 import type { Db } from '@/db/connect';
 import type { Ctx } from '@/lib/auth/roles';
 import { monthKey, monthRange, spaceClock, type Month } from '@/lib/sales/periods';
+import { refusedPayments, type ToInvestigate } from './investigate';
 import { fetchLedger, type TheirTxn } from './ledger';
 import { matchPeriod, type OurRefund, type OurSale, type ReconRow, type ReconTotals } from './match';
 
@@ -13,6 +14,8 @@ export type Reconciliation = {
   currency: string;
   closed: { closedAt: string; closedBy: string | null } | null;
   rows: ReconRow[];
+  /** Payments the processor reported that Ohmstead refused to count: the treasurer looks into each. */
+  investigate: ToInvestigate[];
   totals: ReconTotals;
   payouts: { id: string | null; amountMinor: number; at: string }[];
 };
@@ -54,6 +57,7 @@ export async function reconcileMonth(
     currency,
     closed: closed ? { closedAt: closed.closed_at.toISOString(), closedBy: closed.name } : null,
     rows: result.rows,
+    investigate: await refusedPayments(db, ctx.spaceId, from, to),
     totals: result.totals,
     payouts: result.payouts.map((p) => ({
       id: p.sourceId,

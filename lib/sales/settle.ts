@@ -1,9 +1,11 @@
 import Stripe from 'stripe';
 import type { Db } from '@/db/connect';
 import type { Sale, SaleStatus } from '@/db/types';
-import { markSaleEnded, markSalePaid } from './paid';
+import { acceptPayment, type SaleMoney } from './accept';
+import { markSaleEnded } from './paid';
 
-export type Settled = { saleId: string; status: SaleStatus; receipt?: boolean };
+/** `refused`: the processor reports money that is not this sale's payment (see ./accept.ts). */
+export type Settled = { saleId: string; status: SaleStatus; receipt?: boolean; refused?: string };
 
 const idOf = (v: string | { id: string } | null | undefined) => (typeof v === 'string' ? v : (v?.id ?? null));
 
@@ -15,7 +17,7 @@ const idOf = (v: string | { id: string } | null | undefined) => (typeof v === 's
 export async function settleSale(
   db: Db,
   stripe: Stripe,
-  sale: Pick<Sale, 'id' | 'status' | 'checkout_session_id'>,
+  sale: SaleMoney & Pick<Sale, 'status'>,
   opts: { expireOpen: boolean; actorId?: string | null; source: string },
 ): Promise<Settled> {
   if (sale.status !== 'pending') return { saleId: sale.id, status: sale.status };
@@ -61,15 +63,19 @@ export async function settleSale(
     const charge = pi && typeof pi === 'object' ? pi.latest_charge : null;
     const chargedAt = charge && typeof charge === 'object' ? new Date(charge.created * 1000) : undefined;
     const out = await db.transaction().execute((trx) =>
-      markSalePaid(trx, {
-        saleId: sale.id,
+      acceptPayment(trx, sale, {
+        sessionId: session.id,
         paymentIntentId: idOf(pi),
         amountMinor: session.amount_total,
         currency: session.currency,
         paidAt: chargedAt,
         source: opts.source,
+        type: opts.source,
+        eventId: null,
       }),
     );
+    if ('refused' in out)
+      return { saleId: sale.id, status: out.sale?.status ?? sale.status, refused: out.refused };
     return { saleId: sale.id, status: 'paid', receipt: out.changed };
   }
   if (session.status === 'expired') {

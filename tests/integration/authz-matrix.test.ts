@@ -76,6 +76,7 @@ export const MATRIX: Record<string, Row> = {
   'POST /api/reminders': { who: W, ok: 400, body: EMPTY },
   'POST /api/sales/[id]/cancel': { who: MS, ok: 404 },
   'POST /api/sales/[id]/refunds': { who: T, ok: [400, 404], body: EMPTY },
+  'POST /api/sales/[id]/settle': { who: 'user', ok: 404 },
   'GET /api/sales/[id]': { who: 'user', ok: 404 },
   'POST /api/sales/cash': { who: ['steward'], ok: 400, body: EMPTY },
   'GET /api/sales/catalog': { who: MS, ok: 200 },

@@ -6,14 +6,17 @@ import { formatDateTime } from '@/lib/format';
 import { formatMoney } from '@/lib/money';
 import { salesByMonthAndCategory } from '@/lib/reconcile/chart';
 import type { Reconciliation } from '@/lib/reconcile/report';
-import { monthOrCurrent, reconcileForBooks, sweepForBooks } from '@/lib/reconcile/run';
+import { monthOrCurrent, reconcileForBooks } from '@/lib/reconcile/run';
 import { salesOfMonth } from '@/lib/reconcile/sales-list';
 import { monthLabel, monthRange, shiftMonth, spaceClock } from '@/lib/sales/periods';
 import { monthInput } from '@/lib/sales/schemas';
+import { countOverdueSales } from '@/lib/sales/sweep';
 import { CloseMonth } from '@/components/books/close-month';
 import { ReconTable } from '@/components/books/recon-table';
 import { SalesChart } from '@/components/books/sales-chart';
 import { SalesTable } from '@/components/books/sales-table';
+import { SweepButton } from '@/components/books/sweep-button';
+import { ToInvestigate } from '@/components/books/to-investigate';
 import { Totals } from '@/components/books/totals';
 import { PageTitle } from '@/components/ui/page-title';
 
@@ -27,13 +30,9 @@ export default async function BooksPage({ searchParams }: { searchParams: Promis
   const { timeZone, currency } = await spaceClock(db, ctx.spaceId);
   const label = monthLabel(month);
 
-  // Every look at the books first settles card sales left waiting past their expiry.
-  let sweepProblem: string | null = null;
-  try {
-    await sweepForBooks(ctx);
-  } catch (err) {
-    sweepProblem = err instanceof Error ? err.message : String(err);
-  }
+  // Looking at the books changes nothing: card sales left waiting past their expiry are counted here
+  // and settled by the sweep button (a POST), the processor's own expiry events and the status page.
+  const waiting = await countOverdueSales(db, { spaceId: ctx.spaceId, now: now() });
   let report: Reconciliation | null = null;
   let ledgerProblem: string | null = null;
   try {
@@ -63,9 +62,7 @@ export default async function BooksPage({ searchParams }: { searchParams: Promis
         </a>
       </PageTitle>
 
-      {sweepProblem ? (
-        <p className="card text-sm">Pending card sales could not be checked just now: {sweepProblem}</p>
-      ) : null}
+      {waiting > 0 ? <SweepButton waiting={waiting} /> : null}
 
       <section aria-labelledby="recon" className="card space-y-4">
         <div className="flex flex-wrap items-start justify-between gap-3">
@@ -86,6 +83,7 @@ export default async function BooksPage({ searchParams }: { searchParams: Promis
           <>
             <Totals totals={report.totals} currency={currency} />
             <ReconTable rows={report.rows} currency={currency} timeZone={timeZone} />
+            <ToInvestigate items={report.investigate} timeZone={timeZone} />
             {report.payouts.length ? (
               <div>
                 <h3 className="font-semibold">Payouts to the bank</h3>

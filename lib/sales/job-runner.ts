@@ -1,0 +1,47 @@
+import PgBoss from 'pg-boss';
+import { createDb } from '@/db/connect';
+import { now } from '@/lib/clock';
+import { sendReceipts } from '@/lib/mail/sales';
+import { paymentsClient } from '@/lib/payments/client';
+import { runSaleSweep, SALE_SWEEP_CRON, SALE_SWEEP_QUEUE } from './jobs';
+
+// Runs the scheduled sale sweep (./jobs.ts) on pg-boss, in the app process, the same way the reminder
+// sweep runs (lib/reminders/jobs.ts): the schedule lives in PostgreSQL, so several app processes share
+// one timetable, and the sweep is safe to repeat (every change it makes is a guarded status change).
+
+const g = globalThis as typeof globalThis & { ohmSaleSweepRunner?: Promise<PgBoss> };
+
+function startSaleJobs(connectionString: string): Promise<PgBoss> {
+  g.ohmSaleSweepRunner ??= (async () => {
+    const boss = new PgBoss({ connectionString, max: 2, application_name: 'ohmstead-sale-jobs' });
+    boss.on('error', (err) => console.error('[jobs]', err.message));
+    const db = createDb(connectionString, 2);
+    await boss.start();
+    // 'stately': at most one sweep queued and one running at any time.
+    await boss.createQueue(SALE_SWEEP_QUEUE, { name: SALE_SWEEP_QUEUE, policy: 'stately', retryLimit: 3 });
+    await boss.schedule(SALE_SWEEP_QUEUE, SALE_SWEEP_CRON, {}, { tz: 'UTC' });
+    await boss.work(SALE_SWEEP_QUEUE, async () => {
+      const run = await runSaleSweep(db, paymentsClient, { now: now() });
+      await sendReceipts(db, run.receipts);
+      if (run.checked || run.spacesNotReached)
+        console.log('[jobs] sale sweep', { ...run, receipts: run.receipts.length });
+    });
+    return boss;
+  })().catch((err) => {
+    g.ohmSaleSweepRunner = undefined;
+    throw err;
+  });
+  return g.ohmSaleSweepRunner;
+}
+
+/** Starts the sale sweep in this server process unless OHM_JOBS=0; a database not up yet is retried in 30 s. */
+export function startSaleJobsInThisProcess(env: NodeJS.ProcessEnv = process.env): void {
+  if (env.OHM_JOBS === '0' || !env.DATABASE_URL) return;
+  const url = env.DATABASE_URL;
+  const attempt = () =>
+    startSaleJobs(url).catch((err: Error) => {
+      console.error('[jobs] sale sweep did not start; retrying in 30 s:', err.message);
+      setTimeout(attempt, 30_000).unref();
+    });
+  void attempt();
+}
