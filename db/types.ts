@@ -44,6 +44,7 @@ export interface UsersTable {
   email: string;
   name: string;
   password_hash: string | null;
+  /** Account-wide switch for an operator; admins switch access per space (memberships.disabled_at). */
   disabled_at: TimestampNullable;
   last_space_id: string | null;
   /** Secret of the person's iCalendar feed (migration 0002_loans); null until first asked for. */
@@ -55,7 +56,18 @@ export interface MembershipsTable {
   space_id: string;
   user_id: string;
   roles: Role[];
+  /** Access to this space switched off by its admins (migration 0004); other spaces are unaffected. */
+  disabled_at: TimestampNullable;
   created_at: TimestampDefault;
+}
+
+/** One row per sign-in; the session cookie names it and sign-out ends it (migration 0004). */
+export interface AuthSessionsTable {
+  id: Generated<string>;
+  user_id: string;
+  created_at: TimestampDefault;
+  expires_at: Timestamp;
+  ended_at: TimestampNullable;
 }
 
 export interface InvitationsTable {
@@ -350,6 +362,7 @@ export interface Database {
   spaces: SpacesTable;
   users: UsersTable;
   memberships: MembershipsTable;
+  auth_sessions: AuthSessionsTable;
   invitations: InvitationsTable;
   sign_in_tokens: SignInTokensTable;
   label_codes: LabelCodesTable;

@@ -2,8 +2,9 @@
 import { signIn } from 'next-auth/react';
 import { useRouter } from 'next/navigation';
 import { useState } from 'react';
+import { safeNextPath } from '@/lib/auth/safe-next';
 
-export function LinkSignIn({ token }: { token: string }) {
+export function LinkSignIn({ token, next }: { token: string; next: string }) {
   const router = useRouter();
   const [error, setError] = useState('');
   const [busy, setBusy] = useState(false);
@@ -12,7 +13,7 @@ export function LinkSignIn({ token }: { token: string }) {
     const res = await signIn('email-link', { token, redirect: false });
     setBusy(false);
     if (res?.ok && !res.error) {
-      router.push('/today');
+      router.push(safeNextPath(next));
       router.refresh();
     } else setError('This link has been used or has expired. Ask for a new one from the sign-in page.');
   }

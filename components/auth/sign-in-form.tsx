@@ -2,10 +2,11 @@
 import { signIn } from 'next-auth/react';
 import { useRouter } from 'next/navigation';
 import { useState } from 'react';
+import { safeNextPath } from '@/lib/auth/safe-next';
 
 const MESSAGES: Record<string, string> = {
   CredentialsSignin: 'That e-mail and password do not match an active account.',
-  TooManyAttempts: 'Too many attempts for this e-mail. Wait 15 minutes, or ask for a sign-in link.',
+  TooManyAttempts: 'Too many failed attempts for this e-mail from here. Wait a minute and try again, or ask for a sign-in link.',
 };
 
 export function SignInForm({ next, initialError }: { next: string; initialError?: string }) {
@@ -26,7 +27,7 @@ export function SignInForm({ next, initialError }: { next: string; initialError?
     });
     setBusy(false);
     if (res?.ok && !res.error) {
-      router.push(next);
+      router.push(safeNextPath(next)); // checked again here: the prop is the only way in
       router.refresh();
     } else setError(MESSAGES[res?.error ?? ''] ?? 'Sign-in failed.');
   }

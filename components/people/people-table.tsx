@@ -13,7 +13,7 @@ import { errorText, sendJson } from './send-json';
 
 const sameRoles = (a: Role[], b: Role[]) => a.length === b.length && a.every((r) => b.includes(r));
 
-/** One person's roles and account switch, saved through PATCH /api/people/:id. */
+/** One person's roles and access switch for this space, saved through PATCH /api/people/:id. */
 function PersonControls({ person, isSelf }: { person: Person; isSelf: boolean }) {
   const router = useRouter();
   const [roles, setRoles] = useState<Role[]>(person.roles);
@@ -51,18 +51,18 @@ function PersonControls({ person, isSelf }: { person: Person; isSelf: boolean })
             className={`${person.disabled ? 'btn-quiet' : 'btn-danger'} min-h-9 px-3 py-1 text-sm`}
             disabled={save.isPending}
             onClick={() => {
-              // Disabling signs the person out everywhere at once; ask before doing it.
+              // Switching access off takes effect at their next request; ask before doing it.
               if (
                 !person.disabled &&
                 !window.confirm(
-                  `Disable ${person.name}? They are signed out and cannot sign in until enabled.`,
+                  `Switch off ${person.name}'s access to this space? Their other spaces are not affected.`,
                 )
               )
                 return;
               save.mutate({ disabled: !person.disabled });
             }}
           >
-            {person.disabled ? 'Enable account' : 'Disable account'}
+            {person.disabled ? 'Switch access on' : 'Switch access off'}
             <span className="sr-only"> of {person.name}</span>
           </button>
         )}
@@ -88,15 +88,15 @@ export function PeopleTable({ people, selfId }: { people: Person[]; selfId: stri
     }),
     col.accessor('email', { header: 'E-mail' }),
     col.accessor('disabled', {
-      header: 'Account',
+      header: 'Access here',
       cell: (c) =>
         c.getValue() ? (
           <span className="inline-block rounded-md border border-red-700 px-2 py-0.5 text-xs font-semibold text-red-900 dark:text-red-200">
-            disabled
+            off
           </span>
         ) : (
           <span className="inline-block rounded-md border border-green-700 px-2 py-0.5 text-xs font-semibold text-green-900 dark:text-green-200">
-            active
+            on
           </span>
         ),
     }),

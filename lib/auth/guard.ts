@@ -3,11 +3,13 @@ import { cache } from 'react';
 import { cookies, headers } from 'next/headers';
 import { redirect } from 'next/navigation';
 import { decode } from 'next-auth/jwt';
+import { sql } from 'kysely';
 import { db } from '@/db';
 import type { Role } from '@/db/types';
 import { ForbiddenError, UnauthenticatedError } from '@/lib/errors';
 import { env } from '@/lib/env';
 import type { Ctx } from './roles';
+import { isSessionId } from './sessions';
 
 export const SPACE_COOKIE = 'ohm_space';
 
@@ -15,17 +17,18 @@ export const SPACE_COOKIE = 'ohm_space';
 const SESSION_COOKIES = ['__Secure-next-auth.session-token', 'next-auth.session-token'];
 
 /**
- * The user id in the session cookie. Decoding the signed, encrypted JWT directly costs a fraction of
- * getServerSession, which runs next-auth's whole session endpoint and re-issues the cookie each time.
+ * The user and session ids in the session cookie. Decoding the signed, encrypted JWT directly costs a
+ * fraction of getServerSession, which runs next-auth's whole session endpoint and re-issues the cookie.
  */
-async function sessionUserId(): Promise<string | null> {
+async function sessionClaims(): Promise<{ uid: string; sid: string } | null> {
   const jar = await cookies();
   for (const name of SESSION_COOKIES) {
     const token = jar.get(name)?.value;
     if (!token) continue;
     try {
       const jwt = await decode({ token, secret: env().NEXTAUTH_SECRET });
-      if (typeof jwt?.uid === 'string') return jwt.uid;
+      // A cookie from before server-side sessions (no sid) is nobody: its holder signs in again.
+      if (typeof jwt?.uid === 'string' && isSessionId(jwt.sid)) return { uid: jwt.uid, sid: jwt.sid };
     } catch {
       return null; // tampered, expired or signed with another secret
     }
@@ -35,11 +38,19 @@ async function sessionUserId(): Promise<string | null> {
 
 /** The signed-in person in their current space, or null. Cached per request; one query. */
 export const currentCtx = cache(async (): Promise<Ctx | null> => {
-  const userId = await sessionUserId();
-  if (!userId) return null;
-  // A disabled person, or one with no space left, is nobody.
+  const claims = await sessionClaims();
+  if (!claims) return null;
+  // Still one query: the session must be open (not signed out, not expired), the account not switched
+  // off, and only the spaces where the person's access is on count. None left: nobody.
   const rows = await db
     .selectFrom('users')
+    .innerJoin('auth_sessions', (j) =>
+      j
+        .onRef('auth_sessions.user_id', '=', 'users.id')
+        .on('auth_sessions.id', '=', claims.sid)
+        .on('auth_sessions.ended_at', 'is', null)
+        .on('auth_sessions.expires_at', '>', sql<Date>`now()`),
+    )
     .innerJoin('memberships', 'memberships.user_id', 'users.id')
     .innerJoin('spaces', 'spaces.id', 'memberships.space_id')
     .select([
@@ -51,8 +62,9 @@ export const currentCtx = cache(async (): Promise<Ctx | null> => {
       'spaces.name as spaceName',
       'memberships.roles',
     ])
-    .where('users.id', '=', userId)
+    .where('users.id', '=', claims.uid)
     .where('users.disabled_at', 'is', null)
+    .where('memberships.disabled_at', 'is', null)
     .orderBy('spaces.name')
     .execute();
   if (!rows.length) return null;

@@ -1,24 +1,39 @@
-import { sql } from 'kysely';
+import { sql, type ExpressionBuilder } from 'kysely';
 import type { Db } from '@/db/connect';
+import type { Database } from '@/db/types';
 import { hashPassword, verifyPassword } from './password';
-
-let dummyHash: string | undefined;
 import { hashToken, newToken } from './tokens';
 import { audit } from '@/lib/audit/log';
+import { sendSignInLink } from '@/lib/mail/templates';
+
+let dummyHash: string | undefined;
+
+/** The account is on and has at least one space whose admins have not switched its access off. */
+const mayEnter = (eb: ExpressionBuilder<Database, 'users'>) =>
+  eb.and([
+    eb('users.disabled_at', 'is', null),
+    eb.exists(
+      eb
+        .selectFrom('memberships')
+        .select('memberships.user_id')
+        .whereRef('memberships.user_id', '=', 'users.id')
+        .where('memberships.disabled_at', 'is', null),
+    ),
+  ]);
 
 export type SignedIn = { id: string; email: string; name: string };
 
-/** Checks e-mail and password; null for a wrong pair or a disabled account (same answer for both). */
+/** Checks e-mail and password; null for a wrong pair or an account with no way in (same answer for both). */
 export async function checkPassword(db: Db, email: string, password: string): Promise<SignedIn | null> {
   const user = await db
     .selectFrom('users')
-    .select(['id', 'email', 'name', 'password_hash', 'disabled_at'])
+    .select((eb) => ['id', 'email', 'name', 'password_hash', mayEnter(eb).as('may_enter')])
     .where('email', '=', email.trim())
     .executeTakeFirst();
   // Compare against a fixed hash when the user is unknown, so timing does not reveal who exists.
   const hash = user?.password_hash ?? (dummyHash ??= await hashPassword('no such account'));
   const ok = await verifyPassword(password, hash);
-  if (!user || !ok || user.disabled_at || !user.password_hash) return null;
+  if (!user || !ok || !user.may_enter || !user.password_hash) return null;
   return { id: user.id, email: user.email, name: user.name };
 }
 
@@ -28,7 +43,7 @@ export async function createSignInToken(db: Db, email: string): Promise<{ token:
     .selectFrom('users')
     .select(['id', 'email', 'name'])
     .where('email', '=', email.trim())
-    .where('disabled_at', 'is', null)
+    .where(mayEnter)
     .executeTakeFirst();
   if (!user) return null;
   const { token, hash } = newToken();
@@ -55,9 +70,23 @@ export async function consumeSignInToken(db: Db, token: string): Promise<SignedI
       .selectFrom('users')
       .select(['id', 'email', 'name'])
       .where('id', '=', row.user_id)
-      .where('disabled_at', 'is', null)
+      .where(mayEnter)
       .executeTakeFirst();
     if (user) await audit(trx, { spaceId: null, actorId: user.id, action: 'auth.link_used' });
     return user ?? null;
   });
+}
+
+/**
+ * Makes and mails a sign-in link if the address belongs to someone who may sign in, and does nothing
+ * otherwise. Runs after the answer has gone (next/server after()), so neither the answer nor its timing
+ * tells whether the address has an account; a failure is only logged.
+ */
+export async function mailSignInLinkIfKnown(db: Db, email: string): Promise<void> {
+  try {
+    const created = await db.transaction().execute((trx) => createSignInToken(trx, email));
+    if (created) await sendSignInLink(created.user, created.token);
+  } catch (err) {
+    console.error('[sign-in link] not sent:', (err as Error).message);
+  }
 }

@@ -12,6 +12,7 @@ export type Person = {
   name: string;
   email: string;
   roles: Role[];
+  /** Their access to this space is switched off (their other spaces are not affected). */
   disabled: boolean;
   joinedAt: Date;
 };
@@ -26,7 +27,7 @@ function peopleOf(db: Db, spaceId: string) {
       'users.id',
       'users.name',
       'users.email',
-      'users.disabled_at',
+      'memberships.disabled_at',
       'memberships.roles',
       'memberships.created_at',
     ])
@@ -50,9 +51,11 @@ export async function listPeople(db: Db, ctx: Pick<Ctx, 'spaceId'>): Promise<Per
 }
 
 /**
- * Changes a person's roles in the current space and/or disables or enables their account.
- * A person outside the space is 404. Every space keeps at least one enabled admin (409 otherwise):
- * disabling is per account, so it is checked in each space where the person is an admin.
+ * Changes a person's roles in the current space and/or switches their access to this space off or on.
+ * Both act on this space's membership only: the person's other spaces, and their sessions there, carry
+ * on. A person outside the space is 404. The space keeps at least one enabled admin (409 otherwise).
+ * Roles and access are read by the guard on every request, so the change holds from the person's next
+ * request on.
  */
 export async function updatePerson(
   db: Db,
@@ -61,83 +64,44 @@ export async function updatePerson(
   input: UpdatePersonInput,
 ): Promise<Person> {
   return db.transaction().execute(async (trx) => {
-    // Admin changes are serialised per space by locking the spaces involved (here, and wherever the
-    // target is an admin, since disabling is per account) in id order, so two admins demoting each
-    // other at the same moment cannot both succeed, and cannot deadlock. NO KEY UPDATE does not block
-    // inserts elsewhere that merely reference the space.
-    const adminIn = await trx
-      .selectFrom('memberships')
-      .select('space_id')
-      .where('user_id', '=', userId)
-      .where(isAdmin)
-      .execute();
-    const spaceIds = [...new Set([ctx.spaceId, ...adminIn.map((r) => r.space_id)])];
-    await trx
-      .selectFrom('spaces')
-      .select('id')
-      .where('id', 'in', spaceIds)
-      .orderBy('id')
-      .forNoKeyUpdate()
-      .execute();
+    // Admin changes are serialised per space by locking the space row, so two admins demoting or
+    // disabling each other at the same moment cannot both succeed. NO KEY UPDATE does not block inserts
+    // elsewhere that merely reference the space.
+    await trx.selectFrom('spaces').select('id').where('id', '=', ctx.spaceId).forNoKeyUpdate().execute();
     // Read after the lock: in READ COMMITTED this statement sees whatever the previous holder committed.
     const rows = await trx
       .selectFrom('memberships')
-      .innerJoin('users', 'users.id', 'memberships.user_id')
-      .select(['memberships.space_id', 'memberships.user_id', 'memberships.roles', 'users.disabled_at'])
-      .where('memberships.space_id', 'in', spaceIds)
-      .where((eb) => eb.or([eb('memberships.user_id', '=', userId), isAdmin]))
+      .select(['user_id', 'roles', 'disabled_at'])
+      .where('space_id', '=', ctx.spaceId)
+      .where((eb) => eb.or([eb('user_id', '=', userId), isAdmin]))
       .execute();
-    const target = rows.find((r) => r.space_id === ctx.spaceId && r.user_id === userId);
+    const target = rows.find((r) => r.user_id === userId);
     if (!target) throw new NotFoundError('No such person in this space.');
 
     const roles = input.roles ?? target.roles;
     const wasDisabled = target.disabled_at !== null;
     const disabled = input.disabled ?? wasDisabled;
     if (disabled && !wasDisabled && userId === ctx.userId) {
-      throw new ConflictError('You cannot disable your own account.', { disabled: ['not your own account'] });
+      throw new ConflictError('You cannot switch off your own access.', { disabled: ['not your own access'] });
     }
 
-    const admins = rows.filter((r) => r.roles.includes('admin'));
-    // The guard read the caller's roles before this lock; an admin demoted meanwhile may not go on.
-    if (
-      !admins.some((a) => a.space_id === ctx.spaceId && a.user_id === ctx.userId && a.disabled_at === null)
-    ) {
-      throw new ForbiddenError();
-    }
-    const adminAfter = (spaceId: string) =>
-      !disabled && (spaceId === ctx.spaceId ? roles.includes('admin') : true);
-    // Only spaces where this person is an enabled admin now can lose their last admin through this change.
-    const adminNow = wasDisabled ? [] : admins.filter((a) => a.user_id === userId).map((a) => a.space_id);
-    for (const spaceId of adminNow) {
-      const others = admins.filter(
-        (a) => a.space_id === spaceId && a.user_id !== userId && a.disabled_at === null,
-      );
-      if (!adminAfter(spaceId) && others.length === 0) {
-        const here = spaceId === ctx.spaceId;
-        throw new ConflictError(
-          here
-            ? 'A space needs at least one admin; make someone else admin first.'
-            : 'This person is the last admin of another space; disabling the account would leave it without one.',
-          {
-            [here && !roles.includes('admin') ? 'roles' : 'disabled']: ['this is the last admin of a space'],
-          },
-        );
-      }
+    const activeAdmins = rows.filter((r) => r.roles.includes('admin') && r.disabled_at === null);
+    // The guard read the caller's roles before this lock; an admin demoted or switched off meanwhile may not go on.
+    if (!activeAdmins.some((a) => a.user_id === ctx.userId)) throw new ForbiddenError();
+    const adminNow = activeAdmins.some((a) => a.user_id === userId);
+    const adminAfter = !disabled && roles.includes('admin');
+    if (adminNow && !adminAfter && activeAdmins.length === 1) {
+      throw new ConflictError('A space needs at least one admin; make someone else admin first.', {
+        [roles.includes('admin') ? 'disabled' : 'roles']: ['this is the last admin of the space'],
+      });
     }
 
-    if (input.roles) {
+    if (input.roles || disabled !== wasDisabled) {
       await trx
         .updateTable('memberships')
-        .set({ roles })
+        .set({ roles, disabled_at: disabled ? (target.disabled_at ?? now()) : null })
         .where('space_id', '=', ctx.spaceId)
         .where('user_id', '=', userId)
-        .execute();
-    }
-    if (disabled !== wasDisabled) {
-      await trx
-        .updateTable('users')
-        .set({ disabled_at: disabled ? now() : null })
-        .where('id', '=', userId)
         .execute();
     }
     await audit(trx, {

@@ -5,11 +5,14 @@ import { ConflictError, ForbiddenError, NotFoundError } from '@/lib/errors';
 import { localDay } from '@/lib/loans/due';
 import type { SendFn } from '@/lib/loans/notify';
 import { sendMail } from '@/lib/mail/send';
+import { formatDateTime } from '@/lib/format';
 import { deliverReminder } from './deliver';
+import { pausedUntil, REMINDER_PAUSE_HOURS } from './pause';
 
 // "Send a reminder now" from the steward's round, for one loan or many. Each is recorded as a 'manual'
 // reminder first (committed, pending), then sent the same way the sweep sends: if mail is down the
-// request fails and the sweep sends the recorded reminders once mail is back.
+// request fails and the sweep sends the recorded reminders once mail is back. A loan reminded within
+// the pause (lib/reminders/pause.ts) is refused with the time the next may go, and nothing is sent.
 export async function sendManualReminders(
   db: Db,
   ctx: Ctx,
@@ -20,11 +23,15 @@ export async function sendManualReminders(
   const ids = [...new Set(loanIds)];
   const at = now();
   const reminderIds = await db.transaction().execute(async (trx) => {
+    // Locked, so two stewards pressing the button at once cannot both pass the pause check.
     const loans = await trx
       .selectFrom('loans')
-      .select(['id', 'status'])
-      .where('space_id', '=', ctx.spaceId)
-      .where('id', 'in', ids)
+      .innerJoin('users', 'users.id', 'loans.borrower_id')
+      .select(['loans.id', 'loans.status', 'users.name as borrower'])
+      .where('loans.space_id', '=', ctx.spaceId)
+      .where('loans.id', 'in', ids)
+      .orderBy('loans.id')
+      .forUpdate('loans')
       .execute();
     ids.forEach((id) => {
       const l = loans.find((x) => x.id === id);
@@ -39,6 +46,16 @@ export async function sendManualReminders(
       .select('time_zone')
       .where('id', '=', ctx.spaceId)
       .executeTakeFirstOrThrow();
+    const paused = await pausedUntil(trx, ids, at);
+    ids.forEach((id) => {
+      const until = paused.get(id);
+      if (!until) return;
+      const who = loans.find((x) => x.id === id)?.borrower ?? 'The borrower';
+      throw new ConflictError(
+        `${who} was reminded of this loan less than ${REMINDER_PAUSE_HOURS} hours ago; the next reminder can go at ${formatDateTime(until, space.time_zone)}.`,
+        { [`loanIds.${loanIds.indexOf(id)}`]: [`reminded recently; next from ${formatDateTime(until, space.time_zone)}`] },
+      );
+    });
     const rows = await trx
       .insertInto('reminders')
       .values(

@@ -4,11 +4,13 @@ import { localDay } from '@/lib/loans/due';
 import { notifyReadyHolds, type SendFn } from '@/lib/loans/notify';
 import { sendMail } from '@/lib/mail/send';
 import { deliverReminder } from './deliver';
+import { pausedUntil } from './pause';
 import { reminderOwed } from './schedule';
 
 // The scheduled reminder run. Idempotent: run it as often as you like, from as many processes as you
 // like. Step 1 records each reminder a loan is owed today as a 'pending' row (the unique index on
-// (loan, kind, for_day) makes a second run insert nothing); step 2 sends every pending row, including
+// (loan, kind, for_day) makes a second run insert nothing; a loan within its reminder pause is left
+// for later); step 2 sends every pending row, including
 // those a crashed run left behind; step 3 sends "your hold is ready" notices that did not go out.
 
 export type SweepResult = { queued: number; sent: number; failed: number; holdNotices: number };
@@ -40,8 +42,12 @@ export async function runReminderSweep(
   if (deps.spaceId) due = due.where('loans.space_id', '=', deps.spaceId);
   const loans = await due.execute();
 
+  // A loan reminded within the pause (by hand, or still waiting to go) is not reminded again yet; its
+  // owed reminder is recorded by the first run after the pause, if it is still owed then.
+  const paused = await pausedUntil(db, loans.map((l) => l.id), at);
   let queued = 0;
   for (const l of loans) {
+    if (paused.has(l.id)) continue;
     const slot = reminderOwed(
       { dueDay: localDay(l.due_at, l.time_zone), outDay: localDay(l.out_at, l.time_zone) },
       localDay(at, l.time_zone),

@@ -1,10 +1,11 @@
+import http from 'node:http';
 import type { Db } from '@/db/connect';
 import type { Role } from '@/db/types';
 import { newToken } from '@/lib/auth/tokens';
 import { extractLinks } from '@/lib/mail/links';
 import { waitForMessage } from '@/lib/mail/mailbox';
 import { makeSpace, makeUser, uniq } from '../helpers/db';
-import { signedIn, type HttpSession } from '../helpers/http';
+import { BASE, signedIn, type HttpSession } from '../helpers/http';
 
 // Shared set-up for the auth-* and people-* integration files (not a test file itself).
 
@@ -64,4 +65,54 @@ export async function tokenFromMail(
     .find((u) => u.pathname === pathname && u.searchParams.get('token'));
   if (!link) throw new Error(`no ${pathname} link in the message to ${to}: ${message.text}`);
   return { token: link.searchParams.get('token')!, link };
+}
+
+/**
+ * A browser-like session that connects from a chosen loopback address (127.0.0.2, 127.0.0.3 …), so the
+ * app sees a different source address, as it would for another network. Uses node:http because fetch
+ * cannot bind a local address.
+ */
+export class SourceSession {
+  private cookies = new Map<string, string>();
+  constructor(readonly localAddress: string) {}
+
+  request(method: string, path: string, body?: string, contentType?: string): Promise<{ status: number; text: string }> {
+    const url = new URL(path, BASE);
+    const headers: Record<string, string> = {};
+    if (this.cookies.size) headers.cookie = [...this.cookies].map(([k, v]) => `${k}=${v}`).join('; ');
+    if (contentType) headers['content-type'] = contentType;
+    return new Promise((resolve, reject) => {
+      const req = http.request(
+        { host: url.hostname, port: url.port, path: url.pathname + url.search, method, headers, localAddress: this.localAddress },
+        (res) => {
+          for (const c of res.headers['set-cookie'] ?? []) {
+            const [pair] = c.split(';');
+            const i = pair.indexOf('=');
+            const value = pair.slice(i + 1).trim();
+            if (!value || /max-age=0|expires=thu, 01 jan 1970/i.test(c)) this.cookies.delete(pair.slice(0, i).trim());
+            else this.cookies.set(pair.slice(0, i).trim(), value);
+          }
+          let text = '';
+          res.setEncoding('utf8');
+          res.on('data', (d: string) => (text += d));
+          res.on('end', () => resolve({ status: res.statusCode ?? 0, text }));
+        },
+      );
+      req.on('error', reject);
+      req.end(body);
+    });
+  }
+
+  /** One password attempt: the HTTP status and next-auth's `error` (null when signed in). */
+  async attempt(email: string, password: string): Promise<{ status: number; error: string | null }> {
+    const csrf = JSON.parse((await this.request('GET', '/api/auth/csrf')).text) as { csrfToken: string };
+    const res = await this.request(
+      'POST',
+      '/api/auth/callback/password',
+      new URLSearchParams({ csrfToken: csrf.csrfToken, email, password, json: 'true' }).toString(),
+      'application/x-www-form-urlencoded',
+    );
+    const { url } = JSON.parse(res.text) as { url: string };
+    return { status: res.status, error: new URL(url, BASE).searchParams.get('error') };
+  }
 }

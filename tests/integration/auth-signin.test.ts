@@ -65,11 +65,11 @@ describe('password sign-in', () => {
   });
 });
 
-describe('rate limit', () => {
-  test('after 8 wrong passwords for one e-mail the 9th attempt is refused even with the right password', async () => {
+describe('throttling (more in auth-throttle.test.ts)', () => {
+  test('after 6 wrong passwords from one address the next attempt there must wait, even with the right password', async () => {
     const user = await person();
     const s = new HttpSession();
-    for (let i = 1; i <= 8; i++) {
+    for (let i = 1; i <= 6; i++) {
       expect(await attempt(s, user, `wrong-password-${i}`), `attempt ${i}`).toEqual({
         status: 401,
         error: 'CredentialsSignin',
@@ -78,14 +78,14 @@ describe('rate limit', () => {
     expect(await attempt(s, user, TEST_PASSWORD)).toEqual({ status: 401, error: 'TooManyAttempts' });
     expect(await s.isSignedIn()).toBe(false);
 
-    // The limit is per e-mail: someone else signs in as usual meanwhile.
+    // The wait is per e-mail and address: someone else signs in as usual meanwhile.
     const other = await person();
     const o = new HttpSession();
     expect(await attempt(o, other, TEST_PASSWORD)).toEqual({ status: 200, error: null });
   });
 });
 
-describe('disabled accounts', () => {
+describe('accounts switched off by an operator (users.disabled_at)', () => {
   test('a disabled person cannot sign in with the right password', async () => {
     const user = await person();
     await db.updateTable('users').set({ disabled_at: new Date() }).where('id', '=', user.id).execute();

@@ -21,7 +21,7 @@ export default async function PeoplePage() {
     <div className="space-y-5">
       <PageTitle
         title="People"
-        lead={`Who uses the bench at ${ctx.spaceName} and what each may do here. Roles are per space; a disabled account cannot sign in anywhere.`}
+        lead={`Who uses the bench at ${ctx.spaceName} and what each may do here. Roles and access are per space: switching someone's access off here leaves their other spaces as they are.`}
       />
       <section aria-labelledby="people-heading" className="card">
         <h2 id="people-heading" className="mb-2 text-lg font-bold">

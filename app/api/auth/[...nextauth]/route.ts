@@ -1,5 +1,4 @@
-import NextAuth from 'next-auth';
-import { authOptions } from '@/lib/auth/options';
+import { authRoute } from '@/lib/auth/nextauth-route';
 
-const handler = NextAuth(authOptions);
-export { handler as GET, handler as POST };
+// next-auth, fenced so junk gets a 4xx and callback URLs stay on this site (lib/auth/nextauth-route.ts).
+export { authRoute as GET, authRoute as POST };
