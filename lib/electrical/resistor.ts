@@ -21,8 +21,9 @@ export function resistorLedWatts(vHigh: number, count: number, vfs: number[], oh
 export function resistor(ctx: KitContext, d: ResolvedResistor): DriverPart {
   const { supply, sv, pwm, spec } = ctx;
   const led = spec.string.led;
-  // The wire run is part of the series loop, so it adds to the resistance.
-  const loop = d.ohms + ctx.wireOhms;
+  // The wire run would add to the loop's resistance and lower the current, but the worst case is the
+  // shortest, thickest run: rule 9 takes the resistor alone, R = driver.ohms (the wire only adds its drop).
+  const loop = d.ohms;
   // Rule 9: typical current at the nominal supply; the worst corner (supply high, LEDs at vfMin).
   const ampsTyp = (supply.nominal - sv.typ) / loop;
   const ampsMax = resistorAmps(supply.high, sv.min, loop);
@@ -34,7 +35,7 @@ export function resistor(ctx: KitContext, d: ResolvedResistor): DriverPart {
   const checks: Check[] = [
     lowVoltageLimit(ctx),
     typicalCurrent(ctx, ampsTyp),
-    ledCurrent(ctx, ampsMax, 'At worst (supply high, low-Vf LEDs) the resistor lets', resistorAdvice(ctx, loop)),
+    ledCurrent(ctx, ampsMax, 'At worst (supply high, low-Vf LEDs) the resistor lets', resistorAdvice(ctx)),
     resistorPower(ctx, heat, d.watts),
     ledPower(ctx, ledWatts, led.maxWatts / led.vfMax),
     supplyCurrent(ctx, avg),
@@ -70,9 +71,9 @@ export function resistor(ctx: KitContext, d: ResolvedResistor): DriverPart {
   };
 }
 
-function resistorAdvice(ctx: KitContext, loop: number): string {
+function resistorAdvice(ctx: KitContext): string {
   const { maxAmps } = ctx.spec.string.led;
-  const neededOhms = (ctx.supply.high - ctx.sv.min) / maxAmps - (loop - (ctx.spec.driver as ResolvedResistor).ohms);
+  const neededOhms = (ctx.supply.high - ctx.sv.min) / maxAmps;
   return neededOhms >= 0.01 && neededOhms <= 1e7
     ? `Use at least ${formatSi(nearestAtOrAbove(neededOhms), 'Ω')} (next E24 value up).`
     : 'Use a constant-current driver instead.';

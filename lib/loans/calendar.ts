@@ -41,6 +41,11 @@ export async function calendarFeed(db: Db, token: string, baseUrl: string): Prom
   const loans = await db
     .selectFrom('loans')
     .innerJoin('spaces', 'spaces.id', 'loans.space_id')
+    // Only spaces where the person's access is still on: a space that switched them off shows nothing.
+    .innerJoin('memberships', (j) =>
+      j.onRef('memberships.space_id', '=', 'loans.space_id').onRef('memberships.user_id', '=', 'loans.borrower_id'),
+    )
+    .where('memberships.disabled_at', 'is', null)
     .leftJoin('kit_boxes', 'kit_boxes.id', 'loans.kit_box_id')
     .select([
       'loans.id',

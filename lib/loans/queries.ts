@@ -393,6 +393,8 @@ export async function spaceMembers(db: Db, ctx: Ctx): Promise<{ id: string; name
     .select(['users.id', 'users.name', 'users.email'])
     .where('memberships.space_id', '=', ctx.spaceId)
     .where('users.disabled_at', 'is', null)
+    // Access switched off in this space: no longer someone to lend or sell to here.
+    .where('memberships.disabled_at', 'is', null)
     .orderBy('users.name')
     .execute();
 }

@@ -56,6 +56,8 @@ export async function buyersOf(db: Db, spaceId: string): Promise<{ id: string; n
     .select(['users.id', 'users.name'])
     .where('memberships.space_id', '=', spaceId)
     .where('users.disabled_at', 'is', null)
+    // Access switched off in this space: no longer someone to lend or sell to here.
+    .where('memberships.disabled_at', 'is', null)
     .orderBy('users.name')
     .execute();
 }

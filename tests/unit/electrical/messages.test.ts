@@ -215,10 +215,10 @@ describe('messages', () => {
     );
   });
 
-  it('a resistor through a wire run: the resistance needed allows for the wire', () => {
-    // (12 − 8.4) / 0.02 = 180 Ω in all, less 6.8 Ω of 20 m of 30 AWG → 173.2 Ω → E24 180 Ω
+  it('a resistor through a wire run: the resistance needed takes no credit for the wire', () => {
+    // (12 − 8.4) / 0.02 = 180 Ω (Ohm's law; the shortest run is the worst case) → E24 180 Ω
     expect(msg(resistorSpec({ led: { maxAmps: 0.02 }, wiring: { lengthMeters: 10, awg: 30 } }), 'led-current')).toContain('Use at least 180 Ω');
-    expect(msg(resistorSpec({ led: { maxAmps: 0.02 }, wiring: { lengthMeters: 10, awg: 30 } }), 'led-current')).toContain('resistor lets 34 mA');
+    expect(msg(resistorSpec({ led: { maxAmps: 0.02 }, wiring: { lengthMeters: 10, awg: 30 } }), 'led-current')).toContain('resistor lets 36 mA');
   });
 
   it('a sink for many LEDs may need to be better than 0.1 °C/W', () => {
