@@ -129,6 +129,26 @@ export const adjustSchema = z.object({
 });
 export const moveUnitSchema = z.object({ unitId: uuid, toLocationId: uuid, note });
 
+/**
+ * POST /api/stock/move: a body naming `unitId` moves that labelled unit; anything else is a counted move,
+ * so a bad body's errors name the counted move's fields. Tagged with `kind` for the service call.
+ */
+export const stockMoveSchema = z
+  .unknown()
+  .transform((raw, ctx) => {
+    const unit = typeof raw === 'object' && raw !== null && 'unitId' in raw;
+    const parsed = unit ? moveUnitSchema.safeParse(raw) : moveSchema.safeParse(raw);
+    if (!parsed.success) {
+      for (const issue of parsed.error.issues) ctx.addIssue({ ...issue, code: 'custom', message: issue.message });
+      return z.NEVER;
+    }
+    return unit
+      ? { kind: 'unit' as const, move: parsed.data as z.output<typeof moveUnitSchema> }
+      : { kind: 'counted' as const, move: parsed.data as z.output<typeof moveSchema> };
+  });
+/** The same body as documented: one of the two shapes. */
+export const stockMoveDoc = z.union([moveSchema, moveUnitSchema]);
+
 export const UNIT_TARGET_STATES = ['in_repair', 'on_shelf', 'retired'] as const;
 export const unitStateSchema = z.object({
   state: z.enum(UNIT_TARGET_STATES, { error: 'choose in repair, on shelf or retired' }),

@@ -1,11 +1,16 @@
-import { NextResponse } from 'next/server';
 import { checkKit, kitSpecSchema, safetyCautions } from '@/lib/electrical';
-import { handle, parseJsonBody } from '@/lib/http/respond';
+import { json, route } from '@/lib/http/route';
+import { record } from '@/lib/http/shapes';
 
-// Public: anyone may check a build (no sign-in, no database). Body: a KitSpec; answer: the KitReport,
-// with the safety cautions alongside. Bad input is a 400 naming each field.
-export const POST = handle(async (req: Request) => {
-  const spec = await parseJsonBody(req, kitSpecSchema);
-  const report = checkKit(spec);
-  return NextResponse.json({ ...report, cautions: safetyCautions(spec, report) });
+// Public: anyone may check a build (no sign-in, no database).
+export const POST = route({
+  method: 'POST',
+  summary: 'Checks a supply, driver and LED string together (public; no database)',
+  who: 'anonymous',
+  body: json(kitSpecSchema),
+  response: record('The report: verdict, figures with margins, findings and the safety cautions.'),
+  run: async ({ body }) => {
+    const report = checkKit(body);
+    return { ...report, cautions: safetyCautions(body, report) };
+  },
 });

@@ -1,7 +1,7 @@
-import { NextResponse } from 'next/server';
 import { z } from 'zod';
 import { compareTopologies, stringSpecSchema, supplySpecSchema } from '@/lib/electrical';
-import { handle, parseJsonBody } from '@/lib/http/respond';
+import { json, route } from '@/lib/http/route';
+import { listOf } from '@/lib/http/shapes';
 
 const compareBodySchema = z.object({
   string: stringSpecSchema,
@@ -14,9 +14,13 @@ const compareBodySchema = z.object({
     .optional(),
 });
 
-// Public: buck vs linear vs series resistor for one string on one supply.
-export const POST = handle(async (req: Request) => {
-  const body = await parseJsonBody(req, compareBodySchema);
-  const rows = compareTopologies(body.string, body.supply, { amps: body.amps, pwmDuty: body.pwmDuty });
-  return NextResponse.json({ rows });
+export const POST = route({
+  method: 'POST',
+  summary: 'Buck vs linear vs series resistor for one LED string on one supply (public)',
+  who: 'anonymous',
+  body: json(compareBodySchema),
+  response: listOf('rows', 'One topology: efficiency, dissipation, verdict.'),
+  run: async ({ body }) => ({
+    rows: compareTopologies(body.string, body.supply, { amps: body.amps, pwmDuty: body.pwmDuty }),
+  }),
 });

@@ -1,19 +1,24 @@
-import { NextResponse } from 'next/server';
+import { z } from 'zod';
 import { db } from '@/db';
-import { requireUser } from '@/lib/auth/guard';
 import { env } from '@/lib/env';
-import { handle } from '@/lib/http/respond';
+import { route } from '@/lib/http/route';
 import { calendarToken, rotateCalendarToken } from '@/lib/loans/calendar';
 
-// My calendar-feed address (GET), or a new one that revokes the old (POST).
 const url = (token: string) => `${env().APP_BASE_URL}/api/calendar/${token}.ics`;
+const response = z.object({ url: z.string() });
 
-export const GET = handle(async () => {
-  const ctx = await requireUser();
-  return NextResponse.json({ url: url(await calendarToken(db, ctx.userId)) });
+export const GET = route({
+  method: 'GET',
+  summary: 'My calendar-feed address',
+  who: 'signed-in',
+  response,
+  run: async ({ ctx }) => ({ url: url(await calendarToken(db, ctx.userId)) }),
 });
 
-export const POST = handle(async () => {
-  const ctx = await requireUser();
-  return NextResponse.json({ url: url(await rotateCalendarToken(db, ctx.userId)) });
+export const POST = route({
+  method: 'POST',
+  summary: 'A new calendar-feed address; the old one stops working',
+  who: 'signed-in',
+  response,
+  run: async ({ ctx }) => ({ url: url(await rotateCalendarToken(db, ctx.userId)) }),
 });
