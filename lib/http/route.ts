@@ -51,7 +51,7 @@ export type BodyKind =
   /** application/json; `doc` documents a body whose parsing schema is a transform. */
   | { kind: 'json'; schema: z.ZodType; doc?: z.ZodType }
   /** multipart/form-data: `fields` validates the form (files as z.file()); read at most maxBytes. */
-  | { kind: 'multipart'; schema: z.ZodType; maxBytes: number }
+  | { kind: 'multipart'; schema: z.ZodType; maxBytes: number; doc?: z.ZodType }
   /** The raw text, for routes whose caller signs the exact bytes. */
   | { kind: 'text'; contentTypes: string[] }
   /** application/x-www-form-urlencoded, handed on unread (next-auth's own forms). */
@@ -107,8 +107,8 @@ export type RouteHandler = ((req: Request, context?: RouteContext) => Promise<Re
 // ---- body kinds ------------------------------------------------------------------------------------
 
 export const json = <S extends z.ZodType>(schema: S, doc?: z.ZodType) => ({ kind: 'json', schema, doc }) as const;
-export const multipart = <S extends z.ZodType>(schema: S, maxBytes: number) =>
-  ({ kind: 'multipart', schema, maxBytes }) as const;
+export const multipart = <S extends z.ZodType>(schema: S, maxBytes: number, doc?: z.ZodType) =>
+  ({ kind: 'multipart', schema, maxBytes, doc }) as const;
 export const rawText = (...contentTypes: string[]) => ({ kind: 'text', contentTypes }) as const;
 export const urlencodedForm = () => ({ kind: 'form' }) as const;
 
@@ -169,7 +169,8 @@ class UnsupportedType extends AppError {
     });
   }
 }
-class TooLarge extends AppError {
+/** 413: a body or file past its limit (the declaration's reader, or a service's own size rule). */
+export class TooLarge extends AppError {
   constructor(maxBytes: number) {
     const limit = `${Math.round(maxBytes / 1024 / 1024)} MB`;
     super('invalid', `The request was refused: it is larger than ${limit}.`, { file: [`larger than ${limit}`] });

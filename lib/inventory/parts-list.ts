@@ -1,3 +1,4 @@
+import 'server-only';
 import { sql, type Expression, type SqlBool } from 'kysely';
 import type { Db } from '@/db/connect';
 import type { PartCategory } from '@/db/types';
