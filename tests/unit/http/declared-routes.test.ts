@@ -33,9 +33,9 @@ describe('route declarations', () => {
 
     if (r.door === 'app') {
       it(`${rel}: is listed for the API document as ${openApiPath(r.pattern)}`, () => {
-        const module = `../${path.relative(path.join(ROOT, 'app/api'), r.file).replace(/\.ts$/, '')}`;
+        const importPath = `../${path.relative(path.join(ROOT, 'app/api'), r.file).replace(/\.ts$/, '')}`;
         expect(registry).toContain(`'${openApiPath(r.pattern)}': `);
-        expect(registry).toContain(`from '${module}'`);
+        expect(registry).toContain(`from '${importPath}'`);
       });
     }
   }
