@@ -44,11 +44,3 @@ export function startReminderJobs(connectionString: string): Promise<Runner> {
   });
   return g.ohmReminderRunner;
 }
-
-export async function stopReminderJobs(): Promise<void> {
-  const runner = await g.ohmReminderRunner?.catch(() => undefined);
-  g.ohmReminderRunner = undefined;
-  if (!runner) return;
-  await runner.boss.stop({ graceful: true, wait: true });
-  await runner.db.destroy();
-}
