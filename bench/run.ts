@@ -127,7 +127,8 @@ async function borrowCase(members: Session[]) {
   const floorBody = (i: number) => ({ spaceId: fixture.spaceId, borrowerId: fixture.members[i % n].id, ...item(i) });
   const productReq = (i: number) => ({
     path: '/api/loans',
-    headers: { cookie: members[i % n].cookie },
+    // A browser on the app's own pages sends its Origin with a change (lib/http/route.ts checks it).
+    headers: { cookie: members[i % n].cookie, origin: new URL(APP).origin },
     body: { counted: [{ ...item(i), qty: 1 }] },
   });
   const targets: Target[] = [];

@@ -1,6 +1,7 @@
 // Input shapes of the shelf, in one place for route handlers, forms and tests.
 // Pure module (zod only): the client forms and the unit tests import it.
 import { z } from 'zod';
+import { idSchema } from '@/lib/ids';
 
 import { CATEGORIES, LOCATION_KINDS, PART_SORTS, TRACKING } from './words';
 
@@ -20,7 +21,8 @@ const flag = z.preprocess(
   z.boolean(),
 );
 
-export const uuid = z.uuid({ message: 'not a valid id' });
+/** Ids in bodies: the one id schema (lib/ids.ts). */
+export const uuid = idSchema;
 const wholeQty = (what: string) =>
   z.number({ error: `${what} must be a number` }).int(`${what} must be a whole number`);
 

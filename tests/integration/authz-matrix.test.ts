@@ -24,7 +24,7 @@ export const MATRIX: Record<string, Row> = {
   'POST /api/auth/[...nextauth]': { who: 'public', ok: [302, 400, 403, 415], path: '/api/auth/signout' },
   'GET /api/attachments/[id]': { who: 'user', ok: 404 },
   'DELETE /api/attachments/[id]': { who: W, ok: 404 },
-  'POST /api/attachments': { who: W, ok: 400, body: EMPTY },
+  'POST /api/attachments': { who: W, ok: 415, body: EMPTY }, // an upload takes multipart, not JSON
   'POST /api/bench-check': { who: 'public', ok: 400, body: EMPTY },
   'POST /api/bench-check/compare': { who: 'public', ok: 400, body: EMPTY },
   // Bench-build only (route.benchonly.ts): not in the test build at all.
