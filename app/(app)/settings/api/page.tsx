@@ -68,7 +68,7 @@ function OperationCard({ method, path, op }: { method: string; path: string; op:
   const body = op.requestBody ? Object.entries(op.requestBody.content)[0] : undefined;
   const statuses = Object.entries(op.responses);
   return (
-    <details className="card p-3">
+    <details className="card min-w-0 p-3">
       <summary className="flex cursor-pointer flex-wrap items-baseline gap-2">
         <span className={`rounded px-1.5 py-0.5 text-xs font-bold uppercase ${METHOD_STYLE[method] ?? ''}`}>{method}</span>
         <code className="min-w-0 break-all text-sm font-semibold">{path}</code>
@@ -131,7 +131,7 @@ export default async function ApiReferencePage() {
     }
   }
   return (
-    <div className="mx-auto max-w-3xl">
+    <div className="mx-auto min-w-0 max-w-3xl wrap-anywhere">
       <PageTitle
         title="API reference"
         lead="Every route of this installation, generated from the routes’ own declarations. Errors answer { error: { code, message, fields } }."
@@ -146,7 +146,7 @@ export default async function ApiReferencePage() {
       {[...byTag].map(([tag, ops]) => (
         <section key={tag} className="mb-5">
           <h2 className="mb-2 text-lg font-semibold">{tag}</h2>
-          <div className="grid gap-2">
+          <div className="grid min-w-0 grid-cols-1 gap-2">
             {ops.map((o) => (
               <OperationCard key={`${o.method} ${o.path}`} {...o} />
             ))}
