@@ -1,10 +1,15 @@
-// Next calls register() once when a server process starts. The Node.js server starts the durable job
-// runners (scheduled loan reminders; the sweep of card sales left pending); the edge runtime has nothing
-// to start. OHM_JOBS=0 turns them off (a second app process that should only serve pages, or a script
-// that imports the app).
+// Next calls register() once when a server process starts. The Node.js server first validates the
+// environment — a missing or malformed setting (in production: NEXTAUTH_SECRET, STRIPE_SECRET_KEY,
+// STRIPE_WEBHOOK_SECRET) stops the start with an error naming it — then starts the durable job runners
+// (scheduled loan reminders; the sweep of card sales left pending) unless OHM_JOBS=0. The edge runtime
+// has nothing to start.
 export async function register(): Promise<void> {
-  // The documented shape: the import sits inside the runtime check so the edge bundle never sees it.
+  // The documented shape: the check on Next's own variable stays literal so the edge bundle drops the
+  // imports; every other variable is read through lib/env.ts.
+  // eslint-disable-next-line no-restricted-properties
   if (process.env.NEXT_RUNTIME === 'nodejs') {
+    const { env } = await import('./lib/env');
+    env();
     const { startJobsInThisProcess } = await import('./lib/reminders/start');
     startJobsInThisProcess();
     const { startSaleJobsInThisProcess } = await import('./lib/sales/job-runner');

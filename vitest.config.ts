@@ -4,7 +4,8 @@ import path from 'node:path';
 // Three projects: unit (pure lib code), integration (real PostgreSQL, real HTTP to a running app),
 // e2e (Debian Chromium through playwright-core). scripts/test.sh starts the services they need.
 export default defineConfig({
-  resolve: { alias: { '@': path.resolve(__dirname) } },
+  // server-only guards the app's bundles; tests call server modules directly (tests/helpers/server-only.ts).
+  resolve: { alias: { '@': path.resolve(__dirname), 'server-only': path.resolve(__dirname, 'tests/helpers/server-only.ts') } },
   test: {
     projects: [
       {

@@ -1,6 +1,6 @@
 // Label PDF speed and memory: 1,000 labels on each layout.
 //   npx tsx bench/labels.ts [--count 1000] [--out bench/out]
-// Target (../shared notes, "label PDF, 1,000 labels"): < 3 s and < 300 MB peak per run.
+// Target (README.md, Performance: "label PDF, 1,000 labels"): < 3 s and < 300 MB peak per run.
 // Beside each absolute figure: a ratio to a floor measured in the same run — building the 1,000 QR
 // matrices alone (qrcode's encoder, no PDF), which no renderer can avoid — so a noisy shared machine
 // still gives a comparable number.

@@ -1,8 +1,8 @@
 // The raw floor of bench/: a bare node:http server running the same SQL as the benchmarked routes
-// through `pg` (bench/floor-sql.ts) — the physical limit of this machine for that work.
+// through `pg` (app/api/bench-floor/floor-sql.ts) — the physical limit of this machine for that work.
 //   DATABASE_URL=… npx tsx bench/raw-floor.ts [port]     GET /scan/<code> · POST /loans
 import http from 'node:http';
-import { borrowCounted, floorPool, lookupByCode, type BorrowInput } from './floor-sql';
+import { borrowCounted, floorPool, lookupByCode, type BorrowInput } from '../app/api/bench-floor/floor-sql';
 
 const pool = floorPool(process.env.DATABASE_URL ?? '');
 const port = Number(process.argv[2] ?? process.env.BENCH_RAW_PORT ?? 0);

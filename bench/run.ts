@@ -1,6 +1,6 @@
 // `npm run bench` (scripts/bench.sh) runs this against a production build, its framework floor and the raw
 // floor, all on loopback and on the same throwaway PostgreSQL, and prints the figures beside the targets
-// of ../shared/notes/targets.md; they also go to bench/out/latest.md.
+// in README.md (Performance); they also go to bench/out/latest.md.
 // Env: BENCH_APP_URL (the production build, started with OHM_BENCH=1), BENCH_RAW_URL (bench/raw-floor.ts),
 // BENCH_FIXTURE (written by bench/data.ts), BENCH_DIST_DIR (the build's folder), DATABASE_URL.
 // A case whose server is not given, or whose product route is not in the build yet, is skipped with a note.
@@ -127,7 +127,8 @@ async function borrowCase(members: Session[]) {
   const floorBody = (i: number) => ({ spaceId: fixture.spaceId, borrowerId: fixture.members[i % n].id, ...item(i) });
   const productReq = (i: number) => ({
     path: '/api/loans',
-    headers: { cookie: members[i % n].cookie },
+    // A browser on the app's own pages sends its Origin with a change (lib/http/route.ts checks it).
+    headers: { cookie: members[i % n].cookie, origin: new URL(APP).origin },
     body: { counted: [{ ...item(i), qty: 1 }] },
   });
   const targets: Target[] = [];

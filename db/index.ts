@@ -6,6 +6,6 @@ import { env } from '@/lib/env';
 const globalForDb = globalThis as unknown as { ohmsteadDb?: Db };
 
 export const db: Db = globalForDb.ohmsteadDb ?? createDb(env().DATABASE_URL);
-if (process.env.NODE_ENV !== 'production') globalForDb.ohmsteadDb = db;
+if (env().NODE_ENV !== 'production') globalForDb.ohmsteadDb = db;
 
 export type { Db } from './connect';

@@ -9,17 +9,9 @@ type Json<T = unknown> = ColumnType<T, string, string>;
 type JsonDefault<T = unknown> = ColumnType<T, string | undefined, string>;
 type JsonNullable<T = unknown> = ColumnType<T | null, string | null | undefined, string | null>;
 
-export type Role = 'member' | 'steward' | 'treasurer' | 'admin';
-export type UnitState = 'on_shelf' | 'out' | 'held' | 'in_repair' | 'retired';
-export type PartCategory =
-  | 'driver' | 'led' | 'supply' | 'heat_sink' | 'wire' | 'kit_box' | 'tool' | 'meter' | 'consumable' | 'other';
-export type ChainRole = 'supply' | 'driver' | 'led' | 'wire';
-export type LabelKind = 'unit' | 'part' | 'location' | 'kit_box';
-export type LoanStatus = 'out' | 'returned' | 'returned_short';
-export type SaleStatus = 'pending' | 'paid' | 'failed' | 'expired' | 'refunded' | 'partially_refunded' | 'reversed';
-export type MovementReason =
-  | 'receive' | 'move_in' | 'move_out' | 'adjust' | 'count' | 'loan_out' | 'loan_return' | 'lost' | 'damaged'
-  | 'repair' | 'retire' | 'sale' | 'refund' | 'kit_build';
+import type { ChainRole, LabelKind, LoanStatus, MovementReason, PartCategory, Role, SaleStatus, UnitState } from '@/lib/domain';
+
+export type { ChainRole, LabelKind, LoanStatus, MovementReason, PartCategory, Role, SaleStatus, UnitState };
 
 export interface SpacesTable {
   id: Generated<string>;

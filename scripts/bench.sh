@@ -1,5 +1,5 @@
 #!/usr/bin/env bash
-# npm run bench: the speed figures of ../shared/notes/targets.md, on throwaway services like npm test's —
+# npm run bench: the speed figures against the targets in README.md (Performance), on throwaway services like npm test's —
 # a private PostgreSQL, the SMTP sink and the payments fake, a production build (in .next-bench, rebuilt
 # only when the sources changed) started with OHM_BENCH=1 so its framework-floor routes answer, and the
 # raw floor (bench/raw-floor.ts). bench/data.ts builds a 10,000-part shelf; bench/run.ts measures every
@@ -20,7 +20,7 @@ chmod 755 "$RUN"
 PG_PORT="$(free_port)"
 RAW_PORT="$(free_port)"
 throwaway_app_env "$PG_PORT" ohmstead_bench
-export OHM_DIST_DIR=.next-bench OHM_BENCH=1
+export OHM_DIST_DIR=.next-bench OHM_BENCH=1 OHM_BUILD_DOORS=bench
 
 APP_PID="" RAW_PID=""
 cleanup() {

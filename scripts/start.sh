@@ -18,10 +18,18 @@ export DATABASE_URL="postgres://postgres@127.0.0.1:$PGPORT_OHM/ohmstead"
 export NEXTAUTH_SECRET="$(cat "$STATE/secret")"
 export NEXTAUTH_URL="http://127.0.0.1:3000" APP_BASE_URL="http://127.0.0.1:3000"
 export SMTP_HOST=127.0.0.1 SMTP_PORT="${SMTP_PORT:-2525}" SMTP_SINK_HTTP_PORT="${SMTP_SINK_HTTP_PORT:-2580}"
-export MAILBOX_URL="http://127.0.0.1:$SMTP_SINK_HTTP_PORT" OHM_DEV_MAILBOX=1
+export MAILBOX_URL="http://127.0.0.1:$SMTP_SINK_HTTP_PORT"
 export PAYMENTS_API_HOST=127.0.0.1 PAYMENTS_API_PORT="${PAYMENTS_API_PORT:-12111}" PAYMENTS_API_PROTOCOL=http
 export STRIPE_SECRET_KEY="sk_test_ohmstead_local" STRIPE_WEBHOOK_SECRET="whsec_ohmstead_local_dev_secret"
 export NEXT_TELEMETRY_DISABLED=1
+# The build npm start serves holds no test, bench or dev doors (next.config.mjs). OHM_DEMO_MAILBOX=1 asks
+# for a demo build (in .next-demo) that also holds the dev mailbox page, answering on this machine only.
+unset OHM_BUILD_DOORS OHM_TEST_HOOKS OHM_BENCH
+DIST=.next
+if [ "${OHM_DEMO_MAILBOX:-0}" = 1 ]; then
+  export OHM_BUILD_DOORS=dev OHM_DEV_MAILBOX=1 OHM_DIST_DIR=.next-demo
+  DIST=.next-demo
+fi
 
 log "PostgreSQL (data in $PGDATA_OHM, port $PGPORT_OHM)"
 pg_start "$PGDATA_OHM" "$PGPORT_OHM" durable
@@ -46,9 +54,9 @@ log "seeding the demo (only into an empty database)"
 node node_modules/tsx/dist/cli.mjs scripts/seed.ts
 
 # Build when the sources changed since the last build.
-stamp="$STATE/build.stamp"
+stamp="$STATE/build$DIST.stamp"
 src_hash="$(git ls-files -s 2>/dev/null | md5sum | cut -c1-32)$(git diff 2>/dev/null | md5sum | cut -c1-32)"
-if [ ! -f .next/BUILD_ID ] || [ "$(cat "$stamp" 2>/dev/null)" != "$src_hash" ]; then
+if [ ! -f "$DIST/BUILD_ID" ] || [ "$(cat "$stamp" 2>/dev/null)" != "$src_hash" ]; then
   log "building (next build)"
   node node_modules/next/dist/bin/next build
   echo "$src_hash" >"$stamp"
@@ -60,7 +68,8 @@ wait_http "http://127.0.0.1:3000/signin" 120
 cat <<MSG
 
   Ohmstead is serving on http://127.0.0.1:3000
-  Dev mailbox (sign-in links, receipts, reminders): http://127.0.0.1:3000/dev/mailbox
+  Mail it sends (sign-in links, receipts, reminders) is caught by the local sink: $MAILBOX_URL/messages
+  (or start with OHM_DEMO_MAILBOX=1 for the readable dev mailbox at http://127.0.0.1:3000/dev/mailbox)
 
 $(node node_modules/tsx/dist/cli.mjs scripts/demo-logins.ts)
 

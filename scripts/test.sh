@@ -20,7 +20,8 @@ export TEST_BASE_URL="$APP_BASE_URL"
 export SMTP_HOST=127.0.0.1 MAILBOX_URL="http://127.0.0.1:$SMTP_SINK_HTTP_PORT" OHM_DEV_MAILBOX=1
 export PAYMENTS_API_HOST=127.0.0.1 PAYMENTS_API_PROTOCOL=http
 export STRIPE_SECRET_KEY="sk_test_ohmstead_tests" STRIPE_WEBHOOK_SECRET="whsec_ohmstead_tests_secret"
-export OHM_TEST_HOOKS=1 OHM_DIST_DIR=.next-test NEXT_TELEMETRY_DISABLED=1
+# The test build holds the test hooks and the dev mailbox (next.config.mjs); the one npm start serves does not.
+export OHM_TEST_HOOKS=1 OHM_DIST_DIR=.next-test OHM_BUILD_DOORS=test,dev NEXT_TELEMETRY_DISABLED=1
 export OHM_TEST_PG_DATA="$RUN/pg" OHM_TEST_PG_PORT="$PG_PORT" OHM_TEST_RUN_DIR="$RUN"
 
 APP_PID=""

@@ -3,16 +3,17 @@ import { cookies } from 'next/headers';
 import { redirect } from 'next/navigation';
 import { z } from 'zod';
 import { db } from '@/db';
-import { requireUser, SPACE_COOKIE } from '@/lib/auth/guard';
+import { formAction } from '@/lib/auth/action';
+import { SPACE_COOKIE } from '@/lib/auth/guard';
+import { idSchema } from '@/lib/ids';
+import { rememberCurrentSpace } from '@/lib/people/current-space';
 
-/** Switches the current space; only to a space the person belongs to. */
-export async function switchSpace(form: FormData): Promise<void> {
-  const ctx = await requireUser();
-  const spaceId = z.string().uuid().safeParse(form.get('spaceId'));
-  if (!spaceId.success || !ctx.spaces.some((s) => s.id === spaceId.data)) redirect('/today');
-  await db.transaction().execute(async (trx) => {
-    await trx.updateTable('users').set({ last_space_id: spaceId.data }).where('id', '=', ctx.userId).execute();
-  });
-  (await cookies()).set(SPACE_COOKIE, spaceId.data, { httpOnly: true, sameSite: 'lax', path: '/', maxAge: 60 * 60 * 24 * 365 });
-  redirect('/today');
-}
+const toToday = (): never => redirect('/today');
+
+/** Switches the current space; only to a space the person belongs to (anything else: back to Today). */
+export const switchSpace = formAction('signed-in', z.object({ spaceId: idSchema }), async (ctx, { spaceId }) => {
+  if (!ctx.spaces.some((s) => s.id === spaceId)) toToday();
+  await rememberCurrentSpace(db, ctx, spaceId);
+  (await cookies()).set(SPACE_COOKIE, spaceId, { httpOnly: true, sameSite: 'lax', path: '/', maxAge: 60 * 60 * 24 * 365 });
+  toToday();
+}, toToday);

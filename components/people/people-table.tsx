@@ -3,7 +3,7 @@ import { useMutation } from '@tanstack/react-query';
 import { createColumnHelper } from '@tanstack/react-table';
 import { useRouter } from 'next/navigation';
 import { useState } from 'react';
-import type { Role } from '@/db/types';
+import type { Role } from '@/lib/domain';
 import { DataTable } from '@/components/books/data-table';
 import type { Person } from '@/lib/people/people';
 import type { UpdatePersonInput } from '@/lib/people/schema';

@@ -1,5 +1,5 @@
 'use client';
-import type { Role } from '@/db/types';
+import type { Role } from '@/lib/domain';
 import { ROLES } from '@/lib/auth/roles';
 import { ROLE_WORDS } from '@/lib/people/schema';
 import { InlineError } from './form-field';

@@ -1,7 +1,7 @@
 'use client';
 import { useRouter } from 'next/navigation';
 import { useState } from 'react';
-import type { PartCategory } from '@/db/types';
+import type { PartCategory } from '@/lib/domain';
 import { formatMoney, minorUnitExponent, parseMoney } from '@/lib/money';
 import { CATEGORIES, CATEGORY_WORDS, SPEC_FIELDS } from '@/lib/inventory/words';
 import { api } from './api';

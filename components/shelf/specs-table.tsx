@@ -1,4 +1,4 @@
-import type { PartCategory } from '@/db/types';
+import type { PartCategory } from '@/lib/domain';
 import { SPEC_FIELDS } from '@/lib/inventory/words';
 
 const DRIVER_TYPES: Record<string, string> = {

@@ -1,7 +1,7 @@
 'use client';
 import { useRouter } from 'next/navigation';
 import { useState } from 'react';
-import type { UnitState } from '@/db/types';
+import type { UnitState } from '@/lib/domain';
 import { api, ApiError } from './api';
 
 type Target = 'in_repair' | 'on_shelf' | 'retired';

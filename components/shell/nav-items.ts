@@ -1,4 +1,4 @@
-import type { Role } from '@/db/types';
+import type { Role } from '@/lib/domain';
 
 export type NavItem = { href: string; label: string; roles: Role[] | 'all' };
 

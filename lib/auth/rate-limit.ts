@@ -1,3 +1,4 @@
+import 'server-only';
 import pg from 'pg';
 import { RateLimiterPostgres, RateLimiterRes } from 'rate-limiter-flexible';
 import { env } from '@/lib/env';

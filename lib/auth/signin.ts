@@ -1,3 +1,4 @@
+import 'server-only';
 import { sql, type ExpressionBuilder } from 'kysely';
 import type { Db } from '@/db/connect';
 import type { Database } from '@/db/types';

@@ -22,7 +22,9 @@ export function zodFields(error: z.ZodError): FieldErrors {
   const fields: FieldErrors = {};
   for (const issue of error.issues) {
     const key = issue.path.length ? issue.path.map(String).join('.') : '(body)';
-    (fields[key] ??= []).push(issue.message);
+    // Own keys only: a field named `constructor` or `__proto__` must not reach Object.prototype.
+    if (!Object.hasOwn(fields, key)) Object.defineProperty(fields, key, { value: [], enumerable: true, writable: true, configurable: true });
+    fields[key].push(issue.message);
   }
   return fields;
 }

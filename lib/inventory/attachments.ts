@@ -1,3 +1,4 @@
+import 'server-only';
 import { createHash } from 'node:crypto';
 import type { Db } from '@/db/connect';
 import { audit } from '@/lib/audit/log';

@@ -1,3 +1,4 @@
+import 'server-only';
 import type { Db } from '@/db/connect';
 import type { LabelKind } from '@/db/types';
 import { newCode } from '@/labels/code';

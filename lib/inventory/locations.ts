@@ -1,3 +1,4 @@
+import 'server-only';
 import { randomUUID } from 'node:crypto';
 import { sql } from 'kysely';
 import type { z } from 'zod';

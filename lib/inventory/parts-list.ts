@@ -1,9 +1,11 @@
+import 'server-only';
 import { sql, type Expression, type SqlBool } from 'kysely';
 import type { Db } from '@/db/connect';
 import type { PartCategory } from '@/db/types';
 import { verifyCode } from '@/labels/code';
 import type { Ctx } from '@/lib/auth/roles';
 import type { PartListQuery, PartSort } from './schemas';
+import { partsToCsv } from './csv';
 import { keySpec } from './specs';
 
 // The parts table, paged, sorted and filtered in PostgreSQL so it stays quick at 10,000 parts:
@@ -216,4 +218,13 @@ export async function allMatchingParts(
   const rows: PartRow[] = [];
   for (let i = 0; i < ids.length; i += 1000) rows.push(...(await rowsFor(db, ids.slice(i, i + 1000))));
   return rows;
+}
+
+/** The parts table as the CSV download: same filters and order as the screen, the space's currency. */
+export async function exportPartsCsv(db: Db, ctx: Pick<Ctx, 'spaceId'>, q: PartListQuery): Promise<string> {
+  const [rows, space] = await Promise.all([
+    allMatchingParts(db, ctx, q),
+    db.selectFrom('spaces').select('currency').where('id', '=', ctx.spaceId).executeTakeFirstOrThrow(),
+  ]);
+  return partsToCsv(rows, space.currency.trim());
 }

@@ -1,6 +1,7 @@
 // Input shapes of the shelf, in one place for route handlers, forms and tests.
 // Pure module (zod only): the client forms and the unit tests import it.
 import { z } from 'zod';
+import { idSchema } from '@/lib/ids';
 
 import { CATEGORIES, LOCATION_KINDS, PART_SORTS, TRACKING } from './words';
 
@@ -20,7 +21,8 @@ const flag = z.preprocess(
   z.boolean(),
 );
 
-export const uuid = z.uuid({ message: 'not a valid id' });
+/** Ids in bodies: the one id schema (lib/ids.ts). */
+export const uuid = idSchema;
 const wholeQty = (what: string) =>
   z.number({ error: `${what} must be a number` }).int(`${what} must be a whole number`);
 
@@ -128,6 +130,26 @@ export const adjustSchema = z.object({
   note: z.string({ error: 'say why' }).trim().min(3, 'say why (at least 3 characters)').max(500),
 });
 export const moveUnitSchema = z.object({ unitId: uuid, toLocationId: uuid, note });
+
+/**
+ * POST /api/stock/move: a body naming `unitId` moves that labelled unit; anything else is a counted move,
+ * so a bad body's errors name the counted move's fields. Tagged with `kind` for the service call.
+ */
+export const stockMoveSchema = z
+  .unknown()
+  .transform((raw, ctx) => {
+    const unit = typeof raw === 'object' && raw !== null && 'unitId' in raw;
+    const parsed = unit ? moveUnitSchema.safeParse(raw) : moveSchema.safeParse(raw);
+    if (!parsed.success) {
+      for (const issue of parsed.error.issues) ctx.addIssue({ ...issue, code: 'custom', message: issue.message });
+      return z.NEVER;
+    }
+    return unit
+      ? { kind: 'unit' as const, move: parsed.data as z.output<typeof moveUnitSchema> }
+      : { kind: 'counted' as const, move: parsed.data as z.output<typeof moveSchema> };
+  });
+/** The same body as documented: one of the two shapes. */
+export const stockMoveDoc = z.union([moveSchema, moveUnitSchema]);
 
 export const UNIT_TARGET_STATES = ['in_repair', 'on_shelf', 'retired'] as const;
 export const unitStateSchema = z.object({

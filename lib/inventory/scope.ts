@@ -1,14 +1,15 @@
+import 'server-only';
 import type { Db } from '@/db/connect';
 import type { Ctx } from '@/lib/auth/roles';
 import { NotFoundError } from '@/lib/errors';
+import { isId } from '@/lib/ids';
 
 // Every lookup by id is scoped to the caller's space: another space's record is simply "not found".
 type Scope = Pick<Ctx, 'spaceId'>;
-const UUID = /^[0-9a-f]{8}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{12}$/i;
 
 /** A malformed id can name nothing: answer 404 rather than let PostgreSQL reject the cast. */
 export function assertId(id: string, what = 'record'): void {
-  if (!UUID.test(id)) throw new NotFoundError(`No such ${what}.`);
+  if (!isId(id)) throw new NotFoundError(`No such ${what}.`);
 }
 
 export async function findPart(db: Db, ctx: Scope, id: string) {
@@ -35,21 +36,9 @@ export async function findLocation(db: Db, ctx: Scope, id: string) {
   return loc;
 }
 
-export async function findUnit(db: Db, ctx: Scope, id: string) {
-  assertId(id, 'unit');
-  const unit = await db
-    .selectFrom('units')
-    .selectAll()
-    .where('id', '=', id)
-    .where('space_id', '=', ctx.spaceId)
-    .executeTakeFirst();
-  if (!unit) throw new NotFoundError('No such unit.');
-  return unit;
-}
-
 /** A part's name, SKU and tracking when `id` names one in the space (for a form's preselected part); else null. */
 export async function findPartSummary(db: Db, ctx: Scope, id: string | undefined) {
-  if (!id || !UUID.test(id)) return null;
+  if (!isId(id)) return null;
   const p = await db
     .selectFrom('parts')
     .select(['id', 'name', 'sku', 'tracking'])

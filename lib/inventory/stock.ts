@@ -1,3 +1,4 @@
+import 'server-only';
 import type { z } from 'zod';
 import type { Db } from '@/db/connect';
 import type { MovementReason } from '@/db/types';

@@ -1,3 +1,4 @@
+import 'server-only';
 import type { Transaction } from 'kysely';
 import type { Db } from '@/db/connect';
 import type { Database } from '@/db/types';

@@ -1,3 +1,4 @@
+import 'server-only';
 import type { Db } from '@/db/connect';
 import type { UnitState } from '@/db/types';
 import { isStaff, type Ctx } from '@/lib/auth/roles';

@@ -1,3 +1,4 @@
+import 'server-only';
 import { randomBytes } from 'node:crypto';
 import { sql } from 'kysely';
 import { createEvents, type EventAttributes } from 'ics';

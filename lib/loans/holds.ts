@@ -1,3 +1,4 @@
+import 'server-only';
 import type { Db } from '@/db/connect';
 import { audit } from '@/lib/audit/log';
 import { isStaff, type Ctx } from '@/lib/auth/roles';

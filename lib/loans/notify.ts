@@ -1,3 +1,4 @@
+import 'server-only';
 import type { Db } from '@/db/connect';
 import { env } from '@/lib/env';
 import { holdReadyMail, type BuiltMail } from '@/lib/mail/loans';

@@ -1,7 +1,9 @@
+import 'server-only';
 import { sql } from 'kysely';
 import type { Db } from '@/db/connect';
-import type { Ctx } from '@/lib/auth/roles';
+import { isStaff, type Ctx } from '@/lib/auth/roles';
 import { now } from '@/lib/clock';
+import { ForbiddenError } from '@/lib/errors';
 import { whatWorksWith, type Alternative } from './alternatives';
 import { buildNote, looseOutcome } from './build';
 import { checkLines, type CheckOutcome } from './check';
@@ -44,6 +46,8 @@ export async function previewLoan(
   sel: Selection,
   opts: { borrowerId?: string; ownParts?: OwnParts } = {},
 ): Promise<Preview> {
+  // Only stewards and admins look at a loan for someone else.
+  if (opts.borrowerId && opts.borrowerId !== ctx.userId && !isStaff(ctx)) throw new ForbiddenError();
   const borrowerId = opts.borrowerId ?? ctx.userId;
   const settings = await loanSettings(db, ctx.spaceId);
   const { box, lines } = await resolveSelection(db, ctx.spaceId, sel);

@@ -1,3 +1,4 @@
+import 'server-only';
 import { z } from 'zod';
 import type { Db } from '@/db/connect';
 import { NotFoundError } from '@/lib/errors';

@@ -1,4 +1,5 @@
 import { z } from 'zod';
+import { rawEnv } from '@/lib/env';
 import { NotFoundError, UnavailableError } from '@/lib/errors';
 import { storedMessageSchema, type StoredMessage } from './message';
 
@@ -8,7 +9,7 @@ import { storedMessageSchema, type StoredMessage } from './message';
 export type { StoredMessage };
 
 /** Base URL of the sink's API, read at call time. */
-export function mailboxUrl(env: NodeJS.ProcessEnv = process.env): string {
+export function mailboxUrl(env: Record<string, string | undefined> = rawEnv()): string {
   return (env.MAILBOX_URL || 'http://127.0.0.1:2580').replace(/\/+$/, '');
 }
 

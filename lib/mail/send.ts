@@ -1,5 +1,6 @@
 import nodemailer, { type Transporter } from 'nodemailer';
 import { z } from 'zod';
+import { rawEnv } from '@/lib/env';
 import { AppError, InvalidError, UnavailableError } from '@/lib/errors';
 import { zodFields } from '@/lib/http/respond';
 
@@ -12,7 +13,7 @@ export type MailConfig = { host: string; port: number; from: string };
 const portSchema = z.coerce.number().int().min(1).max(65535);
 
 /** Reads the mail settings from the environment at call time (tests may set them after import). */
-export function mailConfigFromEnv(env: NodeJS.ProcessEnv = process.env): MailConfig {
+export function mailConfigFromEnv(env: Record<string, string | undefined> = rawEnv()): MailConfig {
   const port = portSchema.safeParse(env.SMTP_PORT || 2525);
   if (!port.success) throw new Error(`SMTP_PORT must be a port number (1-65535), got "${env.SMTP_PORT}"`);
   return {

@@ -1,6 +1,7 @@
 import 'server-only';
 import type Stripe from 'stripe';
 import { env } from '@/lib/env';
+import { UnavailableError } from '@/lib/errors';
 import type { PaymentsDeps } from '@/lib/sales/card';
 import { makeStripe } from './stripe';
 
@@ -13,7 +14,7 @@ const g = globalThis as typeof globalThis & {
 };
 
 export function setTestPaymentsPort(spaceId: string, port: number | null): void {
-  if (process.env.OHM_TEST_HOOKS !== '1') throw new Error('payments endpoint overrides are only for tests');
+  if (env().OHM_TEST_HOOKS !== '1') throw new Error('payments endpoint overrides are only for tests');
   const ports = (g.ohmPaymentsPorts ??= new Map());
   if (port === null) ports.delete(spaceId);
   else ports.set(spaceId, port);
@@ -21,8 +22,9 @@ export function setTestPaymentsPort(spaceId: string, port: number | null): void 
 
 export function paymentsClient(spaceId?: string): Stripe {
   const e = env();
+  if (!e.STRIPE_SECRET_KEY) throw new UnavailableError('Card payments are not configured here (no STRIPE_SECRET_KEY).');
   const override =
-    process.env.OHM_TEST_HOOKS === '1' && spaceId ? g.ohmPaymentsPorts?.get(spaceId) : undefined;
+    e.OHM_TEST_HOOKS === '1' && spaceId ? g.ohmPaymentsPorts?.get(spaceId) : undefined;
   const port = override ?? e.PAYMENTS_API_PORT;
   const clients = (g.ohmStripeClients ??= new Map());
   let client = clients.get(port);
@@ -32,7 +34,7 @@ export function paymentsClient(spaceId?: string): Stripe {
       PAYMENTS_API_HOST: e.PAYMENTS_API_HOST,
       PAYMENTS_API_PORT: port,
       PAYMENTS_API_PROTOCOL: e.PAYMENTS_API_PROTOCOL,
-      PAYMENTS_API_TIMEOUT_MS: process.env.PAYMENTS_API_TIMEOUT_MS,
+      PAYMENTS_API_TIMEOUT_MS: e.PAYMENTS_API_TIMEOUT_MS,
     });
     clients.set(port, client);
   }
@@ -43,6 +45,7 @@ export function paymentsDeps(spaceId: string): PaymentsDeps {
   return { stripe: paymentsClient(spaceId), appBaseUrl: env().APP_BASE_URL };
 }
 
-export function webhookSecret(): string {
+/** The webhook signing secret, or undefined when none is configured (then every event is refused). */
+export function webhookSecret(): string | undefined {
   return env().STRIPE_WEBHOOK_SECRET;
 }

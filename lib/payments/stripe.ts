@@ -35,8 +35,3 @@ export function makeStripe(env: StripeEnv): Stripe {
     appInfo: { name: 'ohmstead' },
   });
 }
-
-/** True when the processor could not be reached at all (down, refused, timed out) — answer 503, not 500. */
-export function isPaymentsUnreachable(err: unknown): boolean {
-  return err instanceof Stripe.errors.StripeConnectionError;
-}

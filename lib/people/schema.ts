@@ -1,7 +1,6 @@
 import { z } from 'zod';
 import type { Role } from '@/db/types';
 import { ROLES } from '@/lib/auth/roles';
-import { InvalidError } from '@/lib/errors';
 
 // Input shapes for People and invitations, shared by the route handlers and the forms.
 
@@ -73,11 +72,3 @@ export const welcomeFormSchema = z
   .refine((v) => v.password === v.confirm, { message: 'the two passwords differ', path: ['confirm'] });
 export type WelcomeFormInput = z.infer<typeof welcomeFormSchema>;
 
-export const idSchema = z.uuid('an id');
-
-/** A record id from the URL; anything else is a 400 naming `id` (and never reaches SQL as a bad uuid). */
-export function parseId(raw: string): string {
-  const parsed = idSchema.safeParse(raw);
-  if (!parsed.success) throw new InvalidError('Check id.', { id: ['not a valid id'] });
-  return parsed.data;
-}

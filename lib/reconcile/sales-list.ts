@@ -1,3 +1,4 @@
+import 'server-only';
 import type { Db } from '@/db/connect';
 import type { SaleStatus } from '@/db/types';
 import { monthRange, spaceClock, type Month } from '@/lib/sales/periods';

@@ -1,3 +1,4 @@
+import 'server-only';
 import PgBoss from 'pg-boss';
 import { createDb, type Db } from '@/db/connect';
 import { now } from '@/lib/clock';
@@ -42,12 +43,4 @@ export function startReminderJobs(connectionString: string): Promise<Runner> {
     throw err;
   });
   return g.ohmReminderRunner;
-}
-
-export async function stopReminderJobs(): Promise<void> {
-  const runner = await g.ohmReminderRunner?.catch(() => undefined);
-  g.ohmReminderRunner = undefined;
-  if (!runner) return;
-  await runner.boss.stop({ graceful: true, wait: true });
-  await runner.db.destroy();
 }

@@ -1,6 +1,7 @@
 import PgBoss from 'pg-boss';
 import { createDb } from '@/db/connect';
 import { now } from '@/lib/clock';
+import { env } from '@/lib/env';
 import { sendReceipts } from '@/lib/mail/sales';
 import { paymentsClient } from '@/lib/payments/client';
 import { runSaleSweep, SALE_SWEEP_CRON, SALE_SWEEP_QUEUE } from './jobs';
@@ -35,9 +36,10 @@ function startSaleJobs(connectionString: string): Promise<PgBoss> {
 }
 
 /** Starts the sale sweep in this server process unless OHM_JOBS=0; a database not up yet is retried in 30 s. */
-export function startSaleJobsInThisProcess(env: NodeJS.ProcessEnv = process.env): void {
-  if (env.OHM_JOBS === '0' || !env.DATABASE_URL) return;
-  const url = env.DATABASE_URL;
+export function startSaleJobsInThisProcess(): void {
+  const e = env();
+  if (e.OHM_JOBS === '0') return;
+  const url = e.DATABASE_URL;
   const attempt = () =>
     startSaleJobs(url).catch((err: Error) => {
       console.error('[jobs] sale sweep did not start; retrying in 30 s:', err.message);

@@ -63,12 +63,3 @@ export async function isClosedAt(db: Db, spaceId: string, at: Date): Promise<boo
     .executeTakeFirst();
   return Boolean(row);
 }
-
-export async function closedMonths(db: Db, spaceId: string): Promise<Set<Month>> {
-  const rows = await db
-    .selectFrom('closed_periods')
-    .select('month')
-    .where('space_id', '=', spaceId)
-    .execute();
-  return new Set(rows.map((r) => r.month.slice(0, 7)));
-}

@@ -1,3 +1,4 @@
+import 'server-only';
 import type { Db } from '@/db/connect';
 import type { SaleStatus } from '@/db/types';
 import type { Ctx } from '@/lib/auth/roles';

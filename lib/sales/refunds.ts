@@ -1,6 +1,7 @@
 import type Stripe from 'stripe';
 import type { Db } from '@/db/connect';
 import type { Sale } from '@/db/types';
+import { isId } from '@/lib/ids';
 import { hasRole, type Ctx } from '@/lib/auth/roles';
 import { audit } from '@/lib/audit/log';
 import { now } from '@/lib/clock';
@@ -111,7 +112,6 @@ export function refundMetadata(input: {
   return md;
 }
 
-const UUID = /^[0-9a-f]{8}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{12}$/i;
 
 export function parseRefundMetadata(md: Record<string, string> | null | undefined) {
   const m = md ?? {};
@@ -119,12 +119,12 @@ export function parseRefundMetadata(md: Record<string, string> | null | undefine
   for (const [k, v] of Object.entries(m)) {
     if (!/^l\d+$/.test(k)) continue;
     const [id, qty] = v.split(':');
-    if (UUID.test(id) && /^\d+$/.test(qty) && Number(qty) > 0)
+    if (isId(id) && /^\d+$/.test(qty) && Number(qty) > 0)
       lines.push({ saleLineId: id, qty: Number(qty) });
   }
   return {
-    saleId: UUID.test(m.saleId ?? '') ? m.saleId : null,
-    by: UUID.test(m.by ?? '') ? m.by : null,
+    saleId: isId(m.saleId ?? '') ? m.saleId : null,
+    by: isId(m.by ?? '') ? m.by : null,
     restock: m.restock === '1',
     lines,
   };

@@ -1,3 +1,4 @@
+import 'server-only';
 import Stripe from 'stripe';
 import type { Db } from '@/db/connect';
 import type { Sale, SaleStatus } from '@/db/types';

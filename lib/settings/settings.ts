@@ -1,3 +1,4 @@
+import 'server-only';
 import type { Updateable } from 'kysely';
 import type { Db } from '@/db/connect';
 import type { SpacesTable } from '@/db/types';

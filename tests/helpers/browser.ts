@@ -1,6 +1,7 @@
 import { readFileSync } from 'node:fs';
 import { createRequire } from 'node:module';
 import { chromium, type Browser, type Page } from 'playwright-core';
+import { afterEach } from 'vitest';
 import { DEMO_PASSWORD } from '@/db/seed/people';
 import { BASE } from './http';
 
@@ -13,10 +14,32 @@ export async function launchBrowser(): Promise<Browser> {
   });
 }
 
+// Every page runs under the app's Content-Security-Policy; a violation anywhere fails the test that
+// caused it. The listener is injected by the browser driver (not subject to the page's CSP).
+const cspViolations: string[] = [];
+afterEach(() => {
+  const found = cspViolations.splice(0);
+  if (found.length) throw new Error(`Content-Security-Policy violations:\n  ${found.join('\n  ')}`);
+});
+
 /** A fresh context at phone width (390 px) by default. */
 export async function newPage(browser: Browser, width = 390, height = 844): Promise<Page> {
   const context = await browser.newContext({ viewport: { width, height }, baseURL: BASE });
+  await context.exposeBinding('__ohmCspViolation', (_source, text: string) => {
+    cspViolations.push(text);
+  });
+  await context.addInitScript(() => {
+    document.addEventListener('securitypolicyviolation', (e) => {
+      const w = window as unknown as { __ohmCspViolation: (t: string) => void };
+      void w.__ohmCspViolation(`${e.violatedDirective} blocked ${e.blockedURI || '(inline)'} on ${location.pathname}`);
+    });
+  });
   return context.newPage();
+}
+
+/** The violations seen so far and not yet reported (a test may check a page explicitly). */
+export function takeCspViolations(): string[] {
+  return cspViolations.splice(0);
 }
 
 export async function signInPage(page: Page, email: string, password = DEMO_PASSWORD): Promise<void> {
@@ -31,7 +54,8 @@ const axeSource = readFileSync(createRequire(import.meta.url).resolve('axe-core/
 
 /** axe-core in the page; returns the serious and critical violations (ids and first targets). */
 export async function seriousA11yViolations(page: Page): Promise<string[]> {
-  await page.addScriptTag({ content: axeSource });
+  // Evaluated by the driver, not added as an inline <script> (the app's CSP refuses those).
+  await page.evaluate(axeSource);
   const violations = await page.evaluate(async () => {
     // @ts-expect-error axe is injected above
     const r = await window.axe.run(document, { resultTypes: ['violations'] });

@@ -21,9 +21,14 @@ export class HttpSession {
     }
   }
 
+  /** The Origin a browser on the app's own pages sends with a change; null sends none. */
+  origin: string | null = new URL(BASE).origin;
+
   async fetch(path: string, init: RequestInit = {}): Promise<Response> {
     const headers = new Headers(init.headers);
     if (this.cookies.size) headers.set('cookie', this.cookieHeader());
+    const method = (init.method ?? 'GET').toUpperCase();
+    if (method !== 'GET' && method !== 'HEAD' && this.origin && !headers.has('origin')) headers.set('origin', this.origin);
     const res = await fetch(path.startsWith('http') ? path : BASE + path, { redirect: 'manual', ...init, headers });
     this.keep(res);
     return res;

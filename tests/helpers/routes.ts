@@ -2,15 +2,22 @@ import { readdirSync, readFileSync, statSync } from 'node:fs';
 import path from 'node:path';
 
 // Every route handler in app/api, found on disk, so a new route cannot slip past the matrix and the fuzzer.
-export type RouteFile = { pattern: string; methods: string[]; file: string };
+// `door` says which builds hold the file (next.config.mjs): 'app' every build, 'test' the test build
+// (route.testhooks.ts), 'bench' the bench build only (route.benchonly.ts).
+export type Door = 'app' | 'test' | 'bench';
+export type RouteFile = { pattern: string; methods: string[]; file: string; door: Door };
+const DOOR_OF: Record<string, Door> = { 'route.ts': 'app', 'route.testhooks.ts': 'test', 'route.benchonly.ts': 'bench' };
 
 const ROOT = path.resolve(__dirname, '../../app/api');
 const METHOD_RE = /export\s+(?:const|async\s+function|function)\s+(GET|POST|PUT|PATCH|DELETE)\b|export\s*\{([^}]*)\}/g;
 
+/** The OpenAPI form of a pattern: /api/loans/[id] → /api/loans/{id}. */
+export const openApiPath = (pattern: string) => pattern.replace(/\[(?:\.\.\.)?(\w+)\]/g, '{$1}');
+
 function walk(dir: string): string[] {
   return readdirSync(dir).flatMap((name) => {
     const full = path.join(dir, name);
-    return statSync(full).isDirectory() ? walk(full) : name === 'route.ts' ? [full] : [];
+    return statSync(full).isDirectory() ? walk(full) : name in DOOR_OF ? [full] : [];
   });
 }
 
@@ -27,7 +34,8 @@ export function apiRoutes(): RouteFile[] {
         }
       }
       const rel = path.relative(ROOT, path.dirname(file)).split(path.sep).join('/');
-      return { pattern: `/api${rel ? `/${rel}` : ''}`, methods: [...methods].sort(), file };
+      const door = DOOR_OF[path.basename(file)];
+      return { pattern: `/api${rel ? `/${rel}` : ''}`, methods: [...methods].sort(), file, door };
     })
     .sort((a, b) => a.pattern.localeCompare(b.pattern));
 }

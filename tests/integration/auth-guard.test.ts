@@ -181,9 +181,9 @@ describe("another space's records answer 404", () => {
     expect(invitations.invitations.map((i) => i.id)).not.toContain(inv.id);
   });
 
-  test('a malformed id is a 400 naming id', async () => {
+  test('a malformed id is a 404, like every [id] route (one id rule: lib/http/route.ts)', async () => {
     const res = await sessions.admin.post('/api/people/not-a-uuid', { roles: ['member'] }, 'PATCH');
-    expect(res.status).toBe(400);
-    expect(Object.keys((await errorOf(res)).fields ?? {})).toEqual(['id']);
+    expect(res.status).toBe(404);
+    expect((await errorOf(res)).message).toBe('No such person.');
   });
 });

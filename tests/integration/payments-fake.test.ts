@@ -11,7 +11,8 @@ import path from 'node:path';
 import Stripe from 'stripe';
 import { afterAll, beforeAll, beforeEach, describe, expect, it } from 'vitest';
 import { startPaymentsFake, type PaymentsFake } from '@/fakes/payments/server';
-import { isPaymentsUnreachable, makeStripe } from '@/lib/payments/stripe';
+import { makeStripe } from '@/lib/payments/stripe';
+import { isProcessorUnreachable } from '@/lib/sales/processor-errors';
 
 const KEY = 'sk_test_ohmstead_fake_tests';
 const SECRET = 'whsec_ohmstead_fake_tests';
@@ -696,8 +697,8 @@ describe('makeStripe', () => {
     const started = Date.now();
     const err = await dead.checkout.sessions.list().catch((e: unknown) => e);
     expect(err).toBeInstanceOf(Stripe.errors.StripeConnectionError);
-    expect(isPaymentsUnreachable(err)).toBe(true);
-    expect(isPaymentsUnreachable(new Error('other'))).toBe(false);
+    expect(isProcessorUnreachable(err)).toBe(true);
+    expect(isProcessorUnreachable(new Error('other'))).toBe(false);
     expect(Date.now() - started).toBeLessThan(5_000);
   });
 });

@@ -1,3 +1,4 @@
+import Link from 'next/link';
 import { db } from '@/db';
 import { requirePageRole } from '@/lib/auth/guard';
 import { getSettings } from '@/lib/settings/settings';
@@ -11,7 +12,9 @@ export default async function SettingsPage() {
   const settings = await getSettings(db, ctx);
   return (
     <div className="mx-auto max-w-3xl">
-      <PageTitle title="Settings" lead={`The rules ${ctx.spaceName} runs its bench by.`} />
+      <PageTitle title="Settings" lead={`The rules ${ctx.spaceName} runs its bench by.`}>
+        <Link className="btn-quiet" href="/settings/api">API reference</Link>
+      </PageTitle>
       <SettingsForm initial={settings} />
     </div>
   );

@@ -1,23 +1,26 @@
-import { NextResponse } from 'next/server';
 import { z } from 'zod';
 import { db } from '@/db';
-import { requireUser } from '@/lib/auth/guard';
-import { handle, parseJsonBody, parseQuery } from '@/lib/http/respond';
+import { json, route } from '@/lib/http/route';
+import { listOf, one } from '@/lib/http/shapes';
 import { placeHold } from '@/lib/loans/holds';
 import { listHolds } from '@/lib/loans/queries';
 import { holdSchema } from '@/lib/loans/schemas';
 
-// GET: my open holds (stewards: ?all=1 for everyone's). POST: hold a box or unit that is out.
-export const GET = handle(async (req: Request) => {
-  const ctx = await requireUser();
-  const q = parseQuery(req.url, z.object({ all: z.enum(['0', '1']).optional() }));
-  const holds = await listHolds(db, ctx, { all: q.all === '1' });
-  return NextResponse.json({ holds });
+export const GET = route({
+  method: 'GET',
+  summary: 'My open holds (stewards: ?all=1 for everyone’s)',
+  who: 'signed-in',
+  query: z.object({ all: z.enum(['0', '1']).optional() }),
+  response: listOf('holds', 'An open hold with its place in line.'),
+  run: async ({ ctx, query }) => ({ holds: await listHolds(db, ctx, { all: query.all === '1' }) }),
 });
 
-export const POST = handle(async (req: Request) => {
-  const ctx = await requireUser();
-  const input = await parseJsonBody(req, holdSchema);
-  const hold = await placeHold(db, ctx, input);
-  return NextResponse.json({ hold }, { status: 201 });
+export const POST = route({
+  method: 'POST',
+  summary: 'Holds a box or unit that is out',
+  who: 'signed-in',
+  body: json(holdSchema),
+  status: 201,
+  response: one('hold', 'The new hold.'),
+  run: async ({ ctx, body }) => ({ hold: await placeHold(db, ctx, body) }),
 });

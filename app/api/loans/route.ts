@@ -1,22 +1,25 @@
-import { NextResponse } from 'next/server';
 import { db } from '@/db';
-import { requireUser } from '@/lib/auth/guard';
-import { handle, parseJsonBody, parseQuery } from '@/lib/http/respond';
+import { json, route } from '@/lib/http/route';
+import { listOf, one } from '@/lib/http/shapes';
 import { borrow } from '@/lib/loans/borrow';
 import { listLoans } from '@/lib/loans/queries';
 import { borrowSchema, loanFilterSchema } from '@/lib/loans/schemas';
 
-// GET: my loans (stewards: everyone's, or ?mine=1). POST: borrow — the check runs again on the server.
-export const GET = handle(async (req: Request) => {
-  const ctx = await requireUser();
-  const q = parseQuery(req.url, loanFilterSchema);
-  const loans = await listLoans(db, ctx, q.status, { mine: q.mine === '1' });
-  return NextResponse.json({ loans });
+export const GET = route({
+  method: 'GET',
+  summary: 'My loans (stewards: everyone’s, or ?mine=1)',
+  who: 'signed-in',
+  query: loanFilterSchema,
+  response: listOf('loans', 'A loan.'),
+  run: async ({ ctx, query }) => ({ loans: await listLoans(db, ctx, query.status, { mine: query.mine === '1' }) }),
 });
 
-export const POST = handle(async (req: Request) => {
-  const ctx = await requireUser();
-  const input = await parseJsonBody(req, borrowSchema);
-  const loan = await borrow(db, ctx, input);
-  return NextResponse.json({ loan }, { status: 201 });
+export const POST = route({
+  method: 'POST',
+  summary: 'Borrows a box or loose parts; the check runs again on the server',
+  who: 'signed-in',
+  body: json(borrowSchema),
+  status: 201,
+  response: one('loan', 'The new loan.'),
+  run: async ({ ctx, body }) => ({ loan: await borrow(db, ctx, body) }),
 });

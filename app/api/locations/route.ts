@@ -1,18 +1,23 @@
-import { NextResponse } from 'next/server';
 import { db } from '@/db';
-import { handle, parseJsonBody } from '@/lib/http/respond';
-import { shelfReader, shelfWriter } from '@/lib/inventory/access';
+import { json, route, STAFF } from '@/lib/http/route';
+import { listOf, record } from '@/lib/http/shapes';
 import { createLocation, listLocations } from '@/lib/inventory/locations';
 import { locationCreateSchema } from '@/lib/inventory/schemas';
 
-export const GET = handle(async () => {
-  const ctx = await shelfReader();
-  return NextResponse.json({ locations: await listLocations(db, ctx) });
+export const GET = route({
+  method: 'GET',
+  summary: 'Locations of the space (rooms, shelves, bins)',
+  who: 'signed-in',
+  response: listOf('locations', 'A location with its label code.'),
+  run: async ({ ctx }) => ({ locations: await listLocations(db, ctx) }),
 });
 
-/** { name, kind?, parentId? } → the new location with its label code. */
-export const POST = handle(async (req: Request) => {
-  const ctx = await shelfWriter();
-  const input = await parseJsonBody(req, locationCreateSchema);
-  return NextResponse.json(await createLocation(db, ctx, input), { status: 201 });
+export const POST = route({
+  method: 'POST',
+  summary: 'Creates a location ({ name, kind?, parentId? }) with its label code',
+  who: STAFF,
+  body: json(locationCreateSchema),
+  status: 201,
+  response: record('The new location.'),
+  run: ({ ctx, body }) => createLocation(db, ctx, body),
 });

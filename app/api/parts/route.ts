@@ -1,20 +1,25 @@
-import { NextResponse } from 'next/server';
 import { db } from '@/db';
-import { handle, parseJsonBody, parseQuery } from '@/lib/http/respond';
-import { shelfReader, shelfWriter } from '@/lib/inventory/access';
+import { json, route, STAFF } from '@/lib/http/route';
+import { record } from '@/lib/http/shapes';
 import { listParts } from '@/lib/inventory/parts-list';
 import { createPart } from '@/lib/inventory/parts';
 import { partCreateSchema, partListQuerySchema } from '@/lib/inventory/schemas';
 
-/** The parts table: ?q=&category=&tracking=&below=1&sort=&dir=&page=&pageSize= */
-export const GET = handle(async (req: Request) => {
-  const ctx = await shelfReader();
-  const query = parseQuery(req.url, partListQuerySchema);
-  return NextResponse.json(await listParts(db, ctx, query));
+export const GET = route({
+  method: 'GET',
+  summary: 'The parts table, paged, sorted and filtered (?q=&category=&tracking=&below=1&sort=&dir=&page=&pageSize=)',
+  who: 'signed-in',
+  query: partListQuerySchema,
+  response: record('{ rows, total, page, pageSize, currency }'),
+  run: ({ ctx, query }) => listParts(db, ctx, query),
 });
 
-export const POST = handle(async (req: Request) => {
-  const ctx = await shelfWriter();
-  const input = await parseJsonBody(req, partCreateSchema);
-  return NextResponse.json(await createPart(db, ctx, input), { status: 201 });
+export const POST = route({
+  method: 'POST',
+  summary: 'Creates a part (and, for labelled parts, its first units)',
+  who: STAFF,
+  body: json(partCreateSchema),
+  status: 201,
+  response: record('The new part.'),
+  run: ({ ctx, body }) => createPart(db, ctx, body),
 });

@@ -1,11 +1,12 @@
-import { NextResponse } from 'next/server';
 import { db } from '@/db';
-import { requireRole } from '@/lib/auth/guard';
-import { handle } from '@/lib/http/respond';
+import { route } from '@/lib/http/route';
+import { listOf } from '@/lib/http/shapes';
 import { listPeople } from '@/lib/people/people';
 
-/** The people of the admin's current space. */
-export const GET = handle(async () => {
-  const ctx = await requireRole('admin');
-  return NextResponse.json({ people: await listPeople(db, ctx) });
+export const GET = route({
+  method: 'GET',
+  summary: 'The people of the admin’s current space',
+  who: ['admin'],
+  response: listOf('people', 'A person with their roles.'),
+  run: async ({ ctx }) => ({ people: await listPeople(db, ctx) }),
 });

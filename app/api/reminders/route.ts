@@ -1,14 +1,14 @@
-import { NextResponse } from 'next/server';
 import { db } from '@/db';
-import { requireRole } from '@/lib/auth/guard';
-import { handle, parseJsonBody } from '@/lib/http/respond';
-import { sendManualReminders } from '@/lib/reminders/manual';
+import { json, route, STAFF } from '@/lib/http/route';
+import { record } from '@/lib/http/shapes';
 import { reminderSchema } from '@/lib/loans/schemas';
+import { sendManualReminders } from '@/lib/reminders/manual';
 
-// "Send a reminder now" for one loan or many (the steward's round).
-export const POST = handle(async (req: Request) => {
-  const ctx = await requireRole('steward', 'admin');
-  const { loanIds } = await parseJsonBody(req, reminderSchema);
-  const result = await sendManualReminders(db, ctx, loanIds);
-  return NextResponse.json({ reminders: result });
+export const POST = route({
+  method: 'POST',
+  summary: '“Send a reminder now” for one loan or many (the steward’s round)',
+  who: STAFF,
+  body: json(reminderSchema),
+  response: record('{ reminders: what was sent, per loan }'),
+  run: async ({ ctx, body }) => ({ reminders: await sendManualReminders(db, ctx, body.loanIds) }),
 });

@@ -1,18 +1,29 @@
-import { NextResponse } from 'next/server';
+import { z } from 'zod';
 import { db } from '@/db';
-import { requireRole } from '@/lib/auth/guard';
-import { handle, parseJsonBody } from '@/lib/http/respond';
+import { json, route } from '@/lib/http/route';
 import { paymentsDeps } from '@/lib/payments/client';
 import { startCardSale } from '@/lib/sales/card';
 import { startSaleInput } from '@/lib/sales/schemas';
 
-// POST: a basket paid by card. Answers the processor's pay-page URL for the browser to go to.
-export const POST = handle(async (req: Request) => {
-  const ctx = await requireRole('member', 'steward');
-  const input = await parseJsonBody(req, startSaleInput);
-  const started = await startCardSale(db, ctx, input, paymentsDeps(ctx.spaceId));
-  return NextResponse.json(
-    {
+export const POST = route({
+  method: 'POST',
+  summary: 'A basket paid by card: answers the processor’s pay-page URL for the browser to go to',
+  who: ['member', 'steward'],
+  body: json(startSaleInput),
+  status: 201,
+  response: z.object({
+    sale: z.object({
+      id: z.string(),
+      status: z.literal('pending'),
+      totalMinor: z.number().int(),
+      currency: z.string(),
+      expiresAt: z.unknown(),
+    }),
+    url: z.string(),
+  }),
+  run: async ({ ctx, body }) => {
+    const started = await startCardSale(db, ctx, body, paymentsDeps(ctx.spaceId));
+    return {
       sale: {
         id: started.saleId,
         status: 'pending',
@@ -21,7 +32,6 @@ export const POST = handle(async (req: Request) => {
         expiresAt: started.expiresAt,
       },
       url: started.url,
-    },
-    { status: 201 },
-  );
+    };
+  },
 });

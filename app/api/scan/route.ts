@@ -1,13 +1,14 @@
-import { NextResponse } from 'next/server';
+import { z } from 'zod';
 import { db } from '@/db';
-import { handle, parseJsonBody } from '@/lib/http/respond';
-import { shelfReader } from '@/lib/inventory/access';
+import { json, route } from '@/lib/http/route';
 import { existingCodes } from '@/lib/inventory/resolve';
 import { codesLookupSchema } from '@/lib/inventory/schemas';
 
-/** "Did you mean": of these candidate codes ({ codes: [...] }, at most 20), the ones that exist here. */
-export const POST = handle(async (req: Request) => {
-  const ctx = await shelfReader();
-  const { codes } = await parseJsonBody(req, codesLookupSchema);
-  return NextResponse.json({ found: await existingCodes(db, ctx, codes) });
+export const POST = route({
+  method: 'POST',
+  summary: '“Did you mean”: of these candidate codes (at most 20), the ones that exist here',
+  who: 'signed-in',
+  body: json(codesLookupSchema),
+  response: z.object({ found: z.array(z.unknown()) }),
+  run: async ({ ctx, body }) => ({ found: await existingCodes(db, ctx, body.codes) }),
 });

@@ -2,7 +2,7 @@ import { describe, expect, it } from 'vitest';
 import { keySpec, parseSpecs } from '@/lib/inventory/specs';
 
 // Field naming is our own API contract (errors keyed `specs.<field>`); the spec fields themselves
-// mirror the compatibility check's KitSpec (../shared/ARCHITECTURE.md, "The compatibility check").
+// mirror the compatibility check's KitSpec (lib/electrical).
 
 describe('parseSpecs', () => {
   it('names each missing buck-driver field with its specs. path', () => {

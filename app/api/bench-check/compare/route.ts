@@ -1,6 +1,14 @@
-import { NextResponse } from 'next/server';
-import { benchCompare, readJson } from '@/lib/bench-check';
-import { handle } from '@/lib/http/respond';
+import { z } from 'zod';
+import { benchCompare, compareBodySchema } from '@/lib/bench-check';
+import { json, route } from '@/lib/http/route';
+import { listOf } from '@/lib/http/shapes';
 
-// Public: buck vs linear vs series resistor for one string on one supply. Bad input is a 400 naming each field.
-export const POST = handle(async (req: Request) => NextResponse.json(benchCompare(await readJson(req))));
+// Public: buck vs linear vs series resistor for one string on one supply, read strictly by lib/bench-check.
+export const POST = route({
+  method: 'POST',
+  summary: 'Buck vs linear vs series resistor for one LED string on one supply (public)',
+  who: 'anonymous',
+  body: json(z.unknown(), compareBodySchema),
+  response: listOf('rows', 'One topology: efficiency, dissipation, verdict, rank and reason.'),
+  run: async ({ body }) => benchCompare(body),
+});

@@ -1,11 +1,14 @@
-import { NextResponse } from 'next/server';
-import { requireRole } from '@/lib/auth/guard';
-import { handle } from '@/lib/http/respond';
+import { route } from '@/lib/http/route';
+import { one } from '@/lib/http/shapes';
 import { sweepForBooks } from '@/lib/reconcile/run';
 
-// POST: settle every overdue pending card sale of the space with the processor now.
-export const POST = handle(async () => {
-  const ctx = await requireRole('treasurer');
-  const result = await sweepForBooks(ctx);
-  return NextResponse.json({ sweep: { ...result, receipts: result.receipts.length } });
+export const POST = route({
+  method: 'POST',
+  summary: 'Settles every overdue pending card sale of the space with the processor now',
+  who: ['treasurer'],
+  response: one('sweep', 'How many sales were settled, expired or left pending; receipts sent.'),
+  run: async ({ ctx }) => {
+    const result = await sweepForBooks(ctx);
+    return { sweep: { ...result, receipts: result.receipts.length } };
+  },
 });

@@ -1,18 +1,25 @@
+import { z } from 'zod';
 import { db } from '@/db';
 import { env } from '@/lib/env';
-import { handle } from '@/lib/http/respond';
+import { route } from '@/lib/http/route';
 import { calendarFeed } from '@/lib/loans/calendar';
 
-// /api/calendar/<token>.ics — a person's due dates for their calendar app. No session: the secret in
-// the URL is the key (calendar apps cannot sign in). It only reads.
-export const GET = handle(async (_req: Request, { params }: { params: Promise<{ token: string }> }) => {
-  const token = (await params).token.replace(/\.ics$/, '');
-  const body = await calendarFeed(db, token, env().APP_BASE_URL);
-  return new Response(body, {
-    headers: {
-      'content-type': 'text/calendar; charset=utf-8',
-      'content-disposition': 'inline; filename="ohmstead-loans.ics"',
-      'cache-control': 'private, max-age=300',
-    },
-  });
+// No session: the secret in the URL is the key (calendar apps cannot sign in). It only reads.
+const params = z.object({ token: z.string().max(200).transform((t) => t.replace(/\.ics$/, '')) });
+
+export const GET = route({
+  method: 'GET',
+  summary: 'A person’s due dates as an iCalendar feed (the secret address is the key)',
+  who: 'anonymous',
+  params,
+  notFound: 'calendar',
+  produces: { contentType: 'text/calendar', description: 'An iCalendar feed of the person’s loans.' },
+  run: async ({ params }) =>
+    new Response(await calendarFeed(db, params.token, env().APP_BASE_URL), {
+      headers: {
+        'content-type': 'text/calendar; charset=utf-8',
+        'content-disposition': 'inline; filename="ohmstead-loans.ics"',
+        'cache-control': 'private, max-age=300',
+      },
+    }),
 });

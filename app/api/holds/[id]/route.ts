@@ -1,15 +1,19 @@
-import { NextResponse } from 'next/server';
+import { z } from 'zod';
 import { db } from '@/db';
-import { requireUser } from '@/lib/auth/guard';
-import { handle } from '@/lib/http/respond';
+import { idParams, route } from '@/lib/http/route';
 import { cancelHold } from '@/lib/loans/holds';
-import { idOr404, type IdParams } from '@/lib/loans/ids';
 import { notifyReadyHolds } from '@/lib/loans/notify';
 
-// Cancel a hold (the holder, or a steward). A ready hold passes the item to the next in line.
-export const DELETE = handle(async (_req: Request, { params }: IdParams) => {
-  const ctx = await requireUser();
-  const { readyHoldId } = await cancelHold(db, ctx, idOr404((await params).id, 'hold'));
-  if (readyHoldId) await notifyReadyHolds(db, [readyHoldId]);
-  return NextResponse.json({ cancelled: true });
+export const DELETE = route({
+  method: 'DELETE',
+  summary: 'Cancels a hold (the holder, or a steward); a ready hold passes to the next in line',
+  who: 'signed-in',
+  params: idParams,
+  notFound: 'hold',
+  response: z.object({ cancelled: z.literal(true) }),
+  run: async ({ ctx, params }) => {
+    const { readyHoldId } = await cancelHold(db, ctx, params.id);
+    if (readyHoldId) await notifyReadyHolds(db, [readyHoldId]);
+    return { cancelled: true };
+  },
 });

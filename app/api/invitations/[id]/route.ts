@@ -1,13 +1,17 @@
-import { NextResponse } from 'next/server';
 import { db } from '@/db';
-import { requireRole } from '@/lib/auth/guard';
-import { handle } from '@/lib/http/respond';
+import { idParams, route } from '@/lib/http/route';
+import { ok } from '@/lib/http/shapes';
 import { withdrawInvitation } from '@/lib/people/invitations';
-import { parseId } from '@/lib/people/schema';
 
-/** Withdraws an open invitation; its link stops working. */
-export const DELETE = handle(async (_req: Request, { params }: { params: Promise<{ id: string }> }) => {
-  const ctx = await requireRole('admin');
-  await withdrawInvitation(db, ctx, parseId((await params).id));
-  return NextResponse.json({ ok: true });
+export const DELETE = route({
+  method: 'DELETE',
+  summary: 'Withdraws an open invitation; its link stops working',
+  who: ['admin'],
+  params: idParams,
+  notFound: 'invitation',
+  response: ok,
+  run: async ({ ctx, params }) => {
+    await withdrawInvitation(db, ctx, params.id);
+    return { ok: true };
+  },
 });

@@ -1,15 +1,19 @@
-import { NextResponse } from 'next/server';
+import { z } from 'zod';
 import { db } from '@/db';
-import { handle, parseJsonBody } from '@/lib/http/respond';
+import { json, route } from '@/lib/http/route';
 import { acceptInvitation } from '@/lib/people/invitations';
 import { acceptInvitationSchema } from '@/lib/people/schema';
 
-/**
- * Public by design: the token from the e-mailed link is the credential, and it works once.
- * Answers the same 404 for an unknown, used, withdrawn or expired token.
- */
-export const POST = handle(async (req: Request) => {
-  const input = await parseJsonBody(req, acceptInvitationSchema);
-  const accepted = await acceptInvitation(db, input);
-  return NextResponse.json({ email: accepted.email, newAccount: accepted.newAccount });
+// Public by design: the token from the e-mailed link is the credential, and it works once. The same 404
+// answers an unknown, used, withdrawn or expired token.
+export const POST = route({
+  method: 'POST',
+  summary: 'Accepts an invitation with the token from its link (public; works once)',
+  who: 'anonymous',
+  body: json(acceptInvitationSchema),
+  response: z.object({ email: z.string(), newAccount: z.boolean() }),
+  run: async ({ body }) => {
+    const accepted = await acceptInvitation(db, body);
+    return { email: accepted.email, newAccount: accepted.newAccount };
+  },
 });

@@ -1,24 +1,26 @@
-import { NextResponse } from 'next/server';
 import { z } from 'zod';
 import { db } from '@/db';
-import { requireRole, requireUser } from '@/lib/auth/guard';
-import { handle, parseJsonBody, parseQuery } from '@/lib/http/respond';
+import { idSchema } from '@/lib/ids';
+import { json, route, STAFF } from '@/lib/http/route';
+import { listOf, one } from '@/lib/http/shapes';
 import { buildBox, listBoxes } from '@/lib/kits/boxes';
 import { buildBoxSchema } from '@/lib/kits/schemas';
 
-export const GET = handle(async (req: Request) => {
-  const ctx = await requireUser();
-  const q = parseQuery(
-    req.url,
-    z.object({ templateId: z.uuid({ error: 'templateId must be an id' }).optional() }),
-  );
-  return NextResponse.json({ boxes: await listBoxes(db, ctx, q) });
+export const GET = route({
+  method: 'GET',
+  summary: 'Kit boxes of the space (?templateId= for one kit’s boxes)',
+  who: 'signed-in',
+  query: z.object({ templateId: idSchema.optional() }),
+  response: listOf('boxes', 'A kit box with its state.'),
+  run: async ({ ctx, query }) => ({ boxes: await listBoxes(db, ctx, query) }),
 });
 
-/** Builds a box from a template: units and counted stock leave the shelf ('kit_build'). */
-export const POST = handle(async (req: Request) => {
-  const ctx = await requireRole('steward', 'admin');
-  const input = await parseJsonBody(req, buildBoxSchema);
-  const box = await buildBox(db, ctx, input);
-  return NextResponse.json({ box }, { status: 201 });
+export const POST = route({
+  method: 'POST',
+  summary: 'Builds a box from a template: units and counted stock leave the shelf',
+  who: STAFF,
+  body: json(buildBoxSchema),
+  status: 201,
+  response: one('box', 'The new box.'),
+  run: async ({ ctx, body }) => ({ box: await buildBox(db, ctx, body) }),
 });

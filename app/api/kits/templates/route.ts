@@ -1,18 +1,23 @@
-import { NextResponse } from 'next/server';
 import { db } from '@/db';
-import { requireRole, requireUser } from '@/lib/auth/guard';
-import { handle, parseJsonBody } from '@/lib/http/respond';
+import { json, route, STAFF } from '@/lib/http/route';
+import { listOf, one } from '@/lib/http/shapes';
 import { templateSchema } from '@/lib/kits/schemas';
 import { createTemplate, listTemplates } from '@/lib/kits/templates';
 
-export const GET = handle(async () => {
-  const ctx = await requireUser();
-  return NextResponse.json({ templates: await listTemplates(db, ctx) });
+export const GET = route({
+  method: 'GET',
+  summary: 'Kit templates of the space',
+  who: 'signed-in',
+  response: listOf('templates', 'A kit template.'),
+  run: async ({ ctx }) => ({ templates: await listTemplates(db, ctx) }),
 });
 
-export const POST = handle(async (req: Request) => {
-  const ctx = await requireRole('steward', 'admin');
-  const input = await parseJsonBody(req, templateSchema);
-  const template = await createTemplate(db, ctx, input);
-  return NextResponse.json({ template }, { status: 201 });
+export const POST = route({
+  method: 'POST',
+  summary: 'Creates a kit template',
+  who: STAFF,
+  body: json(templateSchema),
+  status: 201,
+  response: one('template', 'The new template.'),
+  run: async ({ ctx, body }) => ({ template: await createTemplate(db, ctx, body) }),
 });

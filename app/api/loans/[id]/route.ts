@@ -1,12 +1,14 @@
-import { NextResponse } from 'next/server';
 import { db } from '@/db';
-import { requireUser } from '@/lib/auth/guard';
-import { handle } from '@/lib/http/respond';
-import { idOr404, type IdParams } from '@/lib/loans/ids';
+import { idParams, route } from '@/lib/http/route';
+import { one } from '@/lib/http/shapes';
 import { getLoan } from '@/lib/loans/queries';
 
-export const GET = handle(async (_req: Request, { params }: IdParams) => {
-  const ctx = await requireUser();
-  const loan = await getLoan(db, ctx, idOr404((await params).id, 'loan'));
-  return NextResponse.json({ loan });
+export const GET = route({
+  method: 'GET',
+  summary: 'One loan with its lines and the stored check report',
+  who: 'signed-in',
+  params: idParams,
+  notFound: 'loan',
+  response: one('loan', 'The loan.'),
+  run: async ({ ctx, params }) => ({ loan: await getLoan(db, ctx, params.id) }),
 });

@@ -1,17 +1,16 @@
-import { NextResponse } from 'next/server';
 import { db } from '@/db';
-import { requireUser } from '@/lib/auth/guard';
-import { isStaff } from '@/lib/auth/roles';
-import { ForbiddenError } from '@/lib/errors';
-import { handle, parseJsonBody } from '@/lib/http/respond';
+import { json, route } from '@/lib/http/route';
+import { one } from '@/lib/http/shapes';
 import { previewLoan } from '@/lib/loans/preview';
 import { previewSchema } from '@/lib/loans/schemas';
 
-// The check on the exact parts before borrowing: report, cautions, what to change, what works instead.
-export const POST = handle(async (req: Request) => {
-  const ctx = await requireUser();
-  const { selection, borrowerId, ownParts } = await parseJsonBody(req, previewSchema);
-  if (borrowerId && borrowerId !== ctx.userId && !isStaff(ctx)) throw new ForbiddenError();
-  const preview = await previewLoan(db, ctx, selection, { borrowerId, ownParts });
-  return NextResponse.json({ preview });
+export const POST = route({
+  method: 'POST',
+  summary: 'The check on the exact parts before borrowing: report, cautions, what to change',
+  who: 'signed-in',
+  body: json(previewSchema),
+  response: one('preview', 'The check’s outcome, availability and due date.'),
+  run: async ({ ctx, body }) => ({
+    preview: await previewLoan(db, ctx, body.selection, { borrowerId: body.borrowerId, ownParts: body.ownParts }),
+  }),
 });

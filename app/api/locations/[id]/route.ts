@@ -1,26 +1,36 @@
-import { NextResponse } from 'next/server';
 import { db } from '@/db';
-import { handle, parseJsonBody } from '@/lib/http/respond';
-import { shelfReader, shelfWriter, type RouteParams } from '@/lib/inventory/access';
+import { idParams, json, route, STAFF } from '@/lib/http/route';
+import { record } from '@/lib/http/shapes';
 import { deleteLocation, getLocation, updateLocation } from '@/lib/inventory/locations';
 import { locationUpdateSchema } from '@/lib/inventory/schemas';
 
-export const GET = handle(async (_req: Request, { params }: RouteParams<{ id: string }>) => {
-  const ctx = await shelfReader();
-  const { id } = await params;
-  return NextResponse.json(await getLocation(db, ctx, id));
+export const GET = route({
+  method: 'GET',
+  summary: 'A location with what it holds',
+  who: 'signed-in',
+  params: idParams,
+  notFound: 'location',
+  response: record('The location, its children and its stock.'),
+  run: ({ ctx, params }) => getLocation(db, ctx, params.id),
 });
 
-export const PATCH = handle(async (req: Request, { params }: RouteParams<{ id: string }>) => {
-  const ctx = await shelfWriter();
-  const input = await parseJsonBody(req, locationUpdateSchema);
-  const { id } = await params;
-  return NextResponse.json(await updateLocation(db, ctx, id, input));
+export const PATCH = route({
+  method: 'PATCH',
+  summary: 'Renames or moves a location',
+  who: STAFF,
+  params: idParams,
+  notFound: 'location',
+  body: json(locationUpdateSchema),
+  response: record('The location.'),
+  run: ({ ctx, params, body }) => updateLocation(db, ctx, params.id, body),
 });
 
-/** Only an empty location can be removed (409 otherwise). */
-export const DELETE = handle(async (_req: Request, { params }: RouteParams<{ id: string }>) => {
-  const ctx = await shelfWriter();
-  const { id } = await params;
-  return NextResponse.json(await deleteLocation(db, ctx, id));
+export const DELETE = route({
+  method: 'DELETE',
+  summary: 'Removes an empty location (409 otherwise)',
+  who: STAFF,
+  params: idParams,
+  notFound: 'location',
+  response: record('{ deleted }'),
+  run: ({ ctx, params }) => deleteLocation(db, ctx, params.id),
 });

@@ -1,20 +1,27 @@
-import { NextResponse } from 'next/server';
 import { db } from '@/db';
-import { handle, parseJsonBody } from '@/lib/http/respond';
-import { shelfReader, shelfWriter, type RouteParams } from '@/lib/inventory/access';
+import { idParams, json, route, STAFF } from '@/lib/http/route';
+import { record } from '@/lib/http/shapes';
 import { getPartDetail } from '@/lib/inventory/part-detail';
 import { updatePart } from '@/lib/inventory/parts';
 import { partUpdateSchema } from '@/lib/inventory/schemas';
 
-export const GET = handle(async (_req: Request, { params }: RouteParams<{ id: string }>) => {
-  const ctx = await shelfReader();
-  const { id } = await params;
-  return NextResponse.json(await getPartDetail(db, ctx, id));
+export const GET = route({
+  method: 'GET',
+  summary: 'A part with its stock by bin, units, movements and attachments',
+  who: 'signed-in',
+  params: idParams,
+  notFound: 'part',
+  response: record('The part’s detail.'),
+  run: ({ ctx, params }) => getPartDetail(db, ctx, params.id),
 });
 
-export const PATCH = handle(async (req: Request, { params }: RouteParams<{ id: string }>) => {
-  const ctx = await shelfWriter();
-  const input = await parseJsonBody(req, partUpdateSchema);
-  const { id } = await params;
-  return NextResponse.json(await updatePart(db, ctx, id, input));
+export const PATCH = route({
+  method: 'PATCH',
+  summary: 'Changes a part’s fields',
+  who: STAFF,
+  params: idParams,
+  notFound: 'part',
+  body: json(partUpdateSchema),
+  response: record('The part.'),
+  run: ({ ctx, params, body }) => updatePart(db, ctx, params.id, body),
 });

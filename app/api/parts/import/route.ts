@@ -1,19 +1,19 @@
-import { NextResponse } from 'next/server';
+import { z } from 'zod';
 import { db } from '@/db';
-import { handle, parseJsonBody } from '@/lib/http/respond';
-import { shelfWriter } from '@/lib/inventory/access';
+import { json, route, STAFF } from '@/lib/http/route';
+import { record } from '@/lib/http/shapes';
 import { commitImport, previewImport } from '@/lib/inventory/csv-import';
 import { importRequestSchema } from '@/lib/inventory/schemas';
 
-/**
- * CSV import of parts and stock. `POST { csv }` previews (row-by-row errors, nothing written);
- * `POST ?commit=1 { csv }` imports all rows in one transaction, or none (400 naming `rows.<row>.<field>`).
- */
-export const POST = handle(async (req: Request) => {
-  const ctx = await shelfWriter();
-  const { csv } = await parseJsonBody(req, importRequestSchema);
-  if (new URL(req.url).searchParams.get('commit') === '1') {
-    return NextResponse.json(await commitImport(db, ctx, csv), { status: 201 });
-  }
-  return NextResponse.json(await previewImport(db, ctx, csv));
+export const POST = route({
+  method: 'POST',
+  summary: 'CSV import of parts and stock: a preview, or with ?commit=1 all rows in one transaction or none',
+  who: STAFF,
+  query: z.object({ commit: z.enum(['0', '1']).optional() }),
+  body: json(importRequestSchema),
+  response: record('Preview: rows, errors by row and field. Commit: what was created.'),
+  run: async ({ ctx, query, body }) =>
+    query.commit === '1'
+      ? Response.json(await commitImport(db, ctx, body.csv), { status: 201 })
+      : previewImport(db, ctx, body.csv),
 });

@@ -1,14 +1,16 @@
-import { NextResponse } from 'next/server';
 import { db } from '@/db';
-import { requireRole } from '@/lib/auth/guard';
-import { handle, parseJsonBody } from '@/lib/http/respond';
+import { idParams, json, route } from '@/lib/http/route';
+import { one } from '@/lib/http/shapes';
 import { updatePerson } from '@/lib/people/people';
-import { parseId, updatePersonSchema } from '@/lib/people/schema';
+import { updatePersonSchema } from '@/lib/people/schema';
 
-/** Changes roles in the current space and/or disables or enables the account. */
-export const PATCH = handle(async (req: Request, { params }: { params: Promise<{ id: string }> }) => {
-  const ctx = await requireRole('admin');
-  const id = parseId((await params).id);
-  const input = await parseJsonBody(req, updatePersonSchema);
-  return NextResponse.json({ person: await updatePerson(db, ctx, id, input) });
+export const PATCH = route({
+  method: 'PATCH',
+  summary: 'Changes a person’s roles in the current space, or disables or enables them',
+  who: ['admin'],
+  params: idParams,
+  notFound: 'person',
+  body: json(updatePersonSchema),
+  response: one('person', 'The person with their roles.'),
+  run: async ({ ctx, params, body }) => ({ person: await updatePerson(db, ctx, params.id, body) }),
 });

@@ -1,7 +1,6 @@
-import { NextResponse } from 'next/server';
+import { z } from 'zod';
 import { db } from '@/db';
-import { handle } from '@/lib/http/respond';
-import { shelfReader, type RouteParams } from '@/lib/inventory/access';
+import { route } from '@/lib/http/route';
 import { resolveCode } from '@/lib/inventory/resolve';
 
 function safeDecode(s: string): string {
@@ -12,14 +11,14 @@ function safeDecode(s: string): string {
   }
 }
 
-/**
- * A label code → what it labels and where its page is: { code, kind, targetId, name, href }.
- * 400 when the code's check symbol is wrong; 404 when no such code exists in the caller's space.
- */
-export const GET = handle(async (_req: Request, { params }: RouteParams<{ code: string }>) => {
-  const ctx = await shelfReader();
-  const { code } = await params;
-  return NextResponse.json(await resolveCode(db, ctx, safeDecode(code)), {
-    headers: { 'Cache-Control': 'private, no-store' },
-  });
+// 400 when the code's check symbol is wrong; 404 when no such code exists in the caller's space.
+export const GET = route({
+  method: 'GET',
+  summary: 'A label code → what it labels and where its page is',
+  who: 'signed-in',
+  params: z.object({ code: z.string().max(200).transform(safeDecode) }),
+  notFound: 'label',
+  response: z.object({ code: z.string(), kind: z.string(), targetId: z.string(), name: z.string(), href: z.string() }),
+  run: async ({ ctx, params }) =>
+    Response.json(await resolveCode(db, ctx, params.code), { headers: { 'Cache-Control': 'private, no-store' } }),
 });

@@ -1,13 +1,14 @@
-import { NextResponse } from 'next/server';
 import { db } from '@/db';
-import { handle, parseJsonBody } from '@/lib/http/respond';
-import { shelfWriter } from '@/lib/inventory/access';
+import { json, route, STAFF } from '@/lib/http/route';
+import { record } from '@/lib/http/shapes';
 import { adjustSchema } from '@/lib/inventory/schemas';
 import { adjustStock } from '@/lib/inventory/stock';
 
-/** { partId, locationId, delta, reason: adjust|lost|damaged, note } — never below zero (409). */
-export const POST = handle(async (req: Request) => {
-  const ctx = await shelfWriter();
-  const input = await parseJsonBody(req, adjustSchema);
-  return NextResponse.json(await adjustStock(db, ctx, input));
+export const POST = route({
+  method: 'POST',
+  summary: 'Adjusts a bin’s count (adjust, lost, damaged) — never below zero (409)',
+  who: STAFF,
+  body: json(adjustSchema),
+  response: record('The bin’s new quantity.'),
+  run: ({ ctx, body }) => adjustStock(db, ctx, body),
 });

@@ -1,28 +1,15 @@
-import { NextResponse } from 'next/server';
 import { db } from '@/db';
-import { handle, parseJsonBody } from '@/lib/http/respond';
-import { shelfWriter } from '@/lib/inventory/access';
-import { moveSchema, moveUnitSchema } from '@/lib/inventory/schemas';
+import { json, route, STAFF } from '@/lib/http/route';
+import { record } from '@/lib/http/shapes';
+import { stockMoveDoc, stockMoveSchema } from '@/lib/inventory/schemas';
 import { moveStock } from '@/lib/inventory/stock';
 import { moveUnit } from '@/lib/inventory/units';
 
-/** A body naming a unit moves that unit; anything else is a counted move (so errors name its fields). */
-async function pickSchema(req: Request) {
-  const raw: unknown = await req
-    .clone()
-    .json()
-    .catch(() => null);
-  return raw && typeof raw === 'object' && 'unitId' in raw ? moveUnitSchema : moveSchema;
-}
-
-/**
- * Counted stock: { partId, fromLocationId, toLocationId, qty, note? } (409 naming `qty` when the bin
- * holds fewer). A labelled unit: { unitId, toLocationId, note? }.
- */
-export const POST = handle(async (req: Request) => {
-  const ctx = await shelfWriter();
-  const schema = await pickSchema(req);
-  if (schema === moveUnitSchema)
-    return NextResponse.json(await moveUnit(db, ctx, await parseJsonBody(req, moveUnitSchema)));
-  return NextResponse.json(await moveStock(db, ctx, await parseJsonBody(req, moveSchema)));
+export const POST = route({
+  method: 'POST',
+  summary: 'Moves counted stock between bins ({ partId, fromLocationId, toLocationId, qty }) or a unit ({ unitId, toLocationId })',
+  who: STAFF,
+  body: json(stockMoveSchema, stockMoveDoc),
+  response: record('The bins’ new quantities, or the unit’s new place.'),
+  run: ({ ctx, body }) => (body.kind === 'unit' ? moveUnit(db, ctx, body.move) : moveStock(db, ctx, body.move)),
 });

@@ -1,13 +1,14 @@
-import { NextResponse } from 'next/server';
 import { db } from '@/db';
-import { handle, parseJsonBody } from '@/lib/http/respond';
-import { shelfWriter } from '@/lib/inventory/access';
+import { json, route, STAFF } from '@/lib/http/route';
+import { record } from '@/lib/http/shapes';
 import { receiveSchema } from '@/lib/inventory/schemas';
 import { receiveStock } from '@/lib/inventory/stock';
 
-/** { partId, locationId, qty, note? } → the bin's new quantity. */
-export const POST = handle(async (req: Request) => {
-  const ctx = await shelfWriter();
-  const input = await parseJsonBody(req, receiveSchema);
-  return NextResponse.json(await receiveStock(db, ctx, input));
+export const POST = route({
+  method: 'POST',
+  summary: 'Receives stock into a bin ({ partId, locationId, qty, note? })',
+  who: STAFF,
+  body: json(receiveSchema),
+  response: record('The bin’s new quantity.'),
+  run: ({ ctx, body }) => receiveStock(db, ctx, body),
 });

@@ -1,10 +1,12 @@
-import { NextResponse } from 'next/server';
 import { db } from '@/db';
-import { handle } from '@/lib/http/respond';
-import { shelfReader } from '@/lib/inventory/access';
+import { route } from '@/lib/http/route';
+import { listOf } from '@/lib/http/shapes';
 import { listRepairs } from '@/lib/inventory/units';
 
-export const GET = handle(async () => {
-  const ctx = await shelfReader();
-  return NextResponse.json({ units: await listRepairs(db, ctx) });
+export const GET = route({
+  method: 'GET',
+  summary: 'Units in repair',
+  who: 'signed-in',
+  response: listOf('units', 'A unit in repair.'),
+  run: async ({ ctx }) => ({ units: await listRepairs(db, ctx) }),
 });

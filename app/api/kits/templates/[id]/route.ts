@@ -1,21 +1,30 @@
-import { NextResponse } from 'next/server';
+import { z } from 'zod';
 import { db } from '@/db';
-import { requireRole, requireUser } from '@/lib/auth/guard';
-import { handle, parseJsonBody } from '@/lib/http/respond';
+import { idParams, json, route, STAFF } from '@/lib/http/route';
+import { one } from '@/lib/http/shapes';
 import { templateSchema } from '@/lib/kits/schemas';
 import { getTemplate, updateTemplate } from '@/lib/kits/templates';
-import { idOr404, type IdParams } from '@/lib/loans/ids';
 
-export const GET = handle(async (_req: Request, { params }: IdParams) => {
-  const ctx = await requireUser();
-  return NextResponse.json({ template: await getTemplate(db, ctx, idOr404((await params).id, 'kit')) });
+export const GET = route({
+  method: 'GET',
+  summary: 'A kit template with its lines',
+  who: 'signed-in',
+  params: idParams,
+  notFound: 'kit',
+  response: one('template', 'The template with its lines and cautions.'),
+  run: async ({ ctx, params }) => ({ template: await getTemplate(db, ctx, params.id) }),
 });
 
-/** Replaces the template: name, notes, cautions and the whole list of lines. */
-export const PUT = handle(async (req: Request, { params }: IdParams) => {
-  const ctx = await requireRole('steward', 'admin');
-  const id = idOr404((await params).id, 'kit');
-  const input = await parseJsonBody(req, templateSchema);
-  await updateTemplate(db, ctx, id, input);
-  return NextResponse.json({ template: { id } });
+export const PUT = route({
+  method: 'PUT',
+  summary: 'Replaces a template: name, notes, cautions and the whole list of lines',
+  who: STAFF,
+  params: idParams,
+  notFound: 'kit',
+  body: json(templateSchema),
+  response: z.object({ template: z.object({ id: z.string() }) }),
+  run: async ({ ctx, params, body }) => {
+    await updateTemplate(db, ctx, params.id, body);
+    return { template: { id: params.id } };
+  },
 });

@@ -1,12 +1,14 @@
-import { NextResponse } from 'next/server';
 import { db } from '@/db';
-import { requireUser } from '@/lib/auth/guard';
-import { handle } from '@/lib/http/respond';
-import { idOr404, type IdParams } from '@/lib/loans/ids';
+import { idParams, route } from '@/lib/http/route';
+import { one } from '@/lib/http/shapes';
 import { renewLoan } from '@/lib/loans/renew';
 
-export const POST = handle(async (_req: Request, { params }: IdParams) => {
-  const ctx = await requireUser();
-  const renewed = await renewLoan(db, ctx, idOr404((await params).id, 'loan'));
-  return NextResponse.json({ renewed });
+export const POST = route({
+  method: 'POST',
+  summary: 'Renews a loan once, unless someone is waiting for it',
+  who: 'signed-in',
+  params: idParams,
+  notFound: 'loan',
+  response: one('renewed', 'The loan’s new due date.'),
+  run: async ({ ctx, params }) => ({ renewed: await renewLoan(db, ctx, params.id) }),
 });

@@ -1,14 +1,17 @@
-import { NextResponse } from 'next/server';
 import { db } from '@/db';
-import { handle, parseJsonBody } from '@/lib/http/respond';
-import { shelfWriter, type RouteParams } from '@/lib/inventory/access';
+import { idParams, json, route, STAFF } from '@/lib/http/route';
+import { record } from '@/lib/http/shapes';
 import { addUnitsSchema } from '@/lib/inventory/schemas';
 import { addUnits } from '@/lib/inventory/units';
 
-/** Labels new units of a labelled part: { count, locationId?, serialPrefix? }. */
-export const POST = handle(async (req: Request, { params }: RouteParams<{ id: string }>) => {
-  const ctx = await shelfWriter();
-  const input = await parseJsonBody(req, addUnitsSchema);
-  const { id } = await params;
-  return NextResponse.json(await addUnits(db, ctx, id, input), { status: 201 });
+export const POST = route({
+  method: 'POST',
+  summary: 'Labels new units of a labelled part ({ count, locationId?, serialPrefix? })',
+  who: STAFF,
+  params: idParams,
+  notFound: 'part',
+  body: json(addUnitsSchema),
+  status: 201,
+  response: record('The new units with their label codes.'),
+  run: ({ ctx, params, body }) => addUnits(db, ctx, params.id, body),
 });

@@ -1,17 +1,20 @@
-import { NextResponse } from 'next/server';
 import { db } from '@/db';
-import { requireRole } from '@/lib/auth/guard';
-import { handle, parseJsonBody } from '@/lib/http/respond';
+import { idParams, json, route } from '@/lib/http/route';
+import { one } from '@/lib/http/shapes';
 import { paymentsClient } from '@/lib/payments/client';
-import { saleIdParam } from '@/lib/sales/params';
 import { refundSale } from '@/lib/sales/refunds';
 import { refundInput } from '@/lib/sales/schemas';
 
-// POST: a refund by the treasurer, full (no lines) or per line, optionally restocking.
-export const POST = handle(async (req: Request, { params }: { params: Promise<{ id: string }> }) => {
-  const ctx = await requireRole('treasurer');
-  const id = await saleIdParam(params);
-  const input = await parseJsonBody(req, refundInput);
-  const refund = await refundSale(db, ctx, id, input, paymentsClient(ctx.spaceId));
-  return NextResponse.json({ refund }, { status: 201 });
+export const POST = route({
+  method: 'POST',
+  summary: 'A refund by the treasurer, whole or per line, optionally restocking',
+  who: ['treasurer'],
+  params: idParams,
+  notFound: 'sale',
+  body: json(refundInput),
+  status: 201,
+  response: one('refund', 'The refund.'),
+  run: async ({ ctx, params, body }) => ({
+    refund: await refundSale(db, ctx, params.id, body, paymentsClient(ctx.spaceId)),
+  }),
 });

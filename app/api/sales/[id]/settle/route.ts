@@ -1,12 +1,14 @@
-import { NextResponse } from 'next/server';
-import { requireUser } from '@/lib/auth/guard';
-import { handle } from '@/lib/http/respond';
+import { idParams, route } from '@/lib/http/route';
+import { one } from '@/lib/http/shapes';
 import { checkSaleNow } from '@/lib/sales/check';
-import { saleIdParam } from '@/lib/sales/params';
 
-// POST: ask the processor about a pending card sale now ("check again" on the status page).
-export const POST = handle(async (_req: Request, { params }: { params: Promise<{ id: string }> }) => {
-  const ctx = await requireUser();
-  const id = await saleIdParam(params);
-  return NextResponse.json({ sale: await checkSaleNow(ctx, id) });
+// "Check again" on the status page: ask the processor about a pending card sale now.
+export const POST = route({
+  method: 'POST',
+  summary: 'Asks the processor about a pending card sale now (“check again” on the status page)',
+  who: 'signed-in',
+  params: idParams,
+  notFound: 'sale',
+  response: one('sale', 'The sale after the check.'),
+  run: async ({ ctx, params }) => ({ sale: await checkSaleNow(ctx, params.id) }),
 });

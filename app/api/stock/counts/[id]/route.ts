@@ -1,29 +1,41 @@
-import { NextResponse } from 'next/server';
 import { db } from '@/db';
-import { handle, parseJsonBody } from '@/lib/http/respond';
-import { shelfReader, shelfWriter, type RouteParams } from '@/lib/inventory/access';
+import { idParams, json, route, STAFF } from '@/lib/http/route';
+import { record } from '@/lib/http/shapes';
 import { abandonCount, getCount, saveCountLines } from '@/lib/inventory/counts';
 import { countLinesSchema } from '@/lib/inventory/schemas';
 
-/** The count with each line's expected, counted, current quantity and variance. */
-export const GET = handle(async (_req: Request, { params }: RouteParams<{ id: string }>) => {
-  const ctx = await shelfReader();
-  const { id } = await params;
-  return NextResponse.json(await getCount(db, ctx, id));
+const count = record('The count: each line’s expected, counted, current quantity and variance.');
+
+export const GET = route({
+  method: 'GET',
+  summary: 'A stock count with its lines',
+  who: 'signed-in',
+  params: idParams,
+  notFound: 'count',
+  response: count,
+  run: ({ ctx, params }) => getCount(db, ctx, params.id),
 });
 
-/** Records counts: { lines: [{ partId, counted }] }. */
-export const PATCH = handle(async (req: Request, { params }: RouteParams<{ id: string }>) => {
-  const ctx = await shelfWriter();
-  const input = await parseJsonBody(req, countLinesSchema);
-  const { id } = await params;
-  await saveCountLines(db, ctx, id, input);
-  return NextResponse.json(await getCount(db, ctx, id));
+export const PATCH = route({
+  method: 'PATCH',
+  summary: 'Records counted figures ({ lines: [{ partId, counted }] })',
+  who: STAFF,
+  params: idParams,
+  notFound: 'count',
+  body: json(countLinesSchema),
+  response: count,
+  run: async ({ ctx, params, body }) => {
+    await saveCountLines(db, ctx, params.id, body);
+    return getCount(db, ctx, params.id);
+  },
 });
 
-/** Abandons an open count; the stock does not change. */
-export const DELETE = handle(async (_req: Request, { params }: RouteParams<{ id: string }>) => {
-  const ctx = await shelfWriter();
-  const { id } = await params;
-  return NextResponse.json(await abandonCount(db, ctx, id));
+export const DELETE = route({
+  method: 'DELETE',
+  summary: 'Abandons an open count; the stock does not change',
+  who: STAFF,
+  params: idParams,
+  notFound: 'count',
+  response: record('{ abandoned }'),
+  run: ({ ctx, params }) => abandonCount(db, ctx, params.id),
 });

@@ -1,14 +1,16 @@
-import { NextResponse } from 'next/server';
 import { db } from '@/db';
-import { handle, parseJsonBody } from '@/lib/http/respond';
-import { shelfWriter, type RouteParams } from '@/lib/inventory/access';
+import { idParams, json, route, STAFF } from '@/lib/http/route';
+import { record } from '@/lib/http/shapes';
 import { unitStateSchema } from '@/lib/inventory/schemas';
 import { changeUnitState } from '@/lib/inventory/units';
 
-/** A unit to repair, back on the shelf, or retired: { state, reason, locationId? }. */
-export const PATCH = handle(async (req: Request, { params }: RouteParams<{ id: string }>) => {
-  const ctx = await shelfWriter();
-  const input = await parseJsonBody(req, unitStateSchema);
-  const { id } = await params;
-  return NextResponse.json(await changeUnitState(db, ctx, id, input));
+export const PATCH = route({
+  method: 'PATCH',
+  summary: 'Sends a unit to repair, back on the shelf, or retires it ({ state, reason, locationId? })',
+  who: STAFF,
+  params: idParams,
+  notFound: 'unit',
+  body: json(unitStateSchema),
+  response: record('The unit.'),
+  run: ({ ctx, params, body }) => changeUnitState(db, ctx, params.id, body),
 });

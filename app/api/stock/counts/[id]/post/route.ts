@@ -1,12 +1,14 @@
-import { NextResponse } from 'next/server';
 import { db } from '@/db';
-import { handle } from '@/lib/http/respond';
-import { shelfWriter, type RouteParams } from '@/lib/inventory/access';
+import { idParams, route, STAFF } from '@/lib/http/route';
+import { record } from '@/lib/http/shapes';
 import { postCount } from '@/lib/inventory/counts';
 
-/** Posts the count: counted figures become the bin's stock, each difference a 'count' movement. */
-export const POST = handle(async (_req: Request, { params }: RouteParams<{ id: string }>) => {
-  const ctx = await shelfWriter();
-  const { id } = await params;
-  return NextResponse.json(await postCount(db, ctx, id));
+export const POST = route({
+  method: 'POST',
+  summary: 'Posts a count: counted figures become the bin’s stock, each difference a movement',
+  who: STAFF,
+  params: idParams,
+  notFound: 'count',
+  response: record('The posted count with its differences.'),
+  run: ({ ctx, params }) => postCount(db, ctx, params.id),
 });

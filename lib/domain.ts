@@ -1,0 +1,13 @@
+// The domain's words, shared by the database types, the services and the UI. Components import these
+// from here, never from db/ (a lint rule keeps it so).
+export type Role = 'member' | 'steward' | 'treasurer' | 'admin';
+export type UnitState = 'on_shelf' | 'out' | 'held' | 'in_repair' | 'retired';
+export type PartCategory =
+  | 'driver' | 'led' | 'supply' | 'heat_sink' | 'wire' | 'kit_box' | 'tool' | 'meter' | 'consumable' | 'other';
+export type ChainRole = 'supply' | 'driver' | 'led' | 'wire';
+export type LabelKind = 'unit' | 'part' | 'location' | 'kit_box';
+export type LoanStatus = 'out' | 'returned' | 'returned_short';
+export type SaleStatus = 'pending' | 'paid' | 'failed' | 'expired' | 'refunded' | 'partially_refunded' | 'reversed';
+export type MovementReason =
+  | 'receive' | 'move_in' | 'move_out' | 'adjust' | 'count' | 'loan_out' | 'loan_return' | 'lost' | 'damaged'
+  | 'repair' | 'retire' | 'sale' | 'refund' | 'kit_build';

@@ -1,0 +1,18 @@
+import 'server-only';
+import type { Db } from '@/db/connect';
+import { sendReceipts } from '@/lib/mail/sales';
+import { paymentsClient } from './client';
+import { syncRefunds } from './refund-sync';
+
+/** What a verified webhook event leaves to do after the answer: receipts, and refunds to fetch. */
+export async function afterPaymentEvent(db: Db, result: { receipts: string[]; refundsToSync: string[] }) {
+  await sendReceipts(db, result.receipts);
+  for (const saleId of result.refundsToSync) {
+    const sale = await db.selectFrom('sales').select('space_id').where('id', '=', saleId).executeTakeFirst();
+    try {
+      if (sale) await syncRefunds(db, paymentsClient(sale.space_id), saleId);
+    } catch (err) {
+      console.error(`[webhook] refund sync for sale ${saleId}: ${err instanceof Error ? err.message : String(err)}`);
+    }
+  }
+}
