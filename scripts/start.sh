@@ -68,8 +68,8 @@ wait_http "http://127.0.0.1:3000/signin" 120
 cat <<MSG
 
   Ohmstead is serving on http://127.0.0.1:3000
-  Mail it sends (sign-in links, receipts, reminders) is caught by the local sink: $MAILBOX_URL/messages
-  (or start with OHM_DEMO_MAILBOX=1 for the readable dev mailbox at http://127.0.0.1:3000/dev/mailbox)
+  Dev mailbox (every e-mail it sends: sign-in links, receipts, reminders): $MAILBOX_URL/
+  (served by the local SMTP sink on this machine only; nothing leaves it)
 
 $(node node_modules/tsx/dist/cli.mjs scripts/demo-logins.ts)
 
