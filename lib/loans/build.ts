@@ -1,3 +1,4 @@
+import 'server-only';
 import type { Db } from '@/db/connect';
 import type { ChainRole, PartCategory } from '@/db/types';
 import { checkLines, type BuildInfo, type CheckLine, type CheckOutcome } from './check';

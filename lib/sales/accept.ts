@@ -1,3 +1,4 @@
+import 'server-only';
 import type { Db } from '@/db/connect';
 import type { Sale } from '@/db/types';
 import { markSalePaid, type PaidOutcome } from './paid';

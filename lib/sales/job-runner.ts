@@ -1,3 +1,4 @@
+import 'server-only';
 import PgBoss from 'pg-boss';
 import { createDb } from '@/db/connect';
 import { now } from '@/lib/clock';

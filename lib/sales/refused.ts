@@ -1,3 +1,4 @@
+import 'server-only';
 import { sql } from 'kysely';
 import type { Db } from '@/db/connect';
 import { audit } from '@/lib/audit/log';
