@@ -81,6 +81,8 @@ export class SourceSession {
     const headers: Record<string, string> = {};
     if (this.cookies.size) headers.cookie = [...this.cookies].map(([k, v]) => `${k}=${v}`).join('; ');
     if (contentType) headers['content-type'] = contentType;
+    // As a browser on the app's own pages would: changes carried by a session cookie must name our origin.
+    if (method !== 'GET' && method !== 'HEAD') headers.origin = new URL(BASE).origin;
     return new Promise((resolve, reject) => {
       const req = http.request(
         { host: url.hostname, port: url.port, path: url.pathname + url.search, method, headers, localAddress: this.localAddress },
