@@ -539,8 +539,9 @@ describe('refunds, balance transactions and payouts', () => {
 describe('webhooks', () => {
   it('signs every delivery so constructEvent accepts it; a tampered body, a wrong secret or a stale timestamp fail', async () => {
     const session = await paidSession();
+    // This session's own delivery (other tests in the file complete sessions too, in no fixed order).
     const delivery = await waitFor('checkout.session.completed delivery', () =>
-      receiver.received.find((r) => r.type === 'checkout.session.completed'),
+      receiver.received.find((r) => r.type === 'checkout.session.completed' && r.body.includes(session.id)),
     );
     const event = stripe.webhooks.constructEvent(delivery.body, delivery.signature, SECRET);
     expect(event.type).toBe('checkout.session.completed');
