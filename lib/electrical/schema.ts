@@ -96,7 +96,7 @@ const buckDriverSchema = strictObject({
 }).refine((d) => d.minInputVolts <= d.maxInputVolts, {
   error: 'The minimum input cannot be above the maximum input',
   path: ['minInputVolts'],
-});
+}).describe('The minimum input cannot be above the maximum input.');
 
 const linearDriverSchema = strictObject({
   type: z.literal('linear'),
@@ -136,7 +136,8 @@ export const ledSpecSchema = strictObject({
       ctx.addIssue({ code: 'custom', path: ['vfMin'], message: 'Minimum forward voltage is above the typical one' });
     if (led.vfTyp > led.vfMax)
       ctx.addIssue({ code: 'custom', path: ['vfMax'], message: 'Maximum forward voltage is below the typical one' });
-  });
+  })
+  .describe('vfMin ≤ vfTyp ≤ vfMax: a minimum forward voltage is above the typical one, or a maximum forward voltage is below the typical one, is refused.');
 
 export const stringSpecSchema = strictObject({
   count: wholeNumber('LED count', 1, MAX_LED_COUNT),

@@ -42,10 +42,13 @@ export type PartListQuery = z.infer<typeof partListQuerySchema>;
 
 // ---------------------------------------------------------------- parts
 
+export const MAX_PRICE_MINOR = 100_000_000;
 const price = z
   .number({ error: 'price must be a number' })
   .int('price must be whole minor units')
-  .nonnegative('price must not be negative');
+  .nonnegative('price must not be negative')
+  // The column is a 32-bit integer; a million in major units is far past any part at the bench.
+  .max(MAX_PRICE_MINOR, `price must be at most ${MAX_PRICE_MINOR} minor units`);
 const partFields = {
   sku: z
     .string({ error: 'SKU is required' })

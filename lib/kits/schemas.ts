@@ -18,6 +18,11 @@ export const templateLineSchema = z
   })
   .strict();
 
+const CHAIN_ROLES = ['supply', 'driver', 'led', 'wire'] as const;
+const onlyOne = (role: string) => `only one line can be the chain's ${role}`;
+/** Published in the API document: JSON Schema cannot say "at most one line per role". */
+const CHAIN_ROLE_RULE = `One line per chain role at most: ${CHAIN_ROLES.map(onlyOne).join('; ')}.`;
+
 export const templateSchema = z
   .object({
     name: z.string({ error: 'name must be text' }).trim().min(2, { error: 'give the kit a name' }).max(120),
@@ -27,14 +32,15 @@ export const templateSchema = z
     lines: z.array(templateLineSchema).min(1, { error: 'a kit needs at least one line' }).max(60),
   })
   .strict()
+  .describe(CHAIN_ROLE_RULE)
   .superRefine((t, ctx) => {
-    for (const role of ['supply', 'driver', 'led', 'wire'] as const) {
+    for (const role of CHAIN_ROLES) {
       const n = t.lines.filter((l) => l.chainRole === role).length;
       if (n > 1)
         ctx.addIssue({
           code: 'custom',
           path: ['lines'],
-          message: `only one line can be the chain's ${role}`,
+          message: onlyOne(role),
         });
     }
   });

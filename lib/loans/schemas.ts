@@ -51,8 +51,15 @@ export const ownPartsSchema = z
   .refine((o) => o.supply || o.driver || o.string || o.heatSink, {
     error: 'describe at least one part (supply, driver, string or heatSink)',
     path: ['supply'],
-  });
+  })
+  .describe('Describe at least one part (supply, driver, string or heatSink).');
 export type OwnParts = z.output<typeof ownPartsSchema>;
+
+/** The selection's rules that JSON Schema cannot state, published in the API document in words. */
+const SELECTION_RULES =
+  'Give kitBoxId, or loose parts in unitIds and/or counted — borrow a kit box or loose parts, not both at once; ' +
+  'choose at least one unit or counted part; refused when a unit is listed twice; ownParts go with loose parts only ' +
+  '(a kit box is checked on its own contents; describe your own parts with loose parts).';
 
 /** What the preview route takes: a selection, and for a steward lending at the bench, the borrower. */
 export const previewSchema = z
@@ -64,6 +71,7 @@ export const previewSchema = z
     borrowerId: id('borrowerId').optional(),
   })
   .strict()
+  .describe(SELECTION_RULES)
   .transform((b, ctx) => ({
     selection: toSelection(b, ctx),
     ownParts: b.ownParts,
@@ -90,6 +98,7 @@ export const borrowSchema = z
     borrowerId: id('borrowerId').optional(),
   })
   .strict()
+  .describe(SELECTION_RULES)
   .transform((b, ctx) => ({
     selection: toSelection(b, ctx),
     acknowledgeCaution: b.acknowledgeCaution ?? false,
@@ -140,7 +149,8 @@ export const returnSchema = z
             returnedQty: z
               .number({ error: 'returnedQty must be a number' })
               .int({ error: 'returnedQty must be a whole number' })
-              .min(0, { error: 'returnedQty cannot be negative' }),
+              .min(0, { error: 'returnedQty cannot be negative' })
+              .max(10_000, { error: 'returnedQty is at most 10000' }),
             condition: z.enum(['ok', 'missing', 'damaged'], {
               error: 'condition must be ok, missing or damaged',
             }),
@@ -160,7 +170,8 @@ export const holdSchema = z
   .refine((h) => (h.kitBoxId ? 1 : 0) + (h.unitId ? 1 : 0) === 1, {
     error: 'give either kitBoxId or unitId',
     path: ['kitBoxId'],
-  });
+  })
+  .describe('Give either kitBoxId or unitId, not both.');
 export type HoldInput = z.infer<typeof holdSchema>;
 
 export const loanFilterSchema = z.object({

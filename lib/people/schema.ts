@@ -27,6 +27,7 @@ export const emailSchema = z
   .trim()
   .toLowerCase()
   .max(320, 'at most 320 characters')
+  .meta({ format: 'email' })
   .pipe(z.email('a valid e-mail address'));
 
 export const personNameSchema = z
@@ -50,7 +51,8 @@ export const updatePersonSchema = z
   .refine((v) => v.roles !== undefined || v.disabled !== undefined, {
     message: 'send roles, disabled or both',
     path: ['roles'],
-  });
+  })
+  .describe('Send roles, disabled or both.');
 export type UpdatePersonInput = z.infer<typeof updatePersonSchema>;
 
 // The token only ever comes from our own link: URL-safe base64 of 32 bytes (lib/auth/tokens.ts).

@@ -26,7 +26,7 @@ export const refundInput = z.object({
     .array(
       z.object({
         saleLineId: z.uuid('Unknown line.'),
-        qty: z.number().int('Whole numbers only.').min(1, 'At least 1.'),
+        qty: z.number().int('Whole numbers only.').min(1, 'At least 1.').max(10_000, 'At most 10000.'),
       }),
     )
     .min(1, 'Choose at least one line.')

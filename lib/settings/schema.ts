@@ -31,12 +31,14 @@ export const settingsSchema = z.object({
     .regex(/^([01]\d|2[0-3]):[0-5]\d$/, 'a 24-hour time as HH:MM, e.g. 20:00'),
   timeZone: z
     .string({ error: 'a time zone' })
-    .refine((v) => zoneSet.has(v), 'a time-zone name such as Europe/Berlin or America/Chicago'),
+    .refine((v) => zoneSet.has(v), 'a time-zone name such as Europe/Berlin or America/Chicago')
+    .meta({ enum: [...TIME_ZONES] }),
   currency: z
     .string({ error: 'a currency code' })
     .trim()
     .toUpperCase()
-    .refine((v) => currencySet.has(v), 'a three-letter ISO 4217 currency code such as USD or EUR'),
+    .refine((v) => currencySet.has(v), 'a three-letter ISO 4217 currency code such as USD or EUR')
+    .meta({ enum: [...CURRENCIES] }),
   maxOpenLoans: whole('loans', 1, 100),
   /** 0 means no reminder before the due day. */
   reminderDaysBefore: whole('days', 0, 30),

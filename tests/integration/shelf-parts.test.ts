@@ -48,6 +48,16 @@ describe('parts', () => {
     expect(Object.keys(await fieldsOf(res))).toEqual(['specs.maxInputVolts']);
   });
 
+  test('a price past the 32-bit column is a 400 naming priceMinor, not a 500 (found by the generated examples)', async () => {
+    for (const priceMinor of [2 ** 31, 7_794_911_290_064_896]) {
+      const res = await steward.post('/api/parts', { sku: uniq('BIG'), name: 'Dear part', category: 'consumable', tracking: 'counted', sellable: true, priceMinor });
+      expect(res.status).toBe(400);
+      expect(Object.keys(await fieldsOf(res))).toEqual(['priceMinor']);
+    }
+    const ok = await steward.post('/api/parts', { sku: uniq('BIG'), name: 'Dear part', category: 'consumable', tracking: 'counted', sellable: true, priceMinor: 100_000_000 });
+    expect(ok.status).toBe(201);
+  });
+
   test('a labelled part is created with its code and first units; its SKU cannot be reused (409 sku)', async () => {
     const bin = await makeLocation(db, spaceId);
     const sku = uniq('DRV');
