@@ -89,4 +89,22 @@ describe('the comparison rows, worked by hand', () => {
     expect(buck.heatWatts).toBeGreaterThan(0);
     expect([resistor.rank, linear.rank, buck.rank]).toEqual([1, 2, 3]);
   });
+
+  it('exactly 1 W of heat needs no heat sink; exactly 0.01 Ω is still a resistor the check takes', () => {
+    // Six LEDs of 3.0 / 3.1 / 3.2 V (18 / 18.6 / 19.2 V) on 19 V at 0 %: (19 − 18.6) / 0.4 A = 1 Ω (E24);
+    // I_max = (19 − 18) / 1 = 1 A, I²R = 1 W exactly (Joule) — not above the 1 W line
+    // (common practice (no source)). One 1 °C/W sink per LED keeps the junctions cool.
+    const six = { count: 6, led: { vfMin: 3.0, vfTyp: 3.1, vfMax: 3.2, maxAmps: 2, maxWatts: 10 } };
+    const { resistor } = byType(
+      compareTopologies(six, { volts: 19, tolerancePct: 0, maxAmps: 5 }, { amps: 0.4, heatSink: { count: 6, cPerW: 1 } }),
+    );
+    expect(resistor.heatWatts).toBe(1);
+    expect(resistor.parts).toBe(1);
+    expect(resistor.partsNote).toBe('one resistor');
+    expect(resistor.reason).toBe('97.9 % efficient, wastes 1.00 W, 1 part');
+    // (18.00336 − 18) / 0.35 A = 9.6 mΩ → 0.01 Ω (IEC 60063 E24), the smallest resistance the check takes
+    const tiny = byType(compareTopologies(string, { volts: 18.00336, tolerancePct: 0, maxAmps: 2 }, { amps: 0.35 })).resistor;
+    expect(tiny.report).not.toBeNull();
+    expect(tiny.driverNote).toBe('a resistor of 0.01 Ω (E24), rated 50 W');
+  });
 });
