@@ -25,9 +25,11 @@ type Props = {
   result: Pick<StoredReport, 'kind' | 'report' | 'chain' | 'missing' | 'problems' | 'build'>;
   verdict: 'ok' | 'caution' | 'fail' | null;
   headingLevel?: 2 | 3;
+  /** Whose build it is when a steward checks it for someone else; the reader's own otherwise. */
+  borrowerName?: string;
 };
 
-export function CheckReport({ result, verdict, headingLevel = 2 }: Props) {
+export function CheckReport({ result, verdict, headingLevel = 2, borrowerName }: Props) {
   const H = `h${headingLevel}` as 'h2' | 'h3';
   return (
     <section aria-labelledby="check-heading" className="card space-y-3">
@@ -41,7 +43,7 @@ export function CheckReport({ result, verdict, headingLevel = 2 }: Props) {
           <span className="muted text-sm">Not checked</span>
         )}
       </div>
-      {result.build ? <BuildNote build={result.build} kind={result.kind} /> : null}
+      {result.build ? <BuildNote build={result.build} kind={result.kind} borrowerName={borrowerName} /> : null}
       {result.kind === 'checked' && result.report ? (
         <Checked report={result.report} chain={result.chain} />
       ) : null}
@@ -81,14 +83,30 @@ export function CheckReport({ result, verdict, headingLevel = 2 }: Props) {
 }
 
 /** Loose parts are checked as the borrower's whole build: say what else went into it. */
-function BuildNote({ build, kind }: { build: NonNullable<StoredReport['build']>; kind: StoredReport['kind'] }) {
+function BuildNote({
+  build,
+  kind,
+  borrowerName,
+}: {
+  build: NonNullable<StoredReport['build']>;
+  kind: StoredReport['kind'];
+  borrowerName?: string;
+}) {
   const others = build.chains.length > 1;
   if (!build.held.length && !build.own.length && !others) return null;
   return (
     <div className="rounded-lg border border-stone-300 p-3 text-sm dark:border-stone-700" data-build>
-      <p className="font-semibold">Checked as your whole build</p>
-      {build.held.length ? <p>Already out with you: {build.held.join(', ')}.</p> : null}
-      {build.own.length ? <p>Your own parts: {build.own.join(', ')}.</p> : null}
+      <p className="font-semibold">Checked as {borrowerName ? `${borrowerName}’s` : 'your'} whole build</p>
+      {build.held.length ? (
+        <p>
+          Already out with {borrowerName ?? 'you'}: {build.held.join(', ')}.
+        </p>
+      ) : null}
+      {build.own.length ? (
+        <p>
+          {borrowerName ? `${borrowerName}’s` : 'Your'} own parts: {build.own.join(', ')}.
+        </p>
+      ) : null}
       {others && kind === 'checked' ? (
         <ul className="mt-1 space-y-1">
           {build.chains.map((c, i) => (

@@ -26,6 +26,7 @@ export function BorrowPanel({
   staff,
   members = [],
   userId,
+  lendTo,
 }: {
   selection: Selection;
   gate: 'ok' | 'acknowledge' | 'blocked';
@@ -35,12 +36,15 @@ export function BorrowPanel({
   staff: boolean;
   members?: { id: string; name: string }[];
   userId: string;
+  /** The borrower chosen before the check (loose parts: the check covers their build); no choice here then. */
+  lendTo?: string;
 }) {
   const router = useRouter();
   const ids = useId();
   const [ack, setAck] = useState(false);
   const [reason, setReason] = useState('');
-  const [borrowerId, setBorrowerId] = useState(userId);
+  const [chosen, setBorrowerId] = useState(userId);
+  const borrowerId = lendTo ?? chosen;
   const m = useMutation({
     mutationFn: () =>
       callApi<{ loan: { id: string } }>('/api/loans', 'POST', {
@@ -87,7 +91,7 @@ export function BorrowPanel({
       <p>
         Due back <strong>{dueText}</strong>.
       </p>
-      {staff && members.length ? (
+      {staff && members.length && lendTo === undefined ? (
         <div>
           <label className="label" htmlFor={`${ids}-who`}>
             Lend to

@@ -2,6 +2,7 @@
 import { useMutation } from '@tanstack/react-query';
 import { useId, useState } from 'react';
 import { looseNormalize, verifyCode } from '@/labels/code';
+import type { DriverSpec, SupplySpec } from '@/lib/electrical';
 import type { Preview } from '@/lib/loans/preview';
 import type { LoosePick } from '@/lib/loans/queries';
 import { Cautions } from '@/components/kits/cautions';
@@ -11,6 +12,7 @@ import { callApi } from './api';
 import { BorrowPanel } from './borrow-panel';
 import { ErrorNote } from './error-note';
 import { OwnLeds, type OwnLedsValue } from './own-leds';
+import { OwnDriver, OwnSupply } from './own-supply-driver';
 
 type Counted = { partId: string; locationId: string; qty: number };
 type PreviewJson = Omit<Preview, 'dueAt'> & { dueAt: string };
@@ -37,13 +39,25 @@ export function LooseBorrow({
   const [bin, setBin] = useState('');
   const [qty, setQty] = useState(1);
   const [ownLeds, setOwnLeds] = useState<OwnLedsValue | null>(null);
-  const ownParts = ownLeds ? { string: ownLeds } : undefined;
+  // A steward lending chooses the borrower first: the check covers that person's whole build.
+  const [borrowerId, setBorrowerId] = useState(userId);
+  const [ownSupply, setOwnSupply] = useState<SupplySpec | null>(null);
+  const [ownDriver, setOwnDriver] = useState<DriverSpec | null>(null);
+  const ownParts =
+    ownLeds || ownSupply || ownDriver
+      ? {
+          ...(ownSupply ? { supply: ownSupply } : {}),
+          ...(ownDriver ? { driver: ownDriver } : {}),
+          ...(ownLeds ? { string: ownLeds } : {}),
+        }
+      : undefined;
   const preview = useMutation({
     mutationFn: () =>
       callApi<{ preview: PreviewJson }>('/api/loans/preview', 'POST', {
         unitIds,
         counted,
         ...(ownParts ? { ownParts } : {}),
+        ...(borrowerId !== userId ? { borrowerId } : {}),
       }),
   });
   const reset = () => preview.reset();
@@ -198,6 +212,47 @@ export function LooseBorrow({
         </ul>
       </section>
 
+      {staff && members.length ? (
+        <section aria-labelledby={`${ids}-w`} className="card space-y-2">
+          <h2 id={`${ids}-w`} className="text-lg font-bold">
+            Borrower
+          </h2>
+          <label className="label" htmlFor={`${ids}-who`}>
+            Lend to
+          </label>
+          <select
+            id={`${ids}-who`}
+            className="field"
+            value={borrowerId}
+            onChange={(e) => {
+              setBorrowerId(e.target.value);
+              reset();
+            }}
+          >
+            {members.map((m) => (
+              <option key={m.id} value={m.id}>
+                {m.id === userId ? `${m.name} (me)` : m.name}
+              </option>
+            ))}
+          </select>
+          <p className="muted text-sm">The check covers what this person already has out.</p>
+        </section>
+      ) : null}
+
+      <OwnSupply
+        value={ownSupply}
+        onChange={(v) => {
+          setOwnSupply(v);
+          reset();
+        }}
+      />
+      <OwnDriver
+        value={ownDriver}
+        onChange={(v) => {
+          setOwnDriver(v);
+          reset();
+        }}
+      />
       <OwnLeds
         value={ownLeds}
         onChange={(v) => {
@@ -218,7 +273,11 @@ export function LooseBorrow({
 
       {p ? (
         <>
-          <CheckReport result={p.outcome} verdict={p.outcome.verdict} />
+          <CheckReport
+            result={p.outcome}
+            verdict={p.outcome.verdict}
+            borrowerName={borrowerId !== userId ? members.find((m) => m.id === borrowerId)?.name : undefined}
+          />
           {p.outcome.kind === 'incomplete' && p.outcome.missing.includes('LEDs for the string') && !ownLeds ? (
             <p className="card text-sm">
               Bringing your own LEDs? Describe them under “My own LEDs” and check again: they are checked with
@@ -242,6 +301,7 @@ export function LooseBorrow({
             staff={staff}
             members={members}
             userId={userId}
+            lendTo={borrowerId}
           />
         </>
       ) : null}

@@ -12,38 +12,31 @@ export const SERIES: Record<ESeriesName, ESeries> = { E12, E24 };
 // (4.7 × 10 = 47.00000000000001) so that 47 Ω prints and compares as 47.
 const clean = (x: number) => Number(x.toPrecision(12));
 
+// Both searches look at the value's decade and at the next power of ten (the next decade's first value:
+// every IEC 60063 series starts at 1.0). log10 can land one decade low at an exact power of ten
+// (log10(1000) = 2.9999999999999996), and then that power is the answer; it can land one high only within
+// float dust under a power of ten, where `clean` makes the value that power.
+const decadeOf = (value: number) => Math.floor(Math.log10(value));
+const candidates = (decade: number, series: ESeries) => [
+  ...series.map((s) => clean(s * Math.pow(10, decade))),
+  clean(Math.pow(10, decade + 1)),
+];
+
 /**
  * The smallest value of the series (in any decade) that is at or above `value`.
  * Used for series resistors: rounding the resistance up keeps the current at or below the target.
  */
 export function nearestAtOrAbove(value: number, series: ESeries = E24): number {
   if (!(value > 0) || !Number.isFinite(value)) throw new RangeError('value must be a positive finite number');
-  let decade = Math.floor(Math.log10(value));
-  // log10 can land one decade off near exact powers of ten; settle it by comparison.
-  if (clean(Math.pow(10, decade)) > value) decade -= 1;
-  if (clean(Math.pow(10, decade + 1)) <= value) decade += 1;
-  for (let d = decade; d <= decade + 1; d++) {
-    const scale = Math.pow(10, d);
-    for (const s of series) {
-      const candidate = clean(s * scale);
-      if (candidate >= clean(value)) return candidate;
-    }
-  }
-  return clean(series[0] * Math.pow(10, decade + 2));
+  const target = clean(value);
+  return Math.min(...candidates(decadeOf(value), series).filter((c) => c >= target));
 }
 
 /** The largest value of the series at or below `value`. */
 export function nearestAtOrBelow(value: number, series: ESeries = E24): number {
   if (!(value > 0) || !Number.isFinite(value)) throw new RangeError('value must be a positive finite number');
-  const decade = Math.floor(Math.log10(value));
-  for (let d = decade + 1; d >= decade - 1; d--) {
-    const scale = Math.pow(10, d);
-    for (let i = series.length - 1; i >= 0; i--) {
-      const candidate = clean(series[i] * scale);
-      if (candidate <= clean(value)) return candidate;
-    }
-  }
-  return clean(series[series.length - 1] * Math.pow(10, decade - 2));
+  const target = clean(value);
+  return Math.max(...candidates(decadeOf(value), series).filter((c) => c <= target));
 }
 
 /** Common through-hole and chip resistor power ratings, in watts. */

@@ -221,9 +221,8 @@ export function compareCandidates(a: Ranked, b: Ranked): number {
   );
 }
 
-/** Keeps `top` sorted and at most `limit` long. */
+/** Keeps `top` sorted and at most `limit` long (an entry after the last of a full list goes in and out). */
 function offer(top: Entry[], e: Entry, limit: number): void {
-  if (top.length >= limit && compareCandidates(e, top[top.length - 1]) >= 0) return;
   let lo = 0;
   let hi = top.length;
   while (lo < hi) {

@@ -3,7 +3,7 @@ import { sql } from 'kysely';
 import type { Db } from '@/db/connect';
 import { isStaff, type Ctx } from '@/lib/auth/roles';
 import { now } from '@/lib/clock';
-import { ForbiddenError } from '@/lib/errors';
+import { ForbiddenError, NotFoundError } from '@/lib/errors';
 import { whatWorksWith, type Alternative } from './alternatives';
 import { buildNote, looseOutcome } from './build';
 import { checkLines, type CheckOutcome } from './check';
@@ -46,9 +46,20 @@ export async function previewLoan(
   sel: Selection,
   opts: { borrowerId?: string; ownParts?: OwnParts } = {},
 ): Promise<Preview> {
-  // Only stewards and admins look at a loan for someone else.
-  if (opts.borrowerId && opts.borrowerId !== ctx.userId && !isStaff(ctx)) throw new ForbiddenError();
+  // Only stewards and admins look at a loan for someone else (a steward lending at the bench).
+  if (opts.borrowerId && opts.borrowerId !== ctx.userId && !isStaff(ctx))
+    throw new ForbiddenError('Only a steward can check a build for someone else.');
   const borrowerId = opts.borrowerId ?? ctx.userId;
+  // Someone of another space (or no one) is not found, as borrow() answers.
+  if (borrowerId !== ctx.userId) {
+    const member = await db
+      .selectFrom('memberships')
+      .select('user_id')
+      .where('space_id', '=', ctx.spaceId)
+      .where('user_id', '=', borrowerId)
+      .executeTakeFirst();
+    if (!member) throw new NotFoundError('That person is not a member of this space.');
+  }
   const settings = await loanSettings(db, ctx.spaceId);
   const { box, lines } = await resolveSelection(db, ctx.spaceId, sel);
   const outcome = box

@@ -70,6 +70,50 @@ describe('safety cautions', () => {
   });
 });
 
+describe('the edges of each caution', () => {
+  const textOf = (spec: Parameters<typeof checkKit>[0], id: string) => safetyCautions(spec, checkKit(spec)).find((c) => c.id === id)?.text;
+
+  it('eyes also when the worst-case power reaches half a watt on a smaller rating', () => {
+    // vfMax 3.2 V × 0.15625 A = 0.5 W (P = V × I); × 0.15 A = 0.48 W. common practice (no source) for the 0.5 W line.
+    expect(idsFor(buckSpec({ led: { maxWatts: 0.4 }, driver: { outputAmps: 0.15625 } }))).toContain('eyes');
+    expect(idsFor(buckSpec({ led: { maxWatts: 0.4 }, driver: { outputAmps: 0.15 } }))).not.toContain('eyes');
+  });
+
+  it('a hot junction is judged against the LED’s own limit, 125 °C when it gives none', () => {
+    // 0.9 W with 60 °C/W to the solder point, bare star: 25 + 0.9 × (60 + 2 + 40) = 116.8 °C (the check's LED
+    // junction rule). Over 125 − 25 = 100 °C and 140 − 25 = 115 °C; under 150 − 25 = 125 °C.
+    const at = (maxJunctionC?: number) =>
+      idsFor(buckSpec({ driver: { outputAmps: 0.28125 }, led: { thermalOhmsJs: 60, ...(maxJunctionC ? { maxJunctionC } : {}) } }));
+    expect(at()).toContain('led-heat');
+    expect(at(140)).toContain('led-heat');
+    expect(at(150)).not.toContain('led-heat');
+  });
+
+  it('with the kit’s heat sinks, the sink is given per sink; when no sink can do it, the current must come down', () => {
+    // 4 LEDs at 3.2 V × 0.32 A = 1.024 W on four 10 °C/W sinks: T_sink = 25 + 1.024 × 10 = 35.2 °C,
+    // T_j = 35.24 + 1.024 × (8 + 2) = 45.48 °C; the largest sink that keeps 100 °C is (100 − 25 − 10.24) / 1.024
+    // = 63.2 °C/W (the check's LED junction rule; 8 °C/W and 2 °C/W board are from memory).
+    const sunk = { ...buckSpec({ driver: { outputAmps: 0.32 } }), heatSink: { count: 4, cPerW: 10 } };
+    expect(textOf(sunk, 'led-heat')).toContain('Their junctions reach about 45 °C; a sink of at most 63.2 °C/W each keeps them');
+    // 3.2 V × 2.5 A = 8 W: 8 × 10 °C/W is already 80 °C over the air inside the LED, more than the 75 °C allowed.
+    const hot = buckSpec({ driver: { outputAmps: 2.5 }, led: { maxAmps: 3, maxWatts: 10 } });
+    expect(textOf(hot, 'led-heat')).toMatch(/no heat sink brings them 25 °C under their limit: lower the current/);
+  });
+
+  it('driver heat names the series resistor or the driver, and a junction only where the check gives one', () => {
+    // 3 LEDs, 12 V, 10 Ω: (12 − 8.4) / 10 = 0.36 A, 0.36² × 10 = 1.30 W (Joule)
+    expect(textOf(resistorSpec({ driver: { ohms: 10, watts: 5 } }), 'driver-heat')).toMatch(/^The series resistor turns up to 1\.30 W into heat\. Give it/);
+    // buck: 12.8 V × 1 A = 12.8 W out, 12.8 / 0.9 − 12.8 = 1.42 W lost (energy balance, TI SLVA477)
+    expect(textOf(buckSpec({ driver: { outputAmps: 1 } }), 'driver-heat')).toMatch(/^The driver turns up to 1\.42 W into heat\. Give it/);
+  });
+
+  it('no PWM caution at 100 % duty, even when the supply is over its rating', () => {
+    const spec = buckSpec({ supply: { maxAmps: 0.3 }, driver: { outputAmps: 1 }, led: { maxAmps: 2, maxWatts: 10 }, pwmDuty: 1 });
+    expect(checkKit(spec).checks.find((c) => c.id === 'supply-current')?.verdict).toBe('fail');
+    expect(idsFor(spec)).not.toContain('pwm-peak');
+  });
+});
+
 describe('general cautions', () => {
   it('are the ones every report carries', () => {
     const ids = generalCautions().map((c) => c.id);

@@ -43,14 +43,44 @@ describe('E-series (IEC 60063)', () => {
     [9.99, E12, 8.2],
     [1, E24, 1],
     [0.99, E24, 0.91],
+    [1.05, E24, 1],
+    [8.19, E12, 6.8],
+    [0.0472, E12, 0.047],
   ] as const)('nearestAtOrBelow(%f) is %f', (value, series, expected) => {
     expect(nearestAtOrBelow(value, series)).toBe(expected);
   });
 
   it('rejects values with no answer', () => {
-    expect(() => nearestAtOrAbove(0)).toThrow(RangeError);
-    expect(() => nearestAtOrAbove(-5)).toThrow(RangeError);
-    expect(() => nearestAtOrAbove(Number.NaN)).toThrow(RangeError);
+    for (const f of [nearestAtOrAbove, nearestAtOrBelow])
+      for (const v of [0, -5, Number.NaN, Infinity]) expect(() => f(v)).toThrow(RangeError);
+  });
+
+  it('exact powers of ten, where log10 lands a decade low, are members of the series', () => {
+    // IEC 60063: every series holds 1.0 in each decade. log10(1000) is 2.9999999999999996 in binary.
+    for (const p of [1000, 1e6, 0.001])
+      for (const series of [E12, E24]) {
+        expect(nearestAtOrAbove(p, series)).toBe(p);
+        expect(nearestAtOrBelow(p, series)).toBe(p);
+      }
+    // and the values just beside them go to the neighbours (IEC 60063 E24: … 9.1, 10, 11 …)
+    expect(nearestAtOrBelow(999.9)).toBe(910);
+    expect(nearestAtOrAbove(1000.1)).toBe(1100);
+    expect(nearestAtOrBelow(1099)).toBe(1000);
+    // float dust on either side of a series value stays on it (4.7 × 10 = 47.00000000000001)
+    expect(nearestAtOrBelow(4.7 * 10)).toBe(47);
+    expect(nearestAtOrAbove(47 - 1e-14)).toBe(47);
+  });
+
+  it('always answers a member of the series at or below the value, with nothing of the series in between', () => {
+    fc.assert(
+      fc.property(fc.double({ min: 1e-3, max: 1e9, noNaN: true }), fc.constantFrom(E12, E24), (value, series) => {
+        const r = nearestAtOrBelow(value, series);
+        expect(r).toBeLessThanOrEqual(value * (1 + 1e-12));
+        const decade = Math.pow(10, Math.floor(Math.log10(r) + 1e-12));
+        expect(series).toContain(Number((r / decade).toPrecision(6)));
+        expect(nearestAtOrAbove(r * (1 + 1e-9), series)).toBeGreaterThan(value * (1 - 1e-12));
+      }),
+    );
   });
 
   it('always answers a member of the series at or above the value, with nothing of the series in between', () => {

@@ -81,3 +81,55 @@ describe('a value beside its limit', () => {
     expect(formatPercent(0.12345, 1)).toBe('12.35 %');
   });
 });
+
+describe('edges of the display rules', () => {
+  // The display precision is the product's own rule (common practice (no source)); these pin its edges.
+  it('a negative number that rounds to zero prints as zero, any other negative keeps its sign', () => {
+    expect(formatVolts(-0.04)).toBe('0.0 V');
+    expect(formatWatts(-0.001)).toBe('0.00 W');
+    expect(formatAmps(-0.0001)).toBe('0 mA');
+    expect(formatVolts(-0.5)).toBe('-0.5 V');
+    expect(formatVolts(-10.04)).toBe('-10.0 V');
+  });
+
+  it('amps from 1 A up, by size whatever the sign', () => {
+    expect(formatAmps(1)).toBe('1.000 A');
+    expect(formatAmps(0.999)).toBe('999 mA');
+    expect(formatAmps(-2)).toBe('-2.000 A');
+    expect(formatAmps(-0.5)).toBe('-500 mA');
+  });
+
+  it('SI prefixes: the unit of the larger number, switching where rounding would reach 1000', () => {
+    expect(formatSi(0, 'Ω', 0, 1000)).toBe('0 kΩ');
+    expect(formatSi(999.6, 'Ω')).toBe('1 kΩ');
+    expect(formatSi(999, 'Ω')).toBe('999 Ω');
+    expect(formatSi(-4700, 'Ω')).toBe('-4.7 kΩ');
+    expect(formatSi(2.5e9, 'Hz')).toBe('2.5 GHz');
+    // below the smallest prefix, still in nano
+    expect(formatSi(1e-12, 'F')).toBe('0.001 nF');
+  });
+
+  it('each unit of a check by its own rule', () => {
+    expect(formatQuantity(18.26, 'V')).toBe('18.3 V');
+    expect(formatQuantity(0.35, 'A')).toBe('350 mA');
+    expect(formatQuantity(1.234, 'W')).toBe('1.23 W');
+    expect(formatQuantity(80.6, '°C')).toBe('81 °C');
+    expect(formatQuantity(4.04, 'A/mm²')).toBe('4.0 A/mm²');
+    expect(formatQuantity(4700, 'Ω')).toBe('4.7 kΩ');
+  });
+
+  it('asked for more decimals than a number can print, it prints the most it can', () => {
+    expect(formatVolts(1.5, 150)).toBe(`${(1.5).toFixed(100)} V`);
+    expect(formatSi(1.5, 'Ω', 150)).toBe('1.5 Ω');
+  });
+
+  it('a pair of equal numbers prints alike, zero and negative ones too', () => {
+    expect(formatPair(0, 0, 'V')).toEqual(['0.0 V', '0.0 V']);
+    expect(formatPair(-3 * 3.2, -9.6, 'V')).toEqual(['-9.6 V', '-9.6 V']);
+  });
+
+  it('gives up after 20 extra decimals', () => {
+    const zeros = `0.${'0'.repeat(21)} V`;
+    expect(formatPair(1e-25, 0, 'V')).toEqual([zeros, zeros]);
+  });
+});

@@ -46,9 +46,38 @@ describe('series-resistor design', () => {
     expect(r.checks.find((c) => c.id === 'resistor-power')?.verdict).toBe('ok');
   });
 
+  it('works out the typical heat and the rating to buy from the worst heat', () => {
+    // 12 V ± 5 %, 3 LEDs, 30 mA: 100 Ω (E24). Typical (12 − 9) / 100 = 30 mA, 0.03² × 100 = 0.09 W (Joule);
+    // worst (12.6 − 8.4) / 100 = 42 mA, 0.1764 W; twice that, 0.353 W, is bought as 0.5 W
+    // (common practice (no source)).
+    const d = designSeriesResistor({ string: { count: 3, led: LED }, supply: { volts: 12, tolerancePct: 5, maxAmps: 1 }, amps: 0.03 });
+    if (!d.feasible) throw new Error('expected a design');
+    expect(d.series).toBe('E24');
+    expect(d.wattsTyp).toBeCloseTo(0.09, 12);
+    expect(d.wattsMax).toBeCloseTo(0.1764, 12);
+    expect(d.wattageToBuy).toBe(0.5);
+  });
+
+  it('refuses a current that is not a positive finite number', () => {
+    const base = { string: { count: 3, led: LED }, supply: { volts: 12, maxAmps: 1 } };
+    for (const amps of [0, -0.02, Number.NaN, Infinity]) expect(() => designSeriesResistor({ ...base, amps })).toThrow(RangeError);
+  });
+
+  it('up to 10 MΩ, the largest resistance the check takes', () => {
+    // 1 V spare at 100 nA is exactly 10 MΩ (Ohm's law), a member of E24; 1.1 V spare is 11 MΩ: too much.
+    const supply = { volts: 10, tolerancePct: 0, maxAmps: 1 };
+    const at = designSeriesResistor({ string: { count: 3, led: LED }, supply, amps: 1e-7 });
+    expect(at.feasible && at.ohms).toBe(1e7);
+    const over = designSeriesResistor({ string: { count: 3, led: LED }, supply: { ...supply, volts: 10.1 }, amps: 1e-7 });
+    expect(over.feasible).toBe(false);
+    if (!over.feasible) expect(over.reason).toMatch(/above 10 MΩ/);
+  });
+
   it('is not possible when the supply does not clear the string', () => {
+    // 4 × 3.0 V = 12 V typical on a 12 V supply: no voltage is left for a resistor
     const d = designSeriesResistor({ string: { count: 4, led: LED }, supply: { volts: 12, maxAmps: 1 }, amps: 0.02 });
     expect(d.feasible).toBe(false);
+    if (!d.feasible) expect(d.reason).toMatch(/not above the string/);
   });
 });
 
