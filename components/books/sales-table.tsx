@@ -34,9 +34,7 @@ export function SalesTable({
         <>
           <StatePill state={c.getValue()} />
           {c.row.original.reversesSaleId ? (
-            <span className="muted ml-1 text-xs">
-              reverses {saleRef(c.row.original.reversesSaleId)}
-            </span>
+            <span className="muted ml-1 text-xs">reverses {saleRef(c.row.original.reversesSaleId)}</span>
           ) : null}
         </>
       ),
