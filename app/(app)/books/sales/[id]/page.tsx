@@ -138,7 +138,7 @@ export default async function BookSalePage({ params }: { params: Promise<{ id: s
                 <dd className="font-bold tabular-nums" data-testid="difference">
                   {r.differenceMinor ? money(r.differenceMinor) : '—'}
                 </dd>
-                <dt className="muted">Processor’s refs</dt>
+                <dt className="muted">Their ids</dt>
                 <dd>
                   <ProcessorRefs paymentRef={r.processorId} ledgerRef={r.txnId} />
                 </dd>
