@@ -350,6 +350,18 @@ export interface AuditLogTable {
   created_at: TimestampDefault;
 }
 
+/** A treasurer's note on a reconciliation row that does not match (0010). */
+export interface ReconResolutionsTable {
+  id: Generated<string>;
+  space_id: string;
+  month: ColumnType<string, string, string>;
+  row_key: string;
+  sale_id: string | null;
+  note: string;
+  written_by: string | null;
+  written_at: TimestampDefault;
+}
+
 export interface Database {
   spaces: SpacesTable;
   users: UsersTable;
@@ -379,6 +391,7 @@ export interface Database {
   stock_counts: StockCountsTable;
   attachments: AttachmentsTable;
   audit_log: AuditLogTable;
+  recon_resolutions: ReconResolutionsTable;
 }
 
 export type Space = Selectable<SpacesTable>;

@@ -1,11 +1,12 @@
 import Link from 'next/link';
+import { saleRef } from '@/lib/sales/ref';
 
-/** A sale's short reference (first eight characters of its id), linking to its page in the books. */
+/** A sale's short reference (lib/sales/ref.ts), linking to its page in the books. */
 export function SaleRef({ id }: { id: string | null }) {
   if (!id) return <>—</>;
   return (
-    <Link href={`/books/sales/${id}`} className="font-mono">
-      {id.slice(0, 8).toUpperCase()}
+    <Link href={`/books/sales/${id}`} className="font-mono whitespace-nowrap">
+      {saleRef(id)}
     </Link>
   );
 }

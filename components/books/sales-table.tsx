@@ -3,6 +3,7 @@ import { createColumnHelper } from '@tanstack/react-table';
 import type { SaleListRow } from '@/lib/reconcile/sales-list';
 import { formatDateTime } from '@/lib/format';
 import { formatMoney } from '@/lib/money';
+import { saleRef } from '@/lib/sales/ref';
 import { StatePill } from '@/components/ui/state-pill';
 import { DataTable } from './data-table';
 import { SaleRef } from './sale-ref';
@@ -33,9 +34,7 @@ export function SalesTable({
         <>
           <StatePill state={c.getValue()} />
           {c.row.original.reversesSaleId ? (
-            <span className="muted ml-1 text-xs">
-              reverses {c.row.original.reversesSaleId.slice(0, 8).toUpperCase()}
-            </span>
+            <span className="muted ml-1 text-xs">reverses {saleRef(c.row.original.reversesSaleId)}</span>
           ) : null}
         </>
       ),

@@ -2,8 +2,16 @@ import type { ReconTotals } from '@/lib/reconcile/match';
 import { formatMoney } from '@/lib/money';
 import { reconWord } from './recon-status';
 
-/** The month's figures side by side: the processor's ledger and our own books. */
-export function Totals({ totals, currency }: { totals: ReconTotals; currency: string }) {
+/** The month's figures side by side, in our words: card money through the processor, our own books. */
+export function Totals({
+  totals,
+  currency,
+  unresolved,
+}: {
+  totals: ReconTotals;
+  currency: string;
+  unresolved: number;
+}) {
   const m = (n: number) => formatMoney(n, currency);
   const p = totals.processor;
   const o = totals.ours;
@@ -19,14 +27,14 @@ export function Totals({ totals, currency }: { totals: ReconTotals; currency: st
     <div className="grid gap-3 lg:grid-cols-3">
       <section aria-labelledby="totals-processor">
         <h3 id="totals-processor" className="mb-1 font-semibold">
-          At the processor
+          Card money, as the processor holds it
         </h3>
         <dl className="grid grid-cols-2 gap-2">
-          {item('Gross charges', m(p.grossMinor), 'gross')}
-          {item('Fees', m(p.feesMinor), 'fees')}
-          {item('Refunds', m(p.refundsMinor), 'refunds')}
-          {item('Net', m(p.netMinor), 'net')}
-          {item('Paid out to the bank', m(p.paidOutMinor), 'paid-out')}
+          {item('Taken by card', m(p.grossMinor), 'gross')}
+          {item('Kept as fees', m(p.feesMinor), 'fees')}
+          {item('Given back', m(p.refundsMinor), 'refunds')}
+          {item('Left for us', m(p.netMinor), 'net')}
+          {item('Sent to our bank', m(p.paidOutMinor), 'paid-out')}
         </dl>
       </section>
       <section aria-labelledby="totals-ours">
@@ -42,12 +50,13 @@ export function Totals({ totals, currency }: { totals: ReconTotals; currency: st
       </section>
       <section aria-labelledby="totals-match">
         <h3 id="totals-match" className="mb-1 font-semibold">
-          Matching
+          Do they agree?
         </h3>
         <dl className="grid grid-cols-2 gap-2">
           {(['matched', 'amount_differs', 'ours_only', 'theirs_only'] as const).map((s) =>
             item(reconWord(s), String(totals.counts[s]), `count-${s}`),
           )}
+          {item('Not explained yet', String(unresolved), 'count-unresolved')}
         </dl>
       </section>
     </div>

@@ -6,6 +6,7 @@ import { useEffect } from 'react';
 import { callApi, errorText } from '@/components/loans/api';
 import type { SaleView } from '@/lib/sales/read';
 import { formatMoney } from '@/lib/money';
+import { formatDateTimeWithZone } from '@/lib/zoned-time';
 
 const PAID = new Set(['paid', 'partially_refunded', 'refunded']);
 
@@ -88,7 +89,16 @@ export function SaleStatus({ saleId, cancelled }: { saleId: string; cancelled: b
         <span>Total</span>
         <span className="tabular-nums">{money(sale.totalMinor)}</span>
       </p>
-      <p className="muted text-sm">Sale reference {sale.id.slice(0, 8).toUpperCase()}</p>
+      <dl className="grid grid-cols-[auto_1fr] gap-x-3 text-sm" data-testid="receipt-facts">
+        <dt className="muted">Sale reference</dt>
+        <dd className="font-mono" data-testid="sale-ref">
+          {sale.ref}
+        </dd>
+        <dt className="muted">{sale.paidAt ? 'Paid' : 'Started'}</dt>
+        <dd data-testid="sale-time">
+          {formatDateTimeWithZone(sale.paidAt ?? sale.createdAt, sale.timeZone)}
+        </dd>
+      </dl>
       <Link href="/counter" className="btn-quiet">
         Back to the counter
       </Link>

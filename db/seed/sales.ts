@@ -6,6 +6,7 @@ import { writeCashSale } from '@/lib/sales/cash';
 import { checkoutIdempotencyKey, checkoutParams } from '@/lib/sales/checkout';
 import { markSaleEnded, markSalePaid } from '@/lib/sales/paid';
 import { monthOf, monthRange, shiftMonth, type Month } from '@/lib/sales/periods';
+import { saleRef } from '@/lib/sales/ref';
 import { applyRefund, refundMetadata, refundState, lockSale } from '@/lib/sales/refunds';
 import { seededRandom } from '@/lib/seeded-random';
 
@@ -24,7 +25,6 @@ export const PLANTED_MISMATCH = { sku: 'HS-BAR-200', discountMinor: 45 };
 
 type Person = { id: string; name: string; email: string };
 type Fake = { url: string; stripe: Stripe };
-
 
 async function control(
   fake: Fake,
@@ -195,7 +195,7 @@ export async function seedSalesMonth(
           lines: charged,
           appBaseUrl: opts.appBaseUrl ?? DEMO_APP_URL,
           buyerEmail: buyer.email,
-          description: `${opts.spaceName} counter sale ${sale.id.slice(0, 8)}`,
+          description: `${opts.spaceName} counter sale ${saleRef(sale.id)}`,
           nowSeconds: Math.floor(at.getTime() / 1000),
         }),
         { idempotencyKey: checkoutIdempotencyKey(sale.id) },

@@ -1,8 +1,9 @@
 import 'server-only';
 import type { Db } from '@/db/connect';
 import { env } from '@/lib/env';
-import { formatDateTime } from '@/lib/format';
 import { formatMoney } from '@/lib/money';
+import { saleRef } from '@/lib/sales/ref';
+import { formatDateTimeWithZone } from '@/lib/zoned-time';
 import { sendMail } from './server';
 
 const esc = (s: string) => s.replace(/[&<>"']/g, (c) => `&#${c.charCodeAt(0)};`);
@@ -19,23 +20,23 @@ export type ReceiptData = {
   lines: { name: string; qty: number; unitPriceMinor: number; saleUnit: string }[];
 };
 
-/** The receipt in our own words: what was bought, what it cost, the sale's reference. */
+/** The receipt in our own words: what was bought, what it cost, our short reference, the local time and zone. */
 export function receiptMessage(r: ReceiptData, appBaseUrl: string) {
-  const ref = r.saleId.slice(0, 8).toUpperCase();
+  const ref = saleRef(r.saleId);
   const money = (n: number) => formatMoney(n, r.currency);
   const qty = (l: ReceiptData['lines'][number]) =>
     l.saleUnit === 'each' ? `${l.qty} ×` : `${l.qty} ${l.saleUnit}${l.qty === 1 ? '' : 's'} ×`;
   const rows = r.lines.map(
     (l) => `  ${qty(l)} ${l.name} @ ${money(l.unitPriceMinor)} = ${money(l.qty * l.unitPriceMinor)}`,
   );
-  const when = formatDateTime(r.paidAt, r.timeZone);
+  const when = formatDateTimeWithZone(r.paidAt, r.timeZone);
   const link = `${appBaseUrl.replace(/\/$/, '')}/counter/done?sale=${r.saleId}`;
   const paidBy = r.method === 'card' ? 'by card' : 'in cash (honour box)';
   return {
     subject: `Receipt ${ref} from ${r.spaceName}: ${money(r.totalMinor)}`,
     text:
       `Hello ${r.buyerName},\n\nThank you. You paid ${money(r.totalMinor)} ${paidBy} at the ${r.spaceName} bench on ${when}.\n\n` +
-      `${rows.join('\n')}\n  Total ${money(r.totalMinor)}\n\nReference: ${ref} (sale ${r.saleId})\n${link}\n`,
+      `${rows.join('\n')}\n  Total ${money(r.totalMinor)}\n\nReference: ${ref}\nSee the sale: ${link}\n`,
     html:
       `<p>Hello ${esc(r.buyerName)},</p><p>Thank you. You paid <strong>${esc(money(r.totalMinor))}</strong> ${paidBy} at the ${esc(r.spaceName)} bench on ${esc(when)}.</p>` +
       `<table><tbody>${r.lines
@@ -46,7 +47,7 @@ export function receiptMessage(r: ReceiptData, appBaseUrl: string) {
         .join(
           '',
         )}<tr><td><strong>Total</strong></td><td style="text-align:right"><strong>${esc(money(r.totalMinor))}</strong></td></tr></tbody></table>` +
-      `<p>Reference: ${ref} (sale ${esc(r.saleId)}) · <a href="${esc(link)}">See the sale</a></p>`,
+      `<p>Reference: ${esc(ref)} · <a href="${esc(link)}">See the sale</a></p>`,
   };
 }
 

@@ -5,7 +5,7 @@ import { audit } from '@/lib/audit/log';
 import { now } from '@/lib/clock';
 import { ConflictError, ForbiddenError, InvalidError } from '@/lib/errors';
 import { monthKey, monthRange, spaceClock, type Month } from '@/lib/sales/periods';
-import type { Reconciliation } from './report';
+import { isUnresolved, type Reconciliation } from './report';
 
 /**
  * Closes a month that has ended. From then on no sale of that month changes: a refund of one of its
@@ -17,6 +17,8 @@ export async function closeMonth(
   ctx: Ctx,
   month: Month,
   report: Reconciliation,
+  /** How many unresolved rows the treasurer agreed to close with; must equal the count found now. */
+  confirmUnresolved?: number,
 ): Promise<{ month: Month; closedAt: string }> {
   if (!hasRole(ctx, 'treasurer')) throw new ForbiddenError('Only the treasurer closes the books.');
   if (report.month !== month)
@@ -24,6 +26,18 @@ export async function closeMonth(
   const { timeZone } = await spaceClock(db, ctx.spaceId);
   if (monthRange(month, timeZone).to > now())
     throw new InvalidError('Check month.', { month: ['Only a month that has ended can be closed.'] });
+  const unresolved = report.rows.filter(isUnresolved);
+  if (unresolved.length > 0 && confirmUnresolved !== unresolved.length) {
+    const listed = unresolved
+      .slice(0, 10)
+      .map((r) => `${r.saleRef ?? r.kind} (${r.status.replace('_', ' ')})`)
+      .join(', ');
+    const more = unresolved.length > 10 ? `, and ${unresolved.length - 10} more` : '';
+    throw new ConflictError(
+      `${unresolved.length} ${unresolved.length === 1 ? 'row does' : 'rows do'} not match and have no note: ${listed}${more}. Explain them, or confirm closing with ${unresolved.length} unresolved.`,
+      { confirmUnresolved: [`Send ${unresolved.length} to close with them unresolved.`] },
+    );
+  }
   return db.transaction().execute(async (trx) => {
     const pending = await trx
       .selectFrom('sales')
@@ -36,7 +50,12 @@ export async function closeMonth(
       throw new ConflictError(
         `${pending.n} card sales of this month or before still wait for the processor; settle them first.`,
       );
-    const summary = { ...report.totals, rows: report.rows.length, payouts: report.payouts.length };
+    const summary = {
+      ...report.totals,
+      rows: report.rows.length,
+      payouts: report.payouts.length,
+      unresolved: unresolved.map((r) => r.key),
+    };
     const row = await trx
       .insertInto('closed_periods')
       .values({

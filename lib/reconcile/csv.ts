@@ -1,5 +1,7 @@
 import { writeCsv } from '@/lib/csv';
 import { minorUnitExponent } from '@/lib/money';
+import { saleRef } from '@/lib/sales/ref';
+import { isoInZone } from '@/lib/zoned-time';
 import type { Reconciliation } from './report';
 
 /** Minor units as a plain decimal for spreadsheets ("12.50", JPY "1250"); exponent per ISO 4217. */
@@ -13,81 +15,102 @@ export function decimalAmount(minor: number | null, currency: string): string {
   return `${sign}${s.slice(0, -exp)}.${s.slice(-exp)}`;
 }
 
-const STATUS_WORDS = {
+const STATE_WORDS = {
   matched: 'matched',
   ours_only: 'only in our books',
   theirs_only: 'only at the processor',
   amount_differs: 'amounts differ',
 } as const;
 
-/** The reconciliation as CSV: one row per line of the table, the refused payments, then the totals. */
+const ENTRY_WORDS = { charge: 'sale payment', refund: 'refund' } as const;
+
+// Our own column names. Times are the space's wall clock with the offset (ISO 8601), so a sale at
+// 21:00 on 30 November in Chicago reads as November, as it is booked. The file holds rows only:
+// the month's totals are a file of their own (totalsCsv), so summing a column never counts twice.
+const COLUMNS = [
+  'month',
+  'state',
+  'entry',
+  'when',
+  'sale',
+  'buyer',
+  'currency',
+  'our_amount',
+  'processor_amount',
+  'difference',
+  'processor_fee',
+  'after_fee',
+  'note',
+  'resolution',
+  'resolved_by',
+  'resolved_at',
+  'sale_id',
+  'processor_payment_ref',
+  'processor_ledger_ref',
+];
+
+/** The month's reconciliation as CSV: one line per row of the table, then the refused payments. */
 export function reconciliationCsv(r: Reconciliation): string {
   const money = (n: number | null) => decimalAmount(n, r.currency);
+  const when = (at: string) => isoInZone(at, r.timeZone);
   const rows = r.rows.map((x) => ({
     month: r.month,
-    status: STATUS_WORDS[x.status],
-    kind: x.kind,
-    at: x.at,
-    sale_id: x.saleId ?? '',
-    refund_id: x.refundId ?? '',
+    state: STATE_WORDS[x.status],
+    entry: ENTRY_WORDS[x.kind],
+    when: when(x.at),
+    sale: x.saleRef ?? '',
     buyer: x.buyer ?? '',
     currency: r.currency,
-    ours: money(x.oursMinor),
-    processor: money(x.theirsMinor),
+    our_amount: money(x.oursMinor),
+    processor_amount: money(x.theirsMinor),
     difference: money(x.differenceMinor),
-    fee: money(x.feeMinor),
-    net: money(x.netMinor),
-    processor_id: x.processorId ?? '',
-    balance_transaction: x.txnId ?? '',
+    processor_fee: money(x.feeMinor),
+    after_fee: money(x.netMinor),
     note: x.note,
-  }));
-  const t = r.totals;
-  const totals = [
-    ['processor gross', t.processor.grossMinor],
-    ['processor fees', t.processor.feesMinor],
-    ['processor refunds', t.processor.refundsMinor],
-    ['processor net', t.processor.netMinor],
-    ['paid out', t.processor.paidOutMinor],
-    ['our card sales', t.ours.cardMinor],
-    ['our cash sales', t.ours.cashMinor],
-    ['our card refunds', t.ours.cardRefundsMinor],
-    ['our cash refunds', t.ours.cashRefundsMinor],
-  ].map(([label, minor]) => ({
-    month: r.month,
-    status: 'total',
-    kind: label as string,
-    currency: r.currency,
-    ours: money(minor as number),
+    resolution: x.resolution?.note ?? '',
+    resolved_by: x.resolution?.writtenBy ?? '',
+    resolved_at: x.resolution ? when(x.resolution.writtenAt) : '',
+    sale_id: x.saleId ?? '',
+    processor_payment_ref: x.processorId ?? '',
+    processor_ledger_ref: x.txnId ?? '',
   }));
   const investigate = r.investigate.map((x) => ({
     month: r.month,
-    status: 'to investigate',
-    kind: x.type,
-    at: x.at,
-    sale_id: x.saleId ?? '',
+    state: 'to investigate',
+    entry: 'refused payment',
+    when: when(x.at),
+    sale: x.saleId ? saleRef(x.saleId) : '',
     currency: x.currency ?? '',
-    processor: x.amountMinor === null || !x.currency ? '' : decimalAmount(x.amountMinor, x.currency),
-    processor_id: x.objectId ?? '',
+    processor_amount: x.amountMinor === null || !x.currency ? '' : decimalAmount(x.amountMinor, x.currency),
     note: `Refused: ${x.why}`,
+    sale_id: x.saleId ?? '',
+    processor_payment_ref: x.objectId ?? '',
   }));
-  return writeCsv(COLUMNS, [...rows, ...investigate, ...totals]);
+  return writeCsv(COLUMNS, [...rows, ...investigate]);
 }
 
-const COLUMNS = [
-  'month',
-  'status',
-  'kind',
-  'at',
-  'sale_id',
-  'refund_id',
-  'buyer',
-  'currency',
-  'ours',
-  'processor',
-  'difference',
-  'fee',
-  'net',
-  'processor_id',
-  'balance_transaction',
-  'note',
-];
+/** The month's totals, a file of their own: one figure per line, in our words. */
+export function totalsCsv(r: Reconciliation): string {
+  const t = r.totals;
+  const figures: [string, string, number][] = [
+    ['processor', 'card money taken', t.processor.grossMinor],
+    ['processor', 'processor fees', t.processor.feesMinor],
+    ['processor', 'card money given back', t.processor.refundsMinor],
+    ['processor', 'left after fees and refunds', t.processor.netMinor],
+    ['processor', 'sent to the bank', t.processor.paidOutMinor],
+    ['our books', 'card sales', t.ours.cardMinor],
+    ['our books', 'cash sales (honour box)', t.ours.cashMinor],
+    ['our books', 'card refunds', t.ours.cardRefundsMinor],
+    ['our books', 'cash refunds', t.ours.cashRefundsMinor],
+  ];
+  return writeCsv(
+    ['month', 'side', 'figure', 'amount', 'currency'],
+    figures.map(([side, figure, minor]) => ({
+      month: r.month,
+      side,
+      figure,
+      amount: decimalAmount(minor, r.currency),
+      currency: r.currency,
+    })),
+  );
+}

@@ -5,7 +5,15 @@ import type { Ctx } from '@/lib/auth/roles';
 import { monthKey, monthRange, spaceClock, type Month } from '@/lib/sales/periods';
 import { refusedPayments, type ToInvestigate } from './investigate';
 import { fetchLedger, type TheirTxn } from './ledger';
+import { saleRef } from '@/lib/sales/ref';
 import { matchPeriod, type OurRefund, type OurSale, type ReconRow, type ReconTotals } from './match';
+import { resolutionsOf, type Resolution } from './resolutions';
+
+/** A row as the Books show it: our short sale reference, and the treasurer's note when there is one. */
+export type BooksRow = ReconRow & { saleRef: string | null; resolution: Resolution | null };
+
+/** A row that does not match and has no note yet: closing the month with it takes a confirmation. */
+export const isUnresolved = (r: BooksRow) => r.status !== 'matched' && !r.resolution;
 
 export type Reconciliation = {
   month: Month;
@@ -14,7 +22,9 @@ export type Reconciliation = {
   timeZone: string;
   currency: string;
   closed: { closedAt: string; closedBy: string | null } | null;
-  rows: ReconRow[];
+  rows: BooksRow[];
+  /** Rows that do not match and carry no resolution note. */
+  unresolved: number;
   /** Payments the processor reported that Ohmstead refused to count: the treasurer looks into each. */
   investigate: ToInvestigate[];
   totals: ReconTotals;
@@ -50,6 +60,16 @@ export async function reconcileMonth(
     .where('closed_periods.space_id', '=', ctx.spaceId)
     .where('closed_periods.month', '=', monthKey(month))
     .executeTakeFirst();
+  const notes = await resolutionsOf(
+    db,
+    ctx.spaceId,
+    result.rows.filter((r) => r.status !== 'matched').map((r) => r.key),
+  );
+  const rows: BooksRow[] = result.rows.map((r) => ({
+    ...r,
+    saleRef: r.saleId ? saleRef(r.saleId) : null,
+    resolution: notes.get(r.key) ?? null,
+  }));
   return {
     month,
     from: from.toISOString(),
@@ -57,7 +77,8 @@ export async function reconcileMonth(
     timeZone,
     currency,
     closed: closed ? { closedAt: closed.closed_at.toISOString(), closedBy: closed.name } : null,
-    rows: result.rows,
+    rows,
+    unresolved: rows.filter(isUnresolved).length,
     investigate: await refusedPayments(db, ctx.spaceId, from, to),
     totals: result.totals,
     payouts: result.payouts.map((p) => ({

@@ -4,18 +4,18 @@ import type { Ctx } from '@/lib/auth/roles';
 import { now } from '@/lib/clock';
 import { sendReceipts } from '@/lib/mail/sales';
 import { paymentsClient } from '@/lib/payments/client';
-import { monthOf, spaceClock, type Month } from '@/lib/sales/periods';
+import type { Month } from '@/lib/sales/periods';
 import { processorError } from '@/lib/sales/processor-errors';
 import { sweepOverdueSales, type SweepResult } from '@/lib/sales/sweep';
+import { monthToShow } from './months';
 import { reconcileMonth, type Reconciliation } from './report';
 
 // The app's entry points to the books (pages and route handlers share them): the space's processor
 // client, the sweep before every look at the books, receipts for sales the sweep found paid.
 
-export async function monthOrCurrent(ctx: Ctx, month: Month | undefined): Promise<Month> {
-  if (month) return month;
-  const { timeZone } = await spaceClock(db, ctx.spaceId);
-  return monthOf(now(), timeZone);
+/** The month asked for (a 400 naming `month` when it has not begun), else the latest with activity. */
+export async function monthForBooks(ctx: Ctx, month: Month | undefined): Promise<Month> {
+  return monthToShow(db, ctx.spaceId, month, now());
 }
 
 /** Settles overdue pending sales with the processor (an unreachable processor leaves them for next time). */

@@ -9,6 +9,7 @@ import { basketTotal, priceBasket } from './basket';
 import { checkoutIdempotencyKey, checkoutParams } from './checkout';
 import { markSaleEnded } from './paid';
 import { spaceClock } from './periods';
+import { saleRef } from './ref';
 import { isProcessorUnreachable, processorError } from './processor-errors';
 import type { StartSaleInput } from './schemas';
 import { settleSale, type Settled } from './settle';
@@ -88,7 +89,7 @@ export async function startCardSale(
         lines: lines.map((l) => ({ name: l.name, qty: l.qty, unitPriceMinor: l.unitPriceMinor })),
         appBaseUrl: deps.appBaseUrl,
         buyerEmail: buyer?.email,
-        description: `${ctx.spaceName} counter sale ${sale.id.slice(0, 8)}`,
+        description: `${ctx.spaceName} counter sale ${saleRef(sale.id)}`,
         nowSeconds: Math.floor(Date.now() / 1000),
       }),
       { idempotencyKey: checkoutIdempotencyKey(sale.id) },

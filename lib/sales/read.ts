@@ -3,10 +3,16 @@ import type { Db } from '@/db/connect';
 import type { SaleStatus } from '@/db/types';
 import type { Ctx } from '@/lib/auth/roles';
 import { saleFor } from './access';
+import { spaceClock } from './periods';
+import { saleRef } from './ref';
 import { refundState } from './refunds';
 
 export type SaleView = {
   id: string;
+  /** Our short reference (lib/sales/ref.ts), shown on receipts and in the books. */
+  ref: string;
+  /** The space's time zone: the sale's times are shown on its clock, with the zone named. */
+  timeZone: string;
   status: SaleStatus;
   method: 'card' | 'cash';
   currency: string;
@@ -66,8 +72,11 @@ export async function saleView(db: Db, ctx: Ctx, saleId: string): Promise<SaleVi
     .where('sale_id', 'in', [sale.id, ...reversals.map((r) => r.id)])
     .orderBy('created_at')
     .execute();
+  const { timeZone } = await spaceClock(db, sale.space_id);
   return {
     id: sale.id,
+    ref: saleRef(sale.id),
+    timeZone,
     status: sale.status,
     method: sale.method,
     currency: sale.currency.trim(),

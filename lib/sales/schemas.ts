@@ -36,6 +36,21 @@ export const refundInput = z.object({
 });
 export type RefundInput = z.input<typeof refundInput>;
 
-export const monthInput = z.string().regex(/^\d{4}-(0[1-9]|1[0-2])$/, 'Use the form YYYY-MM.');
+export const monthInput = z
+  .string()
+  .regex(/^\d{4}-(0[1-9]|1[0-2])$/, 'Not a month: write it as YYYY-MM, with the month from 01 to 12.');
 export const monthQuery = z.object({ month: monthInput.optional() });
-export const closeMonthInput = z.object({ month: monthInput });
+export const closeMonthInput = z.object({
+  month: monthInput,
+  /** The number of unresolved rows the treasurer agrees to close with (must be the number there are). */
+  confirmUnresolved: z.number().int().min(0).max(100_000).optional(),
+});
+export const resolutionInput = z.object({
+  month: monthInput,
+  rowKey: z.string().trim().min(1).max(200),
+  note: z
+    .string()
+    .trim()
+    .min(1, 'Write what you found or did about this row.')
+    .max(2000, 'Keep the note under 2,000 characters.'),
+});

@@ -35,6 +35,7 @@ export const MATRIX: Record<string, Row> = {
   'POST /api/books/periods': { who: T, ok: 400, body: EMPTY },
   'GET /api/books/reconciliation': { who: T, ok: 200, path: '/api/books/reconciliation?month=2026-11' },
   'POST /api/books/sweep': { who: T, ok: 200 },
+  'POST /api/books/resolutions': { who: T, ok: 400, body: EMPTY },
   'GET /api/calendar/[token]': { who: 'public', ok: 404 },
   'GET /api/calendar/link': { who: 'user', ok: 200 },
   'POST /api/calendar/link': { who: 'user', ok: 200 },

@@ -155,11 +155,11 @@ describe('a month seeded into a space of its own', () => {
       skipEmptyLines: true,
     });
     expect(parsed.errors).toEqual([]);
-    const csvProblems = parsed.data.filter((row) => row.status !== 'matched' && row.status !== 'total');
-    expect(csvProblems.map((row) => [row.status, row.sale_id])).toEqual([
+    const csvProblems = parsed.data.filter((row) => row.state !== 'matched');
+    expect(csvProblems.map((row) => [row.state, row.sale_id])).toEqual([
       ['amounts differ', seeded.plantedSaleId],
     ]);
-    expect(parsed.data.filter((row) => row.status === 'matched')).toHaveLength(r.rows.length - 1);
+    expect(parsed.data.filter((row) => row.state === 'matched')).toHaveLength(r.rows.length - 1);
 
     const page = await treasurer.get(`/books?month=${month}`);
     expect(page.status).toBe(200);

@@ -4,7 +4,7 @@ import Papa from 'papaparse';
 import { describe, expect, it } from 'vitest';
 import { csvCell, csvUnguard, writeCsv } from '@/lib/csv';
 import { partsToCsv } from '@/lib/inventory/csv';
-import { reconciliationCsv } from '@/lib/reconcile/csv';
+import { reconciliationCsv, totalsCsv } from '@/lib/reconcile/csv';
 import type { Reconciliation } from '@/lib/reconcile/report';
 
 // Every CSV the product writes goes through one guard against spreadsheet formulas (OWASP "CSV
@@ -52,6 +52,7 @@ const report = (buyer: string): Reconciliation => ({
   currency: 'USD',
   closed: null,
   investigate: [],
+  unresolved: 1,
   rows: [
     {
       key: 'txn_1',
@@ -69,6 +70,8 @@ const report = (buyer: string): Reconciliation => ({
       processorId: 'ch_1',
       txnId: 'txn_1',
       note: '-the processor charged less',
+      saleRef: '0CFK-ZHZE',
+      resolution: null,
     },
   ],
   totals: {
@@ -85,6 +88,25 @@ describe('the books export', () => {
     expect(rows[0].buyer).toBe(`'${name}`);
     expect(rows[0].note).toBe("'-the processor charged less");
     expect(rows[0].difference).toBe('-1.50'); // an amount stays a number
+  });
+
+  it('writes times on the space’s clock with its offset, and no totals among the rows', () => {
+    const csv = reconciliationCsv(report('Juniper Ashdown'));
+    const rows = Papa.parse<Record<string, string>>(csv, { header: true, skipEmptyLines: true }).data;
+    expect(rows).toHaveLength(1);
+    // 12:00 UTC on 10 November is 07:00 in New York, on standard time (UTC−05:00) since 1 November.
+    expect(rows[0].when).toBe('2026-11-10T07:00:00-05:00');
+    expect(rows[0].sale).toBe('0CFK-ZHZE');
+    expect(rows[0].our_amount).toBe('3.00');
+    const totals = Papa.parse<Record<string, string>>(totalsCsv(report('x')), {
+      header: true,
+      skipEmptyLines: true,
+    }).data;
+    expect(totals.find((t) => t.figure === 'card sales')).toMatchObject({
+      side: 'our books',
+      amount: '3.00',
+    });
+    expect(totals.find((t) => t.figure === 'card money taken')?.amount).toBe('1.50');
   });
 });
 

@@ -5,13 +5,14 @@ import { now } from '@/lib/clock';
 import { formatDateTime } from '@/lib/format';
 import { formatMoney } from '@/lib/money';
 import { salesByMonthAndCategory } from '@/lib/reconcile/chart';
-import type { Reconciliation } from '@/lib/reconcile/report';
-import { monthOrCurrent, reconcileForBooks } from '@/lib/reconcile/run';
+import { latestActiveMonth, notBegun, readMonth } from '@/lib/reconcile/months';
+import { isUnresolved, type Reconciliation } from '@/lib/reconcile/report';
+import { reconcileForBooks } from '@/lib/reconcile/run';
 import { salesOfMonth } from '@/lib/reconcile/sales-list';
-import { monthLabel, monthRange, shiftMonth, spaceClock } from '@/lib/sales/periods';
-import { monthInput } from '@/lib/sales/schemas';
+import { monthLabel, monthOf, monthRange, shiftMonth, spaceClock } from '@/lib/sales/periods';
 import { countOverdueSales } from '@/lib/sales/sweep';
 import { CloseMonth } from '@/components/books/close-month';
+import { ProcessorRefs } from '@/components/books/processor-refs';
 import { ReconTable } from '@/components/books/recon-table';
 import { SalesChart } from '@/components/books/sales-chart';
 import { SalesTable } from '@/components/books/sales-table';
@@ -23,12 +24,35 @@ import { PageTitle } from '@/components/ui/page-title';
 export const metadata = { title: 'Books' };
 export const dynamic = 'force-dynamic';
 
-export default async function BooksPage({ searchParams }: { searchParams: Promise<{ month?: string }> }) {
+export default async function BooksPage({
+  searchParams,
+}: {
+  searchParams: Promise<{ month?: string | string[] }>;
+}) {
   const ctx = await requirePageRole('treasurer');
-  const asked = monthInput.safeParse((await searchParams).month);
-  const month = await monthOrCurrent(ctx, asked.success ? asked.data : undefined);
   const { timeZone, currency } = await spaceClock(db, ctx.spaceId);
+  // Without a month: the latest with sales or refunds. A month that is not one, or has not begun,
+  // is said so plainly (never silently swapped for another).
+  const asked = readMonth((await searchParams).month);
+  const thisMonth = monthOf(now(), timeZone);
+  const latest = await latestActiveMonth(db, ctx.spaceId, now());
+  if (!asked.ok || (asked.month && asked.month > thisMonth))
+    return (
+      <div className="space-y-5">
+        <PageTitle title="Books" lead={`${ctx.spaceName}, in ${currency}; months run on ${timeZone} time.`} />
+        <div className="card space-y-3">
+          <p role="alert" className="font-semibold">
+            {asked.ok ? notBegun(asked.month!) : asked.message}
+          </p>
+          <Link href={`/books?month=${latest}`} className="btn-primary">
+            Open {monthLabel(latest)}
+          </Link>
+        </div>
+      </div>
+    );
+  const month = asked.month ?? latest;
   const label = monthLabel(month);
+  const next = shiftMonth(month, 1);
 
   // Looking at the books changes nothing: card sales left waiting past their expiry are counted here
   // and settled by the sweep button (a POST), the processor's own expiry events and the status page.
@@ -43,7 +67,7 @@ export default async function BooksPage({ searchParams }: { searchParams: Promis
   const sales = await salesOfMonth(db, ctx.spaceId, month);
   const chart = await salesByMonthAndCategory(db, ctx.spaceId, month, 12);
   const ended = monthRange(month, timeZone).to <= now();
-  const problems = report ? report.rows.filter((r) => r.status !== 'matched').length : 0;
+  const unresolved = report ? report.rows.filter(isUnresolved) : [];
 
   return (
     <div className="space-y-5">
@@ -54,11 +78,16 @@ export default async function BooksPage({ searchParams }: { searchParams: Promis
         <Link href={`/books?month=${shiftMonth(month, -1)}`} className="btn-quiet">
           ← {monthLabel(shiftMonth(month, -1))}
         </Link>
-        <Link href={`/books?month=${shiftMonth(month, 1)}`} className="btn-quiet">
-          {monthLabel(shiftMonth(month, 1))} →
-        </Link>
+        {next <= thisMonth ? (
+          <Link href={`/books?month=${next}`} className="btn-quiet">
+            {monthLabel(next)} →
+          </Link>
+        ) : null}
         <a href={`/api/books/export?month=${month}`} className="btn-primary" download>
-          Export CSV
+          Rows as CSV
+        </a>
+        <a href={`/api/books/export?month=${month}&part=totals`} className="btn-quiet" download>
+          Totals as CSV
         </a>
       </PageTitle>
 
@@ -67,7 +96,7 @@ export default async function BooksPage({ searchParams }: { searchParams: Promis
       <section aria-labelledby="recon" className="card space-y-4">
         <div className="flex flex-wrap items-start justify-between gap-3">
           <h2 id="recon" className="text-lg font-bold">
-            Reconciliation
+            Our books beside the processor
           </h2>
           {report?.closed ? (
             <p className="text-sm font-semibold" data-testid="month-closed">
@@ -76,22 +105,22 @@ export default async function BooksPage({ searchParams }: { searchParams: Promis
               entries.
             </p>
           ) : report && ended ? (
-            <CloseMonth month={month} label={label} problems={problems} />
+            <CloseMonth month={month} label={label} unresolved={unresolved} currency={currency} />
           ) : null}
         </div>
         {report ? (
           <>
-            <Totals totals={report.totals} currency={currency} />
-            <ReconTable rows={report.rows} currency={currency} timeZone={timeZone} />
+            <Totals totals={report.totals} currency={currency} unresolved={report.unresolved} />
+            <ReconTable month={month} rows={report.rows} currency={currency} timeZone={timeZone} />
             <ToInvestigate items={report.investigate} timeZone={timeZone} />
             {report.payouts.length ? (
               <div>
-                <h3 className="font-semibold">Payouts to the bank</h3>
+                <h3 className="font-semibold">Sent to our bank</h3>
                 <ul className="text-sm">
                   {report.payouts.map((p) => (
                     <li key={p.id ?? p.at}>
-                      {formatDateTime(p.at, timeZone)}: {formatMoney(p.amountMinor, currency)}{' '}
-                      <span className="muted font-mono text-xs">{p.id}</span>
+                      {formatDateTime(p.at, timeZone)}: {formatMoney(p.amountMinor, currency)}
+                      {p.id ? <ProcessorRefs paymentRef={p.id} ledgerRef={null} /> : null}
                     </li>
                   ))}
                 </ul>

@@ -7,6 +7,7 @@ import * as benchCheck from '../bench-check/route';
 import * as booksExport from '../books/export/route';
 import * as booksPeriods from '../books/periods/route';
 import * as booksReconciliation from '../books/reconciliation/route';
+import * as booksResolutions from '../books/resolutions/route';
 import * as booksSweep from '../books/sweep/route';
 import * as calendarToken from '../calendar/[token]/route';
 import * as calendarLink from '../calendar/link/route';
@@ -70,6 +71,8 @@ export const ROUTES: RouteModules = {
   '/api/books/export': booksExport,
   '/api/books/periods': booksPeriods,
   '/api/books/reconciliation': booksReconciliation,
+  // Books (treasurer): notes that explain rows that do not match
+  '/api/books/resolutions': booksResolutions,
   '/api/books/sweep': booksSweep,
   '/api/calendar/{token}': calendarToken,
   '/api/calendar/link': calendarLink,
