@@ -8,7 +8,7 @@ import { contentSecurityPolicy, newNonce } from '@/lib/http/csp';
 // on its scripts; `x-nonce` carries it for a page that needs it), and sending anonymous visitors of
 // protected pages to sign-in. Every page, route handler and server action still checks the person and
 // role itself (lib/auth/guard.ts).
-const PUBLIC = [/^\/$/, /^\/signin(\/|$)/, /^\/bench-check(\/|$)/, /^\/welcome(\/|$)/, /^\/dev\/mailbox(\/|$)/, /^\/forbidden$/];
+const PUBLIC = [/^\/$/, /^\/signin(\/|$)/, /^\/bench-check(\/|$)/, /^\/welcome(\/|$)/, /^\/dev\/mailbox(\/|$)/, /^\/forbidden$/, /^\/first-run$/];
 
 export default async function proxy(req: NextRequest) {
   const { pathname, search } = req.nextUrl;
