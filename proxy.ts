@@ -30,6 +30,7 @@ export default async function proxy(req: NextRequest) {
     res = NextResponse.next({ request: { headers } });
   }
   res.headers.set('content-security-policy', csp);
+  if (e.APP_BASE_URL.startsWith('https://')) res.headers.set('strict-transport-security', 'max-age=31536000');
   return res;
 }
 

@@ -60,6 +60,8 @@ import * as stockUnitsId from '../stock/units/[id]/route';
 // Running it for a space (issue 15): first run, health.
 import * as firstRun from '../first-run/route';
 import * as health from '../health/route';
+import * as exportSpace from '../export/route';
+import * as peopleIdErase from '../people/[id]/erase/route';
 
 // Every route file of the production build, by its path in the API document. A test compares this list
 // with app/api on disk (and the test, bench and dev doors, which are not in the production build, are
@@ -126,4 +128,6 @@ export const ROUTES: RouteModules = {
   // Running it for a space (issue 15)
   '/api/first-run': firstRun,
   '/api/health': health,
+  '/api/export': exportSpace,
+  '/api/people/{id}/erase': peopleIdErase,
 };
