@@ -216,8 +216,10 @@ describe('npm run serve: a real space from nothing', () => {
     expect(res.headers.get('x-request-id')).toBe(requestId);
 
     await new Promise((r) => setTimeout(r, 300));
+    // Complete lines only (the last may still be being written).
     const lines = out
       .split('\n')
+      .slice(0, -1)
       .filter((l) => l.startsWith('{'))
       .map((l) => JSON.parse(l) as Record<string, unknown>);
     const mine = lines.filter((l) => l.requestId === requestId);
