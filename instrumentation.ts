@@ -14,5 +14,7 @@ export async function register(): Promise<void> {
     startJobsInThisProcess();
     const { startSaleJobsInThisProcess } = await import('./lib/sales/job-runner');
     startSaleJobsInThisProcess(); // the scheduled sweep of card sales left pending
+    const { startBackupJobsInThisProcess } = await import('./lib/backup/job-runner');
+    startBackupJobsInThisProcess(); // the nightly backup, where BACKUP_DIR is set (npm run serve)
   }
 }

@@ -17,7 +17,7 @@ const nextConfig = {
   pageExtensions: [...wanted.flatMap((door) => DOORS[door]), 'tsx', 'ts'],
   poweredByHeader: false,
   // Server-only packages that must not be bundled (native bits, dynamic requires).
-  serverExternalPackages: ['pg', 'pg-boss', '@node-rs/argon2', 'nodemailer', 'pdf-lib', 'qrcode', 'stripe', 'file-type'],
+  serverExternalPackages: ['pg', 'pg-boss', 'pino', '@node-rs/argon2', 'nodemailer', 'pdf-lib', 'qrcode', 'stripe', 'file-type'],
   typedRoutes: false,
   // npm test runs `tsc --noEmit` as its own step; the build need not repeat it.
   typescript: { ignoreBuildErrors: true },

@@ -8,7 +8,7 @@ import { contentSecurityPolicy, newNonce } from '@/lib/http/csp';
 // on its scripts; `x-nonce` carries it for a page that needs it), and sending anonymous visitors of
 // protected pages to sign-in. Every page, route handler and server action still checks the person and
 // role itself (lib/auth/guard.ts).
-const PUBLIC = [/^\/$/, /^\/signin(\/|$)/, /^\/bench-check(\/|$)/, /^\/welcome(\/|$)/, /^\/dev\/mailbox(\/|$)/, /^\/forbidden$/];
+const PUBLIC = [/^\/$/, /^\/signin(\/|$)/, /^\/bench-check(\/|$)/, /^\/welcome(\/|$)/, /^\/dev\/mailbox(\/|$)/, /^\/forbidden$/, /^\/first-run$/];
 
 export default async function proxy(req: NextRequest) {
   const { pathname, search } = req.nextUrl;
@@ -30,6 +30,7 @@ export default async function proxy(req: NextRequest) {
     res = NextResponse.next({ request: { headers } });
   }
   res.headers.set('content-security-policy', csp);
+  if (e.APP_BASE_URL.startsWith('https://')) res.headers.set('strict-transport-security', 'max-age=31536000');
   return res;
 }
 

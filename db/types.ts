@@ -41,6 +41,8 @@ export interface UsersTable {
   last_space_id: string | null;
   /** Secret of the person's iCalendar feed (migration 0002_loans); null until first asked for. */
   calendar_token: ColumnType<string | null, string | null | undefined, string | null>;
+  /** When their personal data was erased on request; the row stays as a placeholder (migration 0008). */
+  erased_at: TimestampNullable;
   created_at: TimestampDefault;
 }
 
@@ -362,6 +364,18 @@ export interface ReconResolutionsTable {
   written_at: TimestampDefault;
 }
 
+/** Every nightly backup attempt of the installation (migration 0008; no space_id: one dump holds all). */
+export interface BackupRunsTable {
+  id: Generated<string>;
+  taken_at: Timestamp;
+  started_at: Timestamp;
+  finished_at: Timestamp;
+  file: string | null;
+  size_bytes: ColumnType<string | null, number | null, number | null>;
+  ok: boolean;
+  error: string | null;
+}
+
 export interface Database {
   spaces: SpacesTable;
   users: UsersTable;
@@ -392,6 +406,7 @@ export interface Database {
   attachments: AttachmentsTable;
   audit_log: AuditLogTable;
   recon_resolutions: ReconResolutionsTable;
+  backup_runs: BackupRunsTable;
 }
 
 export type Space = Selectable<SpacesTable>;

@@ -163,3 +163,59 @@ start_app() {
   (cd "$ROOT" && exec node node_modules/next/dist/bin/next start -p "$port" -H 127.0.0.1) >"$app_log" 2>&1 &
   APP_PID=$!
 }
+
+# --- stopping everything a start script started (added with the clean-stop test) ---
+
+# The process ids under PID (children, grandchildren, …), deepest first; by parent id only.
+descendants() {
+  local pid="$1" child
+  for child in $(pgrep -P "$pid" 2>/dev/null); do
+    descendants "$child"
+    echo "$child"
+  done
+}
+
+# Ends PID and everything it started: TERM, up to WAIT seconds (default 5), then KILL what is left.
+kill_tree() {
+  local pid="$1" wait="${2:-5}" pids p alive
+  [ -n "$pid" ] || return 0
+  pids="$(descendants "$pid") $pid"
+  for p in $pids; do kill -TERM "$p" 2>/dev/null || true; done
+  for _ in $(seq $((wait * 5))); do
+    alive=0
+    for p in $pids; do kill -0 "$p" 2>/dev/null && alive=1; done
+    [ "$alive" = 0 ] && return 0
+    sleep 0.2
+  done
+  for p in $pids; do kill -KILL "$p" 2>/dev/null || true; done
+}
+
+# Runs a long step as a child and waits for it, so a SIGTERM to the script acts at once (bash holds a
+# trap while a foreground child runs, but not while it waits); the step's PID is STEP_PID for cleanup.
+STEP_PID=""
+run_step() {
+  "$@" &
+  STEP_PID=$!
+  local rc=0
+  wait "$STEP_PID" || rc=$?
+  STEP_PID=""
+  return "$rc"
+}
+
+# --- production start (scripts/serve.sh, scripts/upgrade.sh) ---
+
+# Pending migrations go in only after a fresh backup into BACKUP_DIR. Kysely's Migrator runs them in one
+# transaction on PostgreSQL, so a failed migration leaves the database exactly as it was.
+migrate_with_backup() {
+  local pending
+  pending="$(node node_modules/tsx/dist/cli.mjs scripts/migrate.ts --pending)"
+  if [ "$pending" = 0 ]; then
+    log "database schema is up to date"
+    return 0
+  fi
+  log "$pending migration(s) to run: backing up first"
+  bash "$ROOT/scripts/db-backup.sh" "$BACKUP_DIR/before-migrate-$(date -u +%Y%m%dT%H%M%SZ).dump" >/dev/null \
+    || { log "backup failed: not migrating"; return 1; }
+  node node_modules/tsx/dist/cli.mjs scripts/migrate.ts \
+    || { log "migration failed: the database is as it was before (one transaction); the backup is in $BACKUP_DIR"; return 1; }
+}

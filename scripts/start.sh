@@ -8,7 +8,10 @@ cd "$ROOT"
 ensure_node_modules
 ensure_postgres
 
-STATE="$ROOT/.data"
+# OHM_STATE_DIR, OHM_APP_PORT and OHM_START_PREBUILT exist for the clean-stop test (a throwaway folder,
+# free ports, the test build); npm start leaves them unset.
+STATE="${OHM_STATE_DIR:-$ROOT/.data}"
+APP_PORT_OHM="${OHM_APP_PORT:-3000}"
 mkdir -p "$STATE"
 [ -s "$STATE/secret" ] || node -e 'console.log(require("crypto").randomBytes(32).toString("hex"))' >"$STATE/secret"
 
@@ -16,7 +19,7 @@ export PGPORT_OHM="${OHM_PG_PORT:-54329}"
 PGDATA_OHM="$(pg_data_dir "$STATE/pg" "/var/tmp/ohmstead-$(echo "$ROOT" | md5sum | cut -c1-8)/pg")"
 export DATABASE_URL="postgres://postgres@127.0.0.1:$PGPORT_OHM/ohmstead"
 export NEXTAUTH_SECRET="$(cat "$STATE/secret")"
-export NEXTAUTH_URL="http://127.0.0.1:3000" APP_BASE_URL="http://127.0.0.1:3000"
+export NEXTAUTH_URL="http://127.0.0.1:$APP_PORT_OHM" APP_BASE_URL="http://127.0.0.1:$APP_PORT_OHM"
 export SMTP_HOST=127.0.0.1 SMTP_PORT="${SMTP_PORT:-2525}" SMTP_SINK_HTTP_PORT="${SMTP_SINK_HTTP_PORT:-2580}"
 export MAILBOX_URL="http://127.0.0.1:$SMTP_SINK_HTTP_PORT"
 export PAYMENTS_API_HOST=127.0.0.1 PAYMENTS_API_PORT="${PAYMENTS_API_PORT:-12111}" PAYMENTS_API_PROTOCOL=http
@@ -31,43 +34,58 @@ if [ "${OHM_DEMO_MAILBOX:-0}" = 1 ]; then
   DIST=.next-demo
 fi
 
+# Ctrl-C (SIGINT to the whole group) or SIGTERM (to this script alone, as `kill` or a service manager
+# sends it) ends every process started here, PostgreSQL included: its server detaches from the terminal,
+# so it stops only when asked. The cleanup must run to its end whatever fails inside it (no `set -e`),
+# and a second Ctrl-C must not cut it short.
+APP_PID=""
+cleanup() {
+  trap '' INT TERM
+  set +e
+  log "stopping services"
+  kill_tree "$STEP_PID"
+  kill_tree "$APP_PID"
+  stop_fakes "$STATE/run"
+  pg_stop "$PGDATA_OHM"
+  log "stopped"
+}
+trap cleanup EXIT
+trap 'exit 130' INT
+trap 'exit 143' TERM
+
 log "PostgreSQL (data in $PGDATA_OHM, port $PGPORT_OHM)"
 pg_start "$PGDATA_OHM" "$PGPORT_OHM" durable
 pg_create_db "$PGPORT_OHM" ohmstead
-
-cleanup() {
-  log "stopping services"
-  stop_fakes "$STATE/run"
-  [ -n "${APP_PID:-}" ] && kill "$APP_PID" 2>/dev/null
-  pg_stop "$PGDATA_OHM"
-}
-trap cleanup EXIT
-trap 'exit 130' INT TERM
 
 log "SMTP sink and payments fake"
 stop_fakes "$STATE/run"
 start_fakes "$STATE/run"
 
 log "migrating"
-node node_modules/tsx/dist/cli.mjs scripts/migrate.ts
+run_step node node_modules/tsx/dist/cli.mjs scripts/migrate.ts
 log "seeding the demo (only into an empty database)"
-node node_modules/tsx/dist/cli.mjs scripts/seed.ts
+run_step node node_modules/tsx/dist/cli.mjs scripts/seed.ts
 
-# Build when the sources changed since the last build.
-stamp="$STATE/build$DIST.stamp"
-src_hash="$(git ls-files -s 2>/dev/null | md5sum | cut -c1-32)$(git diff 2>/dev/null | md5sum | cut -c1-32)"
-if [ ! -f "$DIST/BUILD_ID" ] || [ "$(cat "$stamp" 2>/dev/null)" != "$src_hash" ]; then
-  log "building (next build)"
-  node node_modules/next/dist/bin/next build
-  echo "$src_hash" >"$stamp"
+# Build when the sources changed since the last build (never when serving a build made elsewhere).
+if [ -n "${OHM_START_PREBUILT:-}" ]; then
+  DIST="$OHM_START_PREBUILT"
+  export OHM_DIST_DIR="$DIST"
+else
+  stamp="$STATE/build$DIST.stamp"
+  src_hash="$(git ls-files -s 2>/dev/null | md5sum | cut -c1-32)$(git diff 2>/dev/null | md5sum | cut -c1-32)"
+  if [ ! -f "$DIST/BUILD_ID" ] || [ "$(cat "$stamp" 2>/dev/null)" != "$src_hash" ]; then
+    log "building (next build)"
+    run_step node node_modules/next/dist/bin/next build
+    echo "$src_hash" >"$stamp"
+  fi
 fi
 
-node node_modules/next/dist/bin/next start -p 3000 -H 127.0.0.1 &
+node node_modules/next/dist/bin/next start -p "$APP_PORT_OHM" -H 127.0.0.1 &
 APP_PID=$!
-wait_http "http://127.0.0.1:3000/signin" 120
+wait_http "http://127.0.0.1:$APP_PORT_OHM/signin" 120
 cat <<MSG
 
-  Ohmstead is serving on http://127.0.0.1:3000
+  Ohmstead is serving on http://127.0.0.1:$APP_PORT_OHM
   Dev mailbox (every e-mail it sends: sign-in links, receipts, reminders): $MAILBOX_URL/
   (served by the local SMTP sink on this machine only; nothing leaves it)
 

@@ -11,6 +11,33 @@ import { InlineError } from './form-field';
 import { RoleCheckboxes } from './role-checkboxes';
 import { errorText, sendJson } from './send-json';
 
+/** Erasure on request: asks for the person's e-mail as confirmation (POST /api/people/:id/erase). */
+function EraseButton({ person }: { person: Person }) {
+  const router = useRouter();
+  const erase = useMutation({
+    mutationFn: (confirmEmail: string) => sendJson<{ person: { name: string } }>(`/api/people/${person.id}/erase`, 'POST', { confirmEmail }),
+    onSuccess: () => router.refresh(),
+  });
+  return (
+    <>
+      <button
+        type="button"
+        className="btn-quiet min-h-9 px-3 py-1 text-sm"
+        disabled={erase.isPending}
+        onClick={() => {
+          const typed = window.prompt(
+            `Erase ${person.name}'s personal data? Name, e-mail and sign-in are removed for good; their loans and sales stay, anonymous. Type their e-mail to confirm.`,
+          );
+          if (typed) erase.mutate(typed);
+        }}
+      >
+        Erase personal data<span className="sr-only"> of {person.name}</span>
+      </button>
+      {erase.isError ? <InlineError alert>{errorText(erase.error)}</InlineError> : null}
+    </>
+  );
+}
+
 const sameRoles = (a: Role[], b: Role[]) => a.length === b.length && a.every((r) => b.includes(r));
 
 /** One person's roles and access switch for this space, saved through PATCH /api/people/:id. */
@@ -66,6 +93,7 @@ function PersonControls({ person, isSelf }: { person: Person; isSelf: boolean })
             <span className="sr-only"> of {person.name}</span>
           </button>
         )}
+        {isSelf ? null : <EraseButton person={person} />}
       </div>
       {save.isError ? <InlineError alert>{errorText(save.error)}</InlineError> : null}
     </div>

@@ -4,6 +4,7 @@ import { AppError, type FieldErrors } from '@/lib/errors';
 import { zodFields } from '@/lib/http/respond';
 import { resolveCaller, type Who } from '@/lib/http/route';
 import type { Ctx } from './roles';
+import { log } from '@/lib/log';
 
 export type ActionState = { ok?: boolean; message?: string; fieldErrors?: FieldErrors; data?: unknown };
 type SignedIn = Exclude<Who, 'anonymous' | 'signature'>;
@@ -28,7 +29,7 @@ export function action<S extends z.ZodType>(
     } catch (err) {
       if (err instanceof AppError) return { message: err.message, fieldErrors: err.fields };
       if (err && typeof err === 'object' && 'digest' in err) throw err; // redirect() / notFound()
-      console.error(err);
+      log.error({ err }, 'server action failed');
       return { message: 'Something went wrong on our side.' };
     }
   };

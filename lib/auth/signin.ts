@@ -6,6 +6,7 @@ import { hashPassword, verifyPassword } from './password';
 import { hashToken, newToken } from './tokens';
 import { audit } from '@/lib/audit/log';
 import { sendSignInLink } from '@/lib/mail/templates';
+import { log } from '@/lib/log';
 
 let dummyHash: string | undefined;
 
@@ -88,6 +89,6 @@ export async function mailSignInLinkIfKnown(db: Db, email: string): Promise<void
     const created = await db.transaction().execute((trx) => createSignInToken(trx, email));
     if (created) await sendSignInLink(created.user, created.token);
   } catch (err) {
-    console.error('[sign-in link] not sent:', (err as Error).message);
+    log.error({ err: (err as Error).message }, 'sign-in link not sent');
   }
 }

@@ -3,6 +3,7 @@ import { InvalidError, type FieldErrors } from '@/lib/errors';
 import { firstNonFinite } from './finite';
 import { parseBenchBody } from './parse';
 import { compareBodySchema } from './schemas';
+import { log } from '@/lib/log';
 
 // The two public bench-check services behind POST /api/bench-check and /compare. Each takes the raw
 // JSON body and returns the answer, or throws an InvalidError (400) naming the fields. Whatever the body,
@@ -46,12 +47,12 @@ function computed<T>(raw: unknown, run: () => T): T {
   try {
     answer = run();
   } catch (err) {
-    console.error('bench-check: an accepted body failed to compute', JSON.stringify(raw), err);
+    log.error({ body: raw, err }, 'bench-check: an accepted body failed to compute');
     throw notComputable(raw);
   }
   const bad = firstNonFinite(answer);
   if (bad) {
-    console.error(`bench-check: non-finite ${bad} for an accepted body`, JSON.stringify(raw));
+    log.error({ body: raw, nonFinite: bad }, 'bench-check: non-finite figures for an accepted body');
     throw notComputable(raw);
   }
   return answer;

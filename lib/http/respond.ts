@@ -1,3 +1,4 @@
+import { log } from '@/lib/log';
 import { NextResponse } from 'next/server';
 import { z } from 'zod';
 import { AppError, type FieldErrors } from '@/lib/errors';
@@ -56,7 +57,7 @@ export function errorResponse(err: unknown): NextResponse {
       headers: { 'Retry-After': '2' },
     });
   }
-  console.error(err);
+  log.error({ err }, 'unexpected error');
   return NextResponse.json(errorBody('internal', 'Something went wrong on our side.'), { status: 500 });
 }
 

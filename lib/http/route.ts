@@ -5,6 +5,7 @@ import type { Role } from '@/lib/domain';
 import { env } from '@/lib/env';
 import { AppError, ForbiddenError, InvalidError, NotFoundError } from '@/lib/errors';
 import { idSchema } from '@/lib/ids';
+import { log, requestIdFrom, withRequestId } from '@/lib/log';
 import { errorBody, errorResponse, zodFields } from './respond';
 
 /*
@@ -263,7 +264,22 @@ export function route<
   B extends BodyKind | undefined = undefined,
 >(spec: RouteSpec<W, P, Q, B>): RouteHandler {
   const declared = spec as unknown as DeclaredSpec;
-  const handler = async (req: Request, context: RouteContext = NO_PARAMS): Promise<Response> => {
+  // Every answer carries X-Request-Id, and every log line written while it is made carries the same id.
+  const handler = (req: Request, context: RouteContext = NO_PARAMS): Promise<Response> => {
+    const requestId = requestIdFrom(req.headers.get('x-request-id'));
+    return withRequestId(requestId, async () => {
+      const started = performance.now();
+      const res = await answer(req, context);
+      try {
+        res.headers.set('x-request-id', requestId);
+      } catch {
+        // a Response with immutable headers (Response.redirect) keeps its own
+      }
+      log.info({ method: req.method, path: new URL(req.url).pathname, status: res.status, ms: Math.round(performance.now() - started) }, 'request');
+      return res;
+    });
+  };
+  const answer = async (req: Request, context: RouteContext): Promise<Response> => {
     try {
       if (STATE_CHANGING.has(declared.method) && declared.who !== 'signature') checkOrigin(req);
       const ctx = await resolveCaller(declared.who);

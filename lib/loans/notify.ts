@@ -3,6 +3,7 @@ import type { Db } from '@/db/connect';
 import { env } from '@/lib/env';
 import { holdReadyMail, type BuiltMail } from '@/lib/mail/loans';
 import { sendMail } from '@/lib/mail/send';
+import { log } from '@/lib/log';
 
 // "Your hold is ready" mail, sent after the return (or refill) commits. Each notice is sent under a
 // row lock and marked in the same transaction, so two senders (the request and the sweep) never both
@@ -65,7 +66,7 @@ export async function notifyReadyHolds(
       if (done) sent++;
     } catch (err) {
       // Left for the next sweep; the return itself stands.
-      console.error('[holds] ready notice not sent:', (err as Error).message);
+      log.error({ err: (err as Error).message }, 'hold ready notice not sent');
     }
   }
   return sent;

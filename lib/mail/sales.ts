@@ -5,6 +5,7 @@ import { formatMoney } from '@/lib/money';
 import { saleRef } from '@/lib/sales/ref';
 import { formatDateTimeWithZone } from '@/lib/zoned-time';
 import { sendMail } from './server';
+import { log } from '@/lib/log';
 
 const esc = (s: string) => s.replace(/[&<>"']/g, (c) => `&#${c.charCodeAt(0)};`);
 
@@ -106,7 +107,7 @@ export async function sendReceipts(db: Db, saleIds: string[]): Promise<void> {
     try {
       await sendSaleReceipt(db, id);
     } catch (err) {
-      console.error(`[receipt] sale ${id}: ${err instanceof Error ? err.message : String(err)}`);
+      log.error({ saleId: id, err: err instanceof Error ? err.message : String(err) }, 'receipt not sent');
     }
   }
 }

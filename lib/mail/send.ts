@@ -8,7 +8,7 @@ import { zodFields } from '@/lib/http/respond';
 // a deployment points SMTP_HOST / SMTP_PORT at its relay. No `server-only` here so tests can import it;
 // app code imports lib/mail/server.ts, which adds it.
 
-export type MailConfig = { host: string; port: number; from: string };
+export type MailConfig = { host: string; port: number; from: string; user?: string; password?: string; tls?: 'none' | 'starttls' | 'implicit' };
 
 const portSchema = z.coerce.number().int().min(1).max(65535);
 
@@ -20,6 +20,9 @@ export function mailConfigFromEnv(env: Record<string, string | undefined> = rawE
     host: env.SMTP_HOST || '127.0.0.1',
     port: port.data,
     from: env.MAIL_FROM || 'Ohmstead <bench@ohmstead.invalid>',
+    user: env.SMTP_USER || undefined,
+    password: env.SMTP_PASSWORD || undefined,
+    tls: env.SMTP_TLS === 'starttls' || env.SMTP_TLS === 'implicit' ? env.SMTP_TLS : 'none',
   };
 }
 
@@ -40,7 +43,7 @@ const cache = globalThis as typeof globalThis & { __ohmsteadMailTransports?: Map
 
 function transportFor(config: MailConfig): Transporter {
   const transports = (cache.__ohmsteadMailTransports ??= new Map());
-  const key = `${config.host}:${config.port}`;
+  const key = `${config.host}:${config.port}:${config.tls ?? 'none'}:${config.user ?? ''}`;
   let transport = transports.get(key);
   if (!transport) {
     transport = nodemailer.createTransport({
@@ -48,8 +51,11 @@ function transportFor(config: MailConfig): Transporter {
       maxConnections: 2,
       host: config.host,
       port: config.port,
-      secure: false,
-      ignoreTLS: true,
+      // The local sink speaks plain SMTP; a real relay takes STARTTLS (587) or TLS from the start (465).
+      secure: config.tls === 'implicit',
+      ignoreTLS: (config.tls ?? 'none') === 'none',
+      requireTLS: config.tls === 'starttls',
+      auth: config.user ? { user: config.user, pass: config.password ?? '' } : undefined,
       ...TIMEOUTS,
     });
     transports.set(key, transport);
@@ -107,4 +113,14 @@ export function closeMailTransports(): void {
   if (!transports) return;
   for (const t of transports.values()) t.close();
   transports.clear();
+}
+
+/** Whether the mail server answers and (with SMTP_USER) accepts our sign-in: a health check's probe. */
+export async function mailReachable(config: MailConfig = mailConfigFromEnv()): Promise<boolean> {
+  try {
+    await transportFor(config).verify();
+    return true;
+  } catch {
+    return false;
+  }
 }

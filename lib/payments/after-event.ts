@@ -3,6 +3,7 @@ import type { Db } from '@/db/connect';
 import { sendReceipts } from '@/lib/mail/sales';
 import { paymentsClient } from './client';
 import { syncRefunds } from './refund-sync';
+import { log } from '@/lib/log';
 
 /** What a verified webhook event leaves to do after the answer: receipts, and refunds to fetch. */
 export async function afterPaymentEvent(db: Db, result: { receipts: string[]; refundsToSync: string[] }) {
@@ -12,7 +13,7 @@ export async function afterPaymentEvent(db: Db, result: { receipts: string[]; re
     try {
       if (sale) await syncRefunds(db, paymentsClient(sale.space_id), saleId);
     } catch (err) {
-      console.error(`[webhook] refund sync for sale ${saleId}: ${err instanceof Error ? err.message : String(err)}`);
+      log.error({ saleId, err: err instanceof Error ? err.message : String(err) }, 'refund sync after webhook failed');
     }
   }
 }

@@ -3,6 +3,7 @@ import PgBoss from 'pg-boss';
 import { createDb, type Db } from '@/db/connect';
 import { now } from '@/lib/clock';
 import { runReminderSweep } from './sweep';
+import { log } from '@/lib/log';
 
 // The durable job runner: pg-boss keeps its queue and schedule in PostgreSQL (schema `pgboss`), so a
 // schedule survives restarts and several app processes share one timetable (each cron slot runs once).
@@ -18,7 +19,7 @@ const g = globalThis as typeof globalThis & { ohmReminderRunner?: Promise<Runner
 export function startReminderJobs(connectionString: string): Promise<Runner> {
   g.ohmReminderRunner ??= (async () => {
     const boss = new PgBoss({ connectionString, max: 2, application_name: 'ohmstead-jobs' });
-    boss.on('error', (err) => console.error('[jobs]', err.message));
+    boss.on('error', (err) => log.error({ err: err.message }, 'job queue error'));
     const db = createDb(connectionString, 2);
     await boss.start();
     // 'stately': at most one sweep queued and one running at any time.
@@ -33,7 +34,7 @@ export function startReminderJobs(connectionString: string): Promise<Runner> {
     await boss.work(SWEEP_QUEUE, async () => {
       const result = await runReminderSweep(db, now());
       if (result.queued || result.sent || result.failed || result.holdNotices)
-        console.log('[jobs] reminder sweep', result);
+        log.info({ job: 'reminder-sweep', ...result }, 'reminder sweep');
     });
     // Catch up at start: whatever came due while the app was down goes out now, not at the next slot.
     await boss.send(SWEEP_QUEUE, {});

@@ -1,5 +1,6 @@
 import { env } from '@/lib/env';
 import { startReminderJobs } from './jobs';
+import { log } from '@/lib/log';
 
 /**
  * Starts the reminder job runner in this server process unless OHM_JOBS=0. A database that is not up
@@ -11,7 +12,7 @@ export function startJobsInThisProcess(): void {
   const url = e.DATABASE_URL;
   const attempt = () =>
     startReminderJobs(url).catch((err: Error) => {
-      console.error('[jobs] reminder runner did not start; retrying in 30 s:', err.message);
+      log.error({ err: err.message }, 'reminder runner did not start; retrying in 30 s');
       setTimeout(attempt, 30_000).unref();
     });
   void attempt();

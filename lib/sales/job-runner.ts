@@ -6,6 +6,7 @@ import { env } from '@/lib/env';
 import { sendReceipts } from '@/lib/mail/sales';
 import { paymentsClient } from '@/lib/payments/client';
 import { runSaleSweep, SALE_SWEEP_CRON, SALE_SWEEP_QUEUE } from './jobs';
+import { log } from '@/lib/log';
 
 // Runs the scheduled sale sweep (./jobs.ts) on pg-boss, in the app process, the same way the reminder
 // sweep runs (lib/reminders/jobs.ts): the schedule lives in PostgreSQL, so several app processes share
@@ -16,7 +17,7 @@ const g = globalThis as typeof globalThis & { ohmSaleSweepRunner?: Promise<PgBos
 function startSaleJobs(connectionString: string): Promise<PgBoss> {
   g.ohmSaleSweepRunner ??= (async () => {
     const boss = new PgBoss({ connectionString, max: 2, application_name: 'ohmstead-sale-jobs' });
-    boss.on('error', (err) => console.error('[jobs]', err.message));
+    boss.on('error', (err) => log.error({ err: err.message }, 'job queue error'));
     const db = createDb(connectionString, 2);
     await boss.start();
     // 'stately': at most one sweep queued and one running at any time.
@@ -26,7 +27,7 @@ function startSaleJobs(connectionString: string): Promise<PgBoss> {
       const run = await runSaleSweep(db, paymentsClient, { now: now() });
       await sendReceipts(db, run.receipts);
       if (run.checked || run.spacesNotReached)
-        console.log('[jobs] sale sweep', { ...run, receipts: run.receipts.length });
+        log.info({ job: 'sale-sweep', ...run, receipts: run.receipts.length }, 'sale sweep');
     });
     return boss;
   })().catch((err) => {
@@ -43,7 +44,7 @@ export function startSaleJobsInThisProcess(): void {
   const url = e.DATABASE_URL;
   const attempt = () =>
     startSaleJobs(url).catch((err: Error) => {
-      console.error('[jobs] sale sweep did not start; retrying in 30 s:', err.message);
+      log.error({ err: err.message }, 'sale sweep did not start; retrying in 30 s');
       setTimeout(attempt, 30_000).unref();
     });
   void attempt();

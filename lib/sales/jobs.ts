@@ -2,6 +2,7 @@ import 'server-only';
 import type Stripe from 'stripe';
 import type { Db } from '@/db/connect';
 import { sweepOverdueSales } from './sweep';
+import { log } from '@/lib/log';
 
 // The scheduled sweep (started by ./job-runner.ts): no card sale stays pending for ever, even when
 // nobody opens the Books. The processor expires a checkout session itself at its expiry and tells us
@@ -75,7 +76,7 @@ export async function runSaleSweep(
     } catch (err) {
       // One space's processor trouble must not stop the others.
       run.spacesNotReached += 1;
-      console.error(`[jobs] sale sweep, space ${spaceId}:`, err instanceof Error ? err.message : err);
+      log.error({ spaceId, err: err instanceof Error ? err.message : String(err) }, 'sale sweep failed for a space');
     }
   }
   return run;

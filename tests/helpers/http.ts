@@ -6,6 +6,11 @@ export const BASE = process.env.TEST_BASE_URL ?? 'http://127.0.0.1:3000';
 export class HttpSession {
   private cookies = new Map<string, string>();
 
+  /** `base`: another app than the test run's (the production-start test serves its own). */
+  constructor(readonly base: string = BASE) {
+    this.origin = new URL(base).origin;
+  }
+
   cookieHeader(): string {
     return [...this.cookies].map(([k, v]) => `${k}=${v}`).join('; ');
   }
@@ -22,14 +27,14 @@ export class HttpSession {
   }
 
   /** The Origin a browser on the app's own pages sends with a change; null sends none. */
-  origin: string | null = new URL(BASE).origin;
+  origin: string | null;
 
   async fetch(path: string, init: RequestInit = {}): Promise<Response> {
     const headers = new Headers(init.headers);
     if (this.cookies.size) headers.set('cookie', this.cookieHeader());
     const method = (init.method ?? 'GET').toUpperCase();
     if (method !== 'GET' && method !== 'HEAD' && this.origin && !headers.has('origin')) headers.set('origin', this.origin);
-    const res = await fetch(path.startsWith('http') ? path : BASE + path, { redirect: 'manual', ...init, headers });
+    const res = await fetch(path.startsWith('http') ? path : this.base + path, { redirect: 'manual', ...init, headers });
     this.keep(res);
     return res;
   }

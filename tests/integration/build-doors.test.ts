@@ -1,32 +1,17 @@
-import { execFileSync } from 'node:child_process';
-import { existsSync, readFileSync } from 'node:fs';
+import { readFileSync } from 'node:fs';
 import path from 'node:path';
 import { describe, expect, it } from 'vitest';
+import { productionBuild } from '../helpers/production-build';
 
 // Finding 3: the test, bench and dev doors are not in the build `npm start` serves. Proved from the
 // builds' own route manifests: the test build (scripts/test.sh, OHM_BUILD_DOORS=test,dev) has the test
 // hooks and the dev mailbox; a build made the way `npm start` makes it (no OHM_BUILD_DOORS) has none of
-// them, nor the bench floors. That build goes to .next-prodcheck and is reused while the sources match.
+// them, nor the bench floors. That build goes to .next-prodcheck (tests/helpers/production-build.ts).
 const ROOT = path.resolve(__dirname, '../..');
 const DOORS = ['/api/test/clock/route', '/api/payments/test-endpoint/route', '/api/bench-floor/loans/route', '/api/bench-floor/scan/[code]/route', '/dev/mailbox/page', '/dev/mailbox/[id]/page'];
 
 function appPaths(dist: string): string[] {
   return Object.keys(JSON.parse(readFileSync(path.join(ROOT, dist, 'server/app-paths-manifest.json'), 'utf8')));
-}
-
-function productionBuild(): string {
-  const dist = '.next-prodcheck';
-  const fingerprint = execFileSync('bash', ['-c', 'git ls-files -co --exclude-standard -z | xargs -0 md5sum 2>/dev/null | md5sum | cut -c1-32'], {
-    cwd: ROOT,
-    encoding: 'utf8',
-  }).trim();
-  const stamp = path.join(ROOT, dist, 'ohm-source.stamp');
-  if (existsSync(stamp) && readFileSync(stamp, 'utf8').trim() === fingerprint) return dist;
-  const env = { ...process.env, OHM_DIST_DIR: dist, NODE_ENV: 'production' } as Record<string, string | undefined>;
-  delete env.OHM_BUILD_DOORS;
-  execFileSync(process.execPath, ['node_modules/next/dist/bin/next', 'build'], { cwd: ROOT, env: env as NodeJS.ProcessEnv, stdio: 'pipe' });
-  execFileSync('bash', ['-c', `echo ${fingerprint} > ${stamp}`], { cwd: ROOT });
-  return dist;
 }
 
 describe('doors by build', () => {

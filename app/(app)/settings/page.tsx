@@ -4,6 +4,10 @@ import { requirePageRole } from '@/lib/auth/guard';
 import { getSettings } from '@/lib/settings/settings';
 import { PageTitle } from '@/components/ui/page-title';
 import { SettingsForm } from '@/components/settings/settings-form';
+import { DeploymentNotes } from '@/components/settings/deployment-notes';
+import { env } from '@/lib/env';
+import { APP_VERSION } from '@/lib/version';
+import { lastBackups } from '@/lib/backup/run';
 
 export const metadata = { title: 'Settings' };
 
@@ -16,6 +20,7 @@ export default async function SettingsPage() {
         <Link className="btn-quiet" href="/settings/api">API reference</Link>
       </PageTitle>
       <SettingsForm initial={settings} />
+      <DeploymentNotes baseUrl={env().APP_BASE_URL} version={APP_VERSION} backups={await lastBackups(db)} />
     </div>
   );
 }

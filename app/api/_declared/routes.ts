@@ -58,6 +58,11 @@ import * as stockMove from '../stock/move/route';
 import * as stockReceive from '../stock/receive/route';
 import * as stockRepairs from '../stock/repairs/route';
 import * as stockUnitsId from '../stock/units/[id]/route';
+// Running it for a space (issue 15): first run, health.
+import * as firstRun from '../first-run/route';
+import * as health from '../health/route';
+import * as exportSpace from '../export/route';
+import * as peopleIdErase from '../people/[id]/erase/route';
 
 // Every route file of the production build, by its path in the API document. A test compares this list
 // with app/api on disk (and the test, bench and dev doors, which are not in the production build, are
@@ -123,4 +128,9 @@ export const ROUTES: RouteModules = {
   '/api/stock/receive': stockReceive,
   '/api/stock/repairs': stockRepairs,
   '/api/stock/units/{id}': stockUnitsId,
+  // Running it for a space (issue 15)
+  '/api/first-run': firstRun,
+  '/api/health': health,
+  '/api/export': exportSpace,
+  '/api/people/{id}/erase': peopleIdErase,
 };
