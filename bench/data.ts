@@ -8,7 +8,8 @@ import path from 'node:path';
 import { sql } from 'kysely';
 import { createDb } from '@/db/connect';
 import type { PartCategory, Role } from '@/db/types';
-import { newCode } from '@/labels/code';
+import { encodeCode } from '@/labels/code';
+import { LARGE_CODE_BASE } from './large-shape';
 import { hashPassword } from '@/lib/auth/password';
 import { seededRandom } from '@/lib/seeded-random';
 
@@ -39,7 +40,8 @@ const pick = <T>(xs: readonly T[]): T => xs[Math.floor(rand() * xs.length)];
 const used = new Set<string>();
 function code(): string {
   for (;;) {
-    const c = newCode();
+    // Below the large shape's block (bench/large-shape.ts), so `--large` can add it beside this shelf.
+    const c = encodeCode(Math.floor(rand() * LARGE_CODE_BASE));
     if (!used.has(c)) return used.add(c), c;
   }
 }

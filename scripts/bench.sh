@@ -6,6 +6,10 @@
 # case beside its baselines, runs bench/suggest.ts and bench/labels.ts, prints the figures and writes them
 # to bench/out/latest.md. About 5–8 minutes on 2 cores (most of it the build, when one is needed).
 #
+# `npm run bench -- --large` (or OHM_BENCH_LARGE=1) measures the target table once on the bench shelf, then
+# adds the large shape beside it (bench/large.ts: 50 spaces × 10,000 parts, 1,000,000 past loans) and
+# measures again, printing each ratio beside its one-space value (target: within 10 %).
+#
 # The cluster runs without fsync, as the test cluster does (throwaway data); OHM_BENCH_DURABLE=1 runs it
 # with PostgreSQL's durable defaults instead, as `npm start` does.
 source "$(dirname "$0")/lib.sh"
@@ -50,10 +54,18 @@ RAW_PID=$!
 wait_http "$APP_BASE_URL/signin" 120 || { tail -50 "$RUN/app.log"; exit 1; }
 wait_http "http://127.0.0.1:$RAW_PORT/health" 60 || { cat "$RUN/raw-floor.log"; exit 1; }
 
-log "measuring (about 4 minutes)"
+large="${OHM_BENCH_LARGE:-0}"
+for a in "$@"; do [ "$a" = --large ] && large=1; done
+log "measuring (about 6 minutes)"
 status=0
-BENCH_APP_URL="$APP_BASE_URL" BENCH_RAW_URL="http://127.0.0.1:$RAW_PORT" BENCH_FIXTURE="$RUN/fixture.json" BENCH_DIST_DIR=.next-bench \
-  node node_modules/tsx/dist/cli.mjs bench/run.ts || status=1
+export BENCH_APP_URL="$APP_BASE_URL" BENCH_RAW_URL="http://127.0.0.1:$RAW_PORT" BENCH_FIXTURE="$RUN/fixture.json" BENCH_DIST_DIR=.next-bench
+BENCH_RATIOS_OUT="$RUN/ratios.json" node node_modules/tsx/dist/cli.mjs bench/run.ts || status=1
+if [ "$large" = 1 ] && [ "$status" = 0 ]; then
+  log "the large shape beside the bench shelf"
+  node node_modules/tsx/dist/cli.mjs bench/large.ts || exit 1
+  log "measuring again at the large shape"
+  BENCH_COMPARE="$RUN/ratios.json" node node_modules/tsx/dist/cli.mjs bench/run.ts || status=1
+fi
 if grep -qi 'error' "$RUN/app.log"; then
   log "the app logged errors during the run (tail of its log):"; tail -20 "$RUN/app.log" >&2
 fi

@@ -9,17 +9,19 @@ export type AuditEntry = {
   detail?: Record<string, unknown>;
 };
 
+/** The audit_log row of an entry, for a service that writes it in one statement with its change. */
+export function auditRow(e: AuditEntry) {
+  return {
+    space_id: e.spaceId,
+    actor_id: e.actorId,
+    action: e.action,
+    target_type: e.targetType ?? null,
+    target_id: e.targetId ?? null,
+    detail: JSON.stringify(e.detail ?? {}),
+  };
+}
+
 /** Written inside the caller's transaction so the audit row and the change commit together. */
 export async function audit(db: Db, e: AuditEntry): Promise<void> {
-  await db
-    .insertInto('audit_log')
-    .values({
-      space_id: e.spaceId,
-      actor_id: e.actorId,
-      action: e.action,
-      target_type: e.targetType ?? null,
-      target_id: e.targetId ?? null,
-      detail: JSON.stringify(e.detail ?? {}),
-    })
-    .execute();
+  await db.insertInto('audit_log').values(auditRow(e)).execute();
 }

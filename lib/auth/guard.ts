@@ -2,13 +2,13 @@ import 'server-only';
 import { cache } from 'react';
 import { cookies, headers } from 'next/headers';
 import { redirect } from 'next/navigation';
-import { decode } from 'next-auth/jwt';
 import { sql } from 'kysely';
 import { db } from '@/db';
 import type { Role } from '@/db/types';
 import { ForbiddenError, UnauthenticatedError } from '@/lib/errors';
 import { env } from '@/lib/env';
 import type { Ctx } from './roles';
+import { decodeSessionToken } from './session-token';
 import { isSessionId } from './sessions';
 
 export const SPACE_COOKIE = 'ohm_space';
@@ -18,7 +18,8 @@ const SESSION_COOKIES = ['__Secure-next-auth.session-token', 'next-auth.session-
 
 /**
  * The user and session ids in the session cookie. Decoding the signed, encrypted JWT directly costs a
- * fraction of getServerSession, which runs next-auth's whole session endpoint and re-issues the cookie.
+ * fraction of getServerSession, which runs next-auth's whole session endpoint and re-issues the cookie;
+ * the decryption key is derived once per process (lib/auth/session-token.ts).
  */
 async function sessionClaims(): Promise<{ uid: string; sid: string } | null> {
   const jar = await cookies();
@@ -26,7 +27,7 @@ async function sessionClaims(): Promise<{ uid: string; sid: string } | null> {
     const token = jar.get(name)?.value;
     if (!token) continue;
     try {
-      const jwt = await decode({ token, secret: env().NEXTAUTH_SECRET });
+      const jwt = await decodeSessionToken(token, env().NEXTAUTH_SECRET);
       // A cookie from before server-side sessions (no sid) is nobody: its holder signs in again.
       if (typeof jwt?.uid === 'string' && isSessionId(jwt.sid)) return { uid: jwt.uid, sid: jwt.sid };
     } catch {

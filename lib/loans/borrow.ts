@@ -1,7 +1,7 @@
 import 'server-only';
 import { sql } from 'kysely';
 import type { Db } from '@/db/connect';
-import { audit } from '@/lib/audit/log';
+import { audit, auditRow } from '@/lib/audit/log';
 import { isStaff, type Ctx } from '@/lib/auth/roles';
 import { now } from '@/lib/clock';
 import { ConflictError, ForbiddenError, NotFoundError } from '@/lib/errors';
@@ -12,7 +12,7 @@ import { limitReached, openLoanCount } from './lock';
 import { gateFor } from './preview';
 import type { BorrowInput } from './schemas';
 import { boxLines, chainRoleOf, loadBox, looseLines, type SelectionLine } from './selection';
-import { loanSettings } from './settings';
+import { LOAN_SETTING_COLUMNS, toLoanSettings } from './settings';
 
 // Borrowing, in one transaction: lock what is taken, check the exact parts again on the server, apply
 // the gate (fail → steward override with a reason; caution → the borrower's acknowledgement), the
@@ -40,19 +40,21 @@ export async function borrow(db: Db, ctx: Ctx, input: BorrowInput): Promise<Borr
     throw new ForbiddenError("Only a steward can lend on someone else's behalf.");
   if (input.override && !staff)
     throw new ForbiddenError('Only a steward or an admin can override the check.');
-  const settings = await loanSettings(db, ctx.spaceId);
   const sel = input.selection;
 
   return db.transaction().execute(async (trx) => {
-    // One person's borrows queue behind each other, so two at once cannot both slip under the limit.
+    // One person's borrows queue behind each other, so two at once cannot both slip under the limit
+    // (the lock is on the membership row only). The space's lending rules come in the same round trip.
     const member = await trx
       .selectFrom('memberships')
-      .select('user_id')
-      .where('space_id', '=', ctx.spaceId)
-      .where('user_id', '=', borrowerId)
-      .forUpdate()
+      .innerJoin('spaces', 'spaces.id', 'memberships.space_id')
+      .select(['memberships.user_id', ...LOAN_SETTING_COLUMNS])
+      .where('memberships.space_id', '=', ctx.spaceId)
+      .where('memberships.user_id', '=', borrowerId)
+      .forUpdate('memberships')
       .executeTakeFirst();
     if (!member) throw new NotFoundError('That person is not a member of this space.');
+    const settings = toLoanSettings(member);
 
     // Take the items first: a guarded update (box) or row locks in id order (units), so that of many
     // borrows of the same thing exactly one gets it and the rest see it gone.
@@ -181,40 +183,68 @@ export async function borrow(db: Db, ctx: Ctx, input: BorrowInput): Promise<Borr
         });
     }
 
-    await trx
-      .insertInto('loan_lines')
-      .values(
-        lines.map((l) => ({
-          loan_id: loan.id,
-          space_id: ctx.spaceId,
-          part_id: l.partId,
-          unit_id: l.unitId,
-          location_id: l.locationId,
-          qty: l.qty,
-          chain_role: chainRoleOf(l),
-        })),
-      )
-      .execute();
+    // The lines, their stock movements and the audit row: one statement (data-modifying CTEs).
     const moves = lines.filter((l) => l.unitId || l.locationId);
-    if (moves.length)
-      await trx
-        .insertInto('stock_movements')
+    const detail = {
+      borrowerId,
+      onBehalf: borrowerId !== ctx.userId,
+      kitBoxId: boxId,
+      items: lines.map((l) => ({ part: l.name, qty: l.qty, unit: l.unitCode })),
+      verdict: outcome.verdict,
+      cautionAcknowledged: gate === 'acknowledge',
+      dueAt: dueAt.toISOString(),
+    };
+    const withLines = trx.with('written_lines', (q) =>
+      q
+        .insertInto('loan_lines')
         .values(
-          moves.map((l) => ({
+          lines.map((l) => ({
+            loan_id: loan.id,
             space_id: ctx.spaceId,
             part_id: l.partId,
-            location_id: l.locationId,
             unit_id: l.unitId,
-            // Units are not counted stock: their movement records the event, quantity 0.
-            qty_delta: l.unitId ? 0 : -l.qty,
-            reason: 'loan_out' as const,
-            ref_type: 'loan',
-            ref_id: loan.id,
-            actor_id: ctx.userId,
-            created_at: at,
+            location_id: l.locationId,
+            qty: l.qty,
+            chain_role: chainRoleOf(l),
           })),
         )
-        .execute();
+        .returning('loan_lines.id'),
+    );
+    const withMoves = moves.length
+      ? (withLines.with('written_moves', (q) =>
+          q
+            .insertInto('stock_movements')
+            .values(
+              moves.map((l) => ({
+                space_id: ctx.spaceId,
+                part_id: l.partId,
+                location_id: l.locationId,
+                unit_id: l.unitId,
+                // Units are not counted stock: their movement records the event, quantity 0.
+                qty_delta: l.unitId ? 0 : -l.qty,
+                reason: 'loan_out' as const,
+                ref_type: 'loan',
+                ref_id: loan.id,
+                actor_id: ctx.userId,
+                created_at: at,
+              })),
+            )
+            .returning('stock_movements.id'),
+        ) as unknown as typeof withLines)
+      : withLines;
+    await withMoves
+      .insertInto('audit_log')
+      .values(
+        auditRow({
+          spaceId: ctx.spaceId,
+          actorId: ctx.userId,
+          action: 'loan.created',
+          targetType: 'loan',
+          targetId: loan.id,
+          detail,
+        }),
+      )
+      .execute();
 
     // The borrower's own hold on what they now take is done.
     const unitIds = lines.flatMap((l) => (l.unitId ? [l.unitId] : []));
@@ -233,23 +263,6 @@ export async function borrow(db: Db, ctx: Ctx, input: BorrowInput): Promise<Borr
         )
         .execute();
 
-    const detail = {
-      borrowerId,
-      onBehalf: borrowerId !== ctx.userId,
-      kitBoxId: boxId,
-      items: lines.map((l) => ({ part: l.name, qty: l.qty, unit: l.unitCode })),
-      verdict: outcome.verdict,
-      cautionAcknowledged: gate === 'acknowledge',
-      dueAt: dueAt.toISOString(),
-    };
-    await audit(trx, {
-      spaceId: ctx.spaceId,
-      actorId: ctx.userId,
-      action: 'loan.created',
-      targetType: 'loan',
-      targetId: loan.id,
-      detail,
-    });
     if (overridden)
       await audit(trx, {
         spaceId: ctx.spaceId,

@@ -24,23 +24,32 @@ export type LoanSettings = DueRule & {
   ambientC: number;
 };
 
-export async function loanSettings(db: Db, spaceId: string): Promise<LoanSettings> {
-  const s = await db
-    .selectFrom('spaces')
-    .select([
-      'name',
-      'loan_days',
-      'closing_time',
-      'time_zone',
-      'max_open_loans',
-      'reminder_days_before',
-      'reminder_every_days',
-      'ambient_c',
-      'settings',
-    ])
-    .where('id', '=', spaceId)
-    .executeTakeFirst();
-  if (!s) throw new NotFoundError('No such space.');
+/** The columns of `spaces` the lending rules come from (a caller may read them with other rows). */
+export const LOAN_SETTING_COLUMNS = [
+  'spaces.name',
+  'spaces.loan_days',
+  'spaces.closing_time',
+  'spaces.time_zone',
+  'spaces.max_open_loans',
+  'spaces.reminder_days_before',
+  'spaces.reminder_every_days',
+  'spaces.ambient_c',
+  'spaces.settings',
+] as const;
+
+type SettingsRow = {
+  name: string;
+  loan_days: number;
+  closing_time: string;
+  time_zone: string;
+  max_open_loans: number;
+  reminder_days_before: number;
+  reminder_every_days: number;
+  ambient_c: number;
+  settings: unknown;
+};
+
+export function toLoanSettings(s: SettingsRow): LoanSettings {
   const loans = (s.settings as Record<string, unknown> | null)?.loans;
   const extra = extraSchema.parse(typeof loans === 'object' && loans !== null ? loans : {});
   return {
@@ -54,4 +63,10 @@ export async function loanSettings(db: Db, spaceId: string): Promise<LoanSetting
     ambientC: s.ambient_c,
     ...extra,
   };
+}
+
+export async function loanSettings(db: Db, spaceId: string): Promise<LoanSettings> {
+  const s = await db.selectFrom('spaces').select(LOAN_SETTING_COLUMNS).where('id', '=', spaceId).executeTakeFirst();
+  if (!s) throw new NotFoundError('No such space.');
+  return toLoanSettings(s);
 }

@@ -65,22 +65,19 @@ export type BorrowInput = { spaceId: string; borrowerId: string; partId: string;
 
 class Conflict extends Error {}
 
-/** The borrow of one counted item: settings, then one transaction of lock, check, write and audit. */
+/**
+ * The borrow of one counted item, as lib/loans/borrow.ts runs it: one transaction of lock (with the
+ * space's lending rules), part, open-loan count, loan, guarded stock update, and one statement for the
+ * line, the stock movement and the audit row.
+ */
 export async function borrowCounted(
   pool: Pool,
   b: BorrowInput,
 ): Promise<{ id: string } | { conflict: string }> {
-  const settings = (
-    await pool.query<{ loan_days: number; max_open_loans: number }>(
-      `select name, loan_days, closing_time, time_zone, max_open_loans, reminder_days_before, reminder_every_days, settings
-       from spaces where id = $1`,
-      [b.spaceId],
-    )
-  ).rows[0];
   const client = await pool.connect();
   try {
     await client.query('begin');
-    const result = await borrowInTransaction(client, b, settings);
+    const result = await borrowInTransaction(client, b);
     await client.query('commit');
     return result;
   } catch (err) {
@@ -92,15 +89,16 @@ export async function borrowCounted(
   }
 }
 
-async function borrowInTransaction(
-  client: PoolClient,
-  b: BorrowInput,
-  settings: { loan_days: number; max_open_loans: number },
-): Promise<{ id: string }> {
-  await client.query('select user_id from memberships where space_id = $1 and user_id = $2 for update', [
-    b.spaceId,
-    b.borrowerId,
-  ]);
+async function borrowInTransaction(client: PoolClient, b: BorrowInput): Promise<{ id: string }> {
+  const settings = (
+    await client.query<{ loan_days: number; max_open_loans: number }>(
+      `select m.user_id, s.name, s.loan_days, s.closing_time, s.time_zone, s.max_open_loans, s.reminder_days_before,
+              s.reminder_every_days, s.ambient_c, s.settings
+         from memberships m inner join spaces s on s.id = m.space_id
+        where m.space_id = $1 and m.user_id = $2 for update of m`,
+      [b.spaceId, b.borrowerId],
+    )
+  ).rows[0];
   const part = (
     await client.query<{ name: string }>(
       `select parts.id, parts.name, parts.sku, parts.category, parts.specs, parts.lendable, parts.tracking, locations.name as location_name
@@ -131,29 +129,21 @@ async function borrowInTransaction(
   );
   if (!left.rowCount) throw new Conflict('bin empty');
   await client.query(
-    `insert into loan_lines (loan_id, space_id, part_id, unit_id, location_id, qty, chain_role) values ($1, $2, $3, null, $4, 1, null)`,
-    [loan.id, b.spaceId, b.partId, b.locationId],
-  );
-  await client.query(
-    `insert into stock_movements (space_id, part_id, location_id, unit_id, qty_delta, reason, ref_type, ref_id, actor_id, created_at)
-     values ($1, $2, $3, null, -1, 'loan_out', 'loan', $4, $5, $6)`,
-    [b.spaceId, b.partId, b.locationId, loan.id, b.borrowerId, at],
-  );
-  await client.query(
-    `update holds set status = 'fulfilled' where user_id = $1 and space_id = $2 and status in ('waiting', 'ready') and false`,
-    [b.borrowerId, b.spaceId],
-  );
-  await client.query(
-    `insert into audit_log (space_id, actor_id, action, target_type, target_id, detail) values ($1, $2, 'loan.created', 'loan', $3, $4)`,
+    `with written_lines as (
+       insert into loan_lines (loan_id, space_id, part_id, unit_id, location_id, qty, chain_role)
+       values ($1, $2, $3, null, $4, 1, null) returning id),
+     written_moves as (
+       insert into stock_movements (space_id, part_id, location_id, unit_id, qty_delta, reason, ref_type, ref_id, actor_id, created_at)
+       values ($2, $3, $4, null, -1, 'loan_out', 'loan', $1, $5, $6) returning id)
+     insert into audit_log (space_id, actor_id, action, target_type, target_id, detail) values ($2, $5, 'loan.created', 'loan', $1, $7)`,
     [
-      b.spaceId,
-      b.borrowerId,
       loan.id,
-      JSON.stringify({
-        borrowerId: b.borrowerId,
-        items: [{ part: part?.name, qty: 1 }],
-        dueAt: due.toISOString(),
-      }),
+      b.spaceId,
+      b.partId,
+      b.locationId,
+      b.borrowerId,
+      at,
+      JSON.stringify({ borrowerId: b.borrowerId, items: [{ part: part?.name, qty: 1 }], dueAt: due.toISOString() }),
     ],
   );
   return { id: loan.id };
