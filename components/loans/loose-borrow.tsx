@@ -11,6 +11,7 @@ import { callApi } from './api';
 import { BorrowPanel } from './borrow-panel';
 import { ErrorNote } from './error-note';
 import { OwnLeds, type OwnLedsValue } from './own-leds';
+import { displayCode } from '@/labels/code';
 
 type Counted = { partId: string; locationId: string; qty: number };
 type PreviewJson = Omit<Preview, 'dueAt'> & { dueAt: string };
@@ -103,7 +104,7 @@ export function LooseBorrow({
               <Picked
                 key={id}
                 label={u.name}
-                detail={u.code}
+                detail={displayCode(u.code)}
                 onRemove={() => {
                   setUnitIds(unitIds.filter((x) => x !== id));
                   reset();

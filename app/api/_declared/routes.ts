@@ -57,6 +57,9 @@ import * as stockMove from '../stock/move/route';
 import * as stockReceive from '../stock/receive/route';
 import * as stockRepairs from '../stock/repairs/route';
 import * as stockUnitsId from '../stock/units/[id]/route';
+// Steward: box upkeep (issue 12)
+import * as kitsBoxesIdContents from '../kits/boxes/[id]/contents/route';
+import * as kitsBoxesIdTakeApart from '../kits/boxes/[id]/take-apart/route';
 
 // Every route file of the production build, by its path in the API document. A test compares this list
 // with app/api on disk (and the test, bench and dev doors, which are not in the production build, are
@@ -120,4 +123,7 @@ export const ROUTES: RouteModules = {
   '/api/stock/receive': stockReceive,
   '/api/stock/repairs': stockRepairs,
   '/api/stock/units/{id}': stockUnitsId,
+  // Steward: box upkeep (issue 12)
+  '/api/kits/boxes/{id}/contents': kitsBoxesIdContents,
+  '/api/kits/boxes/{id}/take-apart': kitsBoxesIdTakeApart,
 };
