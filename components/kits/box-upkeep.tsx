@@ -7,7 +7,10 @@ import { callApi } from '@/components/loans/api';
 import { ErrorNote } from '@/components/loans/error-note';
 
 type Content = { partId: string; name: string; qty: number; unitId: string | null; unitCode: string | null };
-type Choices = { bins: { id: string; name: string }[]; spares: Record<string, { id: string; code: string }[]> };
+type Choices = {
+  bins: { id: string; name: string }[];
+  spares: Record<string, { id: string; code: string }[]>;
+};
 type Destination = 'shelf' | 'repair' | 'retired';
 
 const shown = (code: string) => {
@@ -20,7 +23,15 @@ const shown = (code: string) => {
 
 // Looking after a box at the bench: take a unit or some of a counted part out, swap a unit for a spare
 // of the same part, or take the whole box apart. Each is one call; the page refreshes with the result.
-export function BoxUpkeep({ boxId, contents, choices }: { boxId: string; contents: Content[]; choices: Choices }) {
+export function BoxUpkeep({
+  boxId,
+  contents,
+  choices,
+}: {
+  boxId: string;
+  contents: Content[];
+  choices: Choices;
+}) {
   const router = useRouter();
   const ids = useId();
   const [bin, setBin] = useState('');
@@ -62,7 +73,13 @@ export function BoxUpkeep({ boxId, contents, choices }: { boxId: string; content
             <label className="label" htmlFor={`${ids}-why`}>
               Why (kept in the history)
             </label>
-            <input id={`${ids}-why`} className="field" value={reason} maxLength={500} onChange={(e) => setReason(e.target.value)} />
+            <input
+              id={`${ids}-why`}
+              className="field"
+              value={reason}
+              maxLength={500}
+              onChange={(e) => setReason(e.target.value)}
+            />
           </div>
         </div>
         <ul className="divide-y divide-stone-200 dark:divide-stone-800">
@@ -81,8 +98,15 @@ export function BoxUpkeep({ boxId, contents, choices }: { boxId: string; content
           className="btn-danger"
           disabled={m.isPending}
           onClick={() => {
-            if (!window.confirm('Take the box apart? Everything goes back on the shelf and the box is retired.')) return;
-            m.mutate({ url: `/api/kits/boxes/${boxId}/take-apart`, body: {}, say: 'The box is taken apart.' });
+            if (
+              !window.confirm('Take the box apart? Everything goes back on the shelf and the box is retired.')
+            )
+              return;
+            m.mutate({
+              url: `/api/kits/boxes/${boxId}/take-apart`,
+              body: {},
+              say: 'The box is taken apart.',
+            });
           }}
         >
           Take the box apart
@@ -125,7 +149,12 @@ function ContentRow({
           <label className="label" htmlFor={`${ids}-to`}>
             Where it goes
           </label>
-          <select id={`${ids}-to`} className="field" value={to} onChange={(e) => setTo(e.target.value as Destination)}>
+          <select
+            id={`${ids}-to`}
+            className="field"
+            value={to}
+            onChange={(e) => setTo(e.target.value as Destination)}
+          >
             <option value="shelf">Back on the shelf</option>
             <option value="repair">{c.unitId ? 'To repair' : 'Damaged (write off)'}</option>
             <option value="retired">{c.unitId ? 'Retired' : 'Lost (write off)'}</option>
@@ -136,7 +165,12 @@ function ContentRow({
             <label className="label" htmlFor={`${ids}-spare`}>
               Swap in
             </label>
-            <select id={`${ids}-spare`} className="field" value={spare} onChange={(e) => setSpare(e.target.value)}>
+            <select
+              id={`${ids}-spare`}
+              className="field"
+              value={spare}
+              onChange={(e) => setSpare(e.target.value)}
+            >
               <option value="">Nothing (just take it out)</option>
               {spares.map((s) => (
                 <option key={s.id} value={s.id}>

@@ -43,7 +43,9 @@ export function pickBin<T extends Bin>(bins: T[], typed: string): { bin: T | nul
   const found = findBins(bins, typed);
   if (found.length === 1) return { bin: found[0], candidates: found };
   const wanted = words(typed);
-  const whole = found.filter((b) => wanted.every((w) => words(b.name).includes(w) || b.code?.toLowerCase() === w));
+  const whole = found.filter((b) =>
+    wanted.every((w) => words(b.name).includes(w) || b.code?.toLowerCase() === w),
+  );
   if (whole.length === 1) return { bin: whole[0], candidates: found };
   const exactName = found.filter((b) => words(b.name).join(' ') === wanted.join(' '));
   return { bin: exactName.length === 1 ? exactName[0] : null, candidates: found };

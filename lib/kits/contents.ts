@@ -29,7 +29,11 @@ export async function unitOut(
   opts: { locationId?: string | null; reason?: string; at: Date },
 ): Promise<void> {
   const locationId = opts.locationId ?? box.locationId;
-  await trx.deleteFrom('kit_box_contents').where('kit_box_id', '=', box.id).where('unit_id', '=', unit.id).execute();
+  await trx
+    .deleteFrom('kit_box_contents')
+    .where('kit_box_id', '=', box.id)
+    .where('unit_id', '=', unit.id)
+    .execute();
   await trx
     .updateTable('units')
     .set({
@@ -63,7 +67,13 @@ export async function unitOut(
 }
 
 /** The bin a counted part goes back to: the one given, else the bin holding most of it, else the box's own place. */
-async function binFor(trx: Db, ctx: Ctx, box: BoxRef, partId: string, given?: string | null): Promise<string | null> {
+async function binFor(
+  trx: Db,
+  ctx: Ctx,
+  box: BoxRef,
+  partId: string,
+  given?: string | null,
+): Promise<string | null> {
   if (given) {
     const loc = await trx
       .selectFrom('locations')
@@ -108,7 +118,11 @@ export async function countedOut(
       qty: [`at most ${content?.qty ?? 0}`],
     });
   if (content.qty > qty)
-    await trx.updateTable('kit_box_contents').set({ qty: content.qty - qty }).where('id', '=', content.id).execute();
+    await trx
+      .updateTable('kit_box_contents')
+      .set({ qty: content.qty - qty })
+      .where('id', '=', content.id)
+      .execute();
   else await trx.deleteFrom('kit_box_contents').where('id', '=', content.id).execute();
 
   const note = [`out of ${box.name}, ${DESTINATION_WORDS[to]}`, opts.reason].filter(Boolean).join(': ');
@@ -126,7 +140,12 @@ export async function countedOut(
     // Written off: no bin's stock changes (location null), as with a short return.
     await trx
       .insertInto('stock_movements')
-      .values({ ...movement, location_id: null, qty_delta: -qty, reason: to === 'repair' ? 'damaged' : 'lost' })
+      .values({
+        ...movement,
+        location_id: null,
+        qty_delta: -qty,
+        reason: to === 'repair' ? 'damaged' : 'lost',
+      })
       .execute();
     return;
   }
@@ -139,7 +158,9 @@ export async function countedOut(
     .insertInto('stock')
     .values({ space_id: ctx.spaceId, part_id: part.id, location_id: bin, qty, updated_at: opts.at })
     .onConflict((oc) =>
-      oc.columns(['part_id', 'location_id']).doUpdateSet((eb) => ({ qty: eb('stock.qty', '+', qty), updated_at: opts.at })),
+      oc
+        .columns(['part_id', 'location_id'])
+        .doUpdateSet((eb) => ({ qty: eb('stock.qty', '+', qty), updated_at: opts.at })),
     )
     .execute();
   await trx
@@ -173,7 +194,14 @@ export async function removeSurplus(
     .selectFrom('kit_box_contents as c')
     .innerJoin('parts', 'parts.id', 'c.part_id')
     .leftJoin('units', 'units.id', 'c.unit_id')
-    .select(['c.part_id as partId', 'c.unit_id as unitId', 'c.qty', 'c.chain_role as chainRole', 'parts.name', 'units.code'])
+    .select([
+      'c.part_id as partId',
+      'c.unit_id as unitId',
+      'c.qty',
+      'c.chain_role as chainRole',
+      'parts.name',
+      'units.code',
+    ])
     .where('c.kit_box_id', '=', box.id)
     .orderBy('units.code')
     .execute();
@@ -187,12 +215,20 @@ export async function removeSurplus(
     for (const r of [...rows].reverse()) {
       if (surplus <= 0) break;
       if (r.unitId) {
-        await unitOut(trx, ctx, box, { id: r.unitId, partId, code: r.code ?? '' }, 'shelf', { at, locationId, reason: 'no longer on the kit list' });
+        await unitOut(trx, ctx, box, { id: r.unitId, partId, code: r.code ?? '' }, 'shelf', {
+          at,
+          locationId,
+          reason: 'no longer on the kit list',
+        });
         removed.push(`${r.name} (${r.code})`);
         surplus -= 1;
       } else {
         const n = Math.min(surplus, r.qty);
-        await countedOut(trx, ctx, box, { id: partId, name: r.name }, n, 'shelf', { at, locationId, reason: 'no longer on the kit list' });
+        await countedOut(trx, ctx, box, { id: partId, name: r.name }, n, 'shelf', {
+          at,
+          locationId,
+          reason: 'no longer on the kit list',
+        });
         removed.push(`${n} × ${r.name}`);
         surplus -= n;
       }

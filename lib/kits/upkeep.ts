@@ -27,8 +27,12 @@ async function lockBox(trx: Db, ctx: Ctx, boxId: string): Promise<LockedBox> {
     .forUpdate()
     .executeTakeFirst();
   if (!box) throw new NotFoundError('No such kit box.');
-  if (box.state === 'out') throw new ConflictError('The box is out on loan; change it when it is back.', { kitBoxId: ['out on loan'] });
-  if (box.state === 'retired') throw new ConflictError('The box is taken apart already.', { kitBoxId: ['retired'] });
+  if (box.state === 'out')
+    throw new ConflictError('The box is out on loan; change it when it is back.', {
+      kitBoxId: ['out on loan'],
+    });
+  if (box.state === 'retired')
+    throw new ConflictError('The box is taken apart already.', { kitBoxId: ['retired'] });
   return box;
 }
 
@@ -39,9 +43,18 @@ async function outOfServiceIfShort(trx: Db, box: LockedBox): Promise<boolean> {
   return true;
 }
 
-export type TakeOutResult = { removed: string; replacement: string | null; boxState: 'in_repair' | UnitState };
+export type TakeOutResult = {
+  removed: string;
+  replacement: string | null;
+  boxState: 'in_repair' | UnitState;
+};
 
-export async function takeOutOfBox(db: Db, ctx: Ctx, boxId: string, input: TakeOutInput): Promise<TakeOutResult> {
+export async function takeOutOfBox(
+  db: Db,
+  ctx: Ctx,
+  boxId: string,
+  input: TakeOutInput,
+): Promise<TakeOutResult> {
   return inTransaction(db, async (trx) => {
     const box = await lockBox(trx, ctx, boxId);
     const at = now();
@@ -52,7 +65,13 @@ export async function takeOutOfBox(db: Db, ctx: Ctx, boxId: string, input: TakeO
         .selectFrom('kit_box_contents as c')
         .innerJoin('units', 'units.id', 'c.unit_id')
         .innerJoin('parts', 'parts.id', 'units.part_id')
-        .select(['units.id', 'units.code', 'units.part_id as partId', 'parts.name', 'c.chain_role as chainRole'])
+        .select([
+          'units.id',
+          'units.code',
+          'units.part_id as partId',
+          'parts.name',
+          'c.chain_role as chainRole',
+        ])
         .where('c.kit_box_id', '=', box.id)
         .where('c.unit_id', '=', input.unitId)
         .executeTakeFirst();
@@ -65,12 +84,21 @@ export async function takeOutOfBox(db: Db, ctx: Ctx, boxId: string, input: TakeO
           .where('space_id', '=', ctx.spaceId)
           .forUpdate()
           .executeTakeFirst();
-        if (!next) throw new InvalidError('No such unit in this space.', { replacementUnitId: ['no such unit'] });
+        if (!next)
+          throw new InvalidError('No such unit in this space.', { replacementUnitId: ['no such unit'] });
         if (next.part_id !== unit.partId)
-          throw new InvalidError(`Swap in another ${unit.name}.`, { replacementUnitId: [`must be a ${unit.name}`] });
+          throw new InvalidError(`Swap in another ${unit.name}.`, {
+            replacementUnitId: [`must be a ${unit.name}`],
+          });
         if (next.state !== 'on_shelf' || next.kit_box_id)
-          throw new ConflictError(`Unit ${next.code} is not free on the shelf.`, { replacementUnitId: [`${next.code} is not free`] });
-        await unitOut(trx, ctx, box, unit, input.to, { at, locationId: input.locationId, reason: input.reason });
+          throw new ConflictError(`Unit ${next.code} is not free on the shelf.`, {
+            replacementUnitId: [`${next.code} is not free`],
+          });
+        await unitOut(trx, ctx, box, unit, input.to, {
+          at,
+          locationId: input.locationId,
+          reason: input.reason,
+        });
         await trx
           .updateTable('units')
           .set({ kit_box_id: box.id, location_id: null, updated_at: at })
@@ -78,7 +106,13 @@ export async function takeOutOfBox(db: Db, ctx: Ctx, boxId: string, input: TakeO
           .execute();
         await trx
           .insertInto('kit_box_contents')
-          .values({ kit_box_id: box.id, part_id: next.part_id, unit_id: next.id, qty: 1, chain_role: unit.chainRole })
+          .values({
+            kit_box_id: box.id,
+            part_id: next.part_id,
+            unit_id: next.id,
+            qty: 1,
+            chain_role: unit.chainRole,
+          })
           .execute();
         await trx
           .insertInto('stock_movements')
@@ -96,7 +130,12 @@ export async function takeOutOfBox(db: Db, ctx: Ctx, boxId: string, input: TakeO
           })
           .execute();
         replacement = `${unit.name} (${next.code})`;
-      } else await unitOut(trx, ctx, box, unit, input.to, { at, locationId: input.locationId, reason: input.reason });
+      } else
+        await unitOut(trx, ctx, box, unit, input.to, {
+          at,
+          locationId: input.locationId,
+          reason: input.reason,
+        });
       removed = `${unit.name} (${unit.code})`;
     } else {
       const part = await trx
@@ -106,7 +145,11 @@ export async function takeOutOfBox(db: Db, ctx: Ctx, boxId: string, input: TakeO
         .where('space_id', '=', ctx.spaceId)
         .executeTakeFirst();
       if (!part) throw new InvalidError('No such part in this space.', { partId: ['no such part'] });
-      await countedOut(trx, ctx, box, part, input.qty, input.to, { at, locationId: input.locationId, reason: input.reason });
+      await countedOut(trx, ctx, box, part, input.qty, input.to, {
+        at,
+        locationId: input.locationId,
+        reason: input.reason,
+      });
       removed = `${input.qty} × ${part.name}`;
     }
     const short = await outOfServiceIfShort(trx, box);
@@ -129,7 +172,12 @@ export async function takeOutOfBox(db: Db, ctx: Ctx, boxId: string, input: TakeO
 }
 
 /** Everything back on the shelf (units to their place, counted parts into a bin); the box is retired and its holds end. */
-export async function takeBoxApart(db: Db, ctx: Ctx, boxId: string, input: TakeApartInput): Promise<{ returned: string[] }> {
+export async function takeBoxApart(
+  db: Db,
+  ctx: Ctx,
+  boxId: string,
+  input: TakeApartInput,
+): Promise<{ returned: string[] }> {
   return inTransaction(db, async (trx) => {
     const box = await lockBox(trx, ctx, boxId);
     const at = now();
@@ -204,7 +252,12 @@ export async function boxesOutOfService(db: Db, ctx: Pick<Ctx, 'spaceId'>): Prom
         ? await db
             .selectFrom('loan_lines')
             .innerJoin('parts', 'parts.id', 'loan_lines.part_id')
-            .select(['parts.name as part', 'loan_lines.qty', 'loan_lines.returned_qty', 'loan_lines.return_condition'])
+            .select([
+              'parts.name as part',
+              'loan_lines.qty',
+              'loan_lines.returned_qty',
+              'loan_lines.return_condition',
+            ])
             .where('loan_lines.loan_id', '=', loan.id)
             .where('loan_lines.return_condition', 'in', ['missing', 'damaged'])
             .orderBy('parts.name')
@@ -219,7 +272,11 @@ export async function boxesOutOfService(db: Db, ctx: Pick<Ctx, 'spaceId'>): Prom
           ? {
               at: loan.returned_at ?? new Date(0),
               note: loan.return_note,
-              lines: lines.map((l) => ({ part: l.part, qty: l.qty - l.returned_qty, condition: l.return_condition ?? '' })),
+              lines: lines.map((l) => ({
+                part: l.part,
+                qty: l.qty - l.returned_qty,
+                condition: l.return_condition ?? '',
+              })),
             }
           : null,
       };
@@ -248,7 +305,11 @@ export async function upkeepChoices(db: Db, ctx: Ctx, boxId: string): Promise<Up
     .where('units.state', '=', 'on_shelf')
     .where('units.kit_box_id', 'is', null)
     .where('units.part_id', 'in', (eb) =>
-      eb.selectFrom('kit_box_contents').select('part_id').where('kit_box_id', '=', boxId).where('unit_id', 'is not', null),
+      eb
+        .selectFrom('kit_box_contents')
+        .select('part_id')
+        .where('kit_box_id', '=', boxId)
+        .where('unit_id', 'is not', null),
     )
     .orderBy('units.code')
     .execute();

@@ -43,7 +43,9 @@ export function auditLine(row: Row, timeZone: string): string {
     case 'loan.override':
       return join(`${thing}${person ? ` for${person}` : ''}`, `“${text(d.reason)}”`);
     case 'loan.returned': {
-      const lines = Array.isArray(d.lines) ? (d.lines as { part?: string; qty?: number; returned?: number; condition?: string }[]) : [];
+      const lines = Array.isArray(d.lines)
+        ? (d.lines as { part?: string; qty?: number; returned?: number; condition?: string }[])
+        : [];
       const short = lines
         .filter((l) => l.condition && l.condition !== 'ok')
         .map((l) => `${(l.qty ?? 0) - (l.returned ?? 0)} × ${l.part ?? 'part'} ${l.condition}`);
@@ -73,7 +75,11 @@ export function auditLine(row: Row, timeZone: string): string {
     case 'kit_box.refilled': {
       const added = Array.isArray(d.added) ? (d.added as string[]) : [];
       const removed = Array.isArray(d.removed) ? (d.removed as string[]) : [];
-      return join(thing, added.length ? `added ${added.join(', ')}` : '', removed.length ? `took out ${removed.join(', ')}` : '');
+      return join(
+        thing,
+        added.length ? `added ${added.join(', ')}` : '',
+        removed.length ? `took out ${removed.join(', ')}` : '',
+      );
     }
     case 'kit_box.taken_out':
     case 'kit_box.unit_swapped':
@@ -85,7 +91,11 @@ export function auditLine(row: Row, timeZone: string): string {
       );
     case 'kit_box.taken_apart': {
       const back = Array.isArray(d.returned) ? (d.returned as string[]) : [];
-      return join(thing, back.length ? `back on the shelf: ${back.join(', ')}` : '', text(d.reason) && `“${text(d.reason)}”`);
+      return join(
+        thing,
+        back.length ? `back on the shelf: ${back.join(', ')}` : '',
+        text(d.reason) && `“${text(d.reason)}”`,
+      );
     }
     default:
       return thing;

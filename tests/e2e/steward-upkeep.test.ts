@@ -131,6 +131,37 @@ describe('counting a bin', () => {
   });
 });
 
+describe('receiving labelled units', () => {
+  test('the new codes are listed and exactly their labels print in one step', async () => {
+    await page.goto(`/shelf/receive?part=${driver.id}`);
+    await page.getByLabel('New units to label').fill('2');
+    await page.getByRole('button', { name: 'Receive', exact: true }).click();
+    const list = page.getByRole('list', { name: 'New unit codes' });
+    await list.waitFor();
+    const shown = (await list.getByRole('listitem').allInnerTexts()).map((t) => t.trim());
+    expect(shown).toHaveLength(2);
+    for (const code of shown) expect(code).toMatch(/^[0-9A-Z]{4}-[0-9A-Z*~$=]{3}$/);
+    const newest = await db
+      .selectFrom('units')
+      .select('code')
+      .where('part_id', '=', driver.id)
+      .orderBy('created_at', 'desc')
+      .limit(2)
+      .execute();
+    expect(shown.map((c) => c.replace('-', '')).sort()).toEqual(newest.map((u) => u.code).sort());
+    const [res] = await Promise.all([
+      page.waitForResponse((r) => r.url().endsWith('/api/labels') && r.request().method() === 'POST'),
+      page.getByRole('button', { name: 'Print these 2 labels' }).click(),
+    ]);
+    expect(res.status()).toBe(200);
+    expect(res.headers()['x-label-count']).toBe('2');
+    const asked = JSON.parse(res.request().postData() ?? '{}') as { selection: { kind: string; codes: string[] } };
+    expect(asked.selection.kind).toBe('codes');
+    expect(asked.selection.codes.sort()).toEqual(newest.map((u) => u.code).sort());
+    await pageChecks(page);
+  });
+});
+
 describe('a short return and box upkeep', () => {
   let loanId: string;
   test('lending for a member: the button says whom it lends to', async () => {

@@ -97,7 +97,8 @@ async function lendAndReturnShort(boxId: string, note: string) {
 
 describe('short returns', () => {
   test('three boxes returned short are all out of service on Repairs and Today, with what is missing and the note', async () => {
-    for (const [i, b] of boxes.entries()) await lendAndReturnShort(b.id, `star ${i + 1} rolled under the bench`);
+    for (const [i, b] of boxes.entries())
+      await lendAndReturnShort(b.id, `star ${i + 1} rolled under the bench`);
     const repairs = await json<RepairsJson>(await steward.get('/api/stock/repairs'));
     expect(repairs.boxes.map((b) => b.name).sort()).toEqual(boxes.map((b) => b.name));
     for (const [i, b] of boxes.entries()) {
@@ -131,7 +132,9 @@ describe('box upkeep', () => {
   test('a unit taken out goes to repair; the box, now short, goes out of service; one audit row', async () => {
     const box = boxes[0];
     const driverRow = (await contentsOf(box.id)).find((c) => c.part_id === parts.driver.id)!;
-    expect((await member.post(`/api/kits/boxes/${box.id}/contents`, { unitId: driverRow.unit_id })).status).toBe(403);
+    expect(
+      (await member.post(`/api/kits/boxes/${box.id}/contents`, { unitId: driverRow.unit_id })).status,
+    ).toBe(403);
     const bad = await steward.post(`/api/kits/boxes/${box.id}/contents`, { to: 'shelf' });
     expect(bad.status).toBe(400);
     expect((await json<ErrorBody>(bad)).error.fields).toHaveProperty('unitId');
@@ -174,7 +177,10 @@ describe('box upkeep', () => {
       .where('part_id', '=', parts.led.id)
       .where('location_id', '=', ledBin)
       .executeTakeFirstOrThrow();
-    const tooMany = await steward.post(`/api/kits/boxes/${box.id}/contents`, { partId: parts.led.id, qty: 9 });
+    const tooMany = await steward.post(`/api/kits/boxes/${box.id}/contents`, {
+      partId: parts.led.id,
+      qty: 9,
+    });
     expect(tooMany.status).toBe(400);
     expect((await json<ErrorBody>(tooMany)).error.fields).toHaveProperty('qty');
     const res = await steward.post(`/api/kits/boxes/${box.id}/contents`, {
@@ -213,7 +219,9 @@ describe('box upkeep', () => {
     });
     expect(res.status).toBe(200);
     const supplies = (await contentsOf(box.id)).filter((c) => c.part_id === parts.supply24.id);
-    expect(supplies).toEqual([{ part_id: parts.supply24.id, unit_id: spare.id, qty: 1, chain_role: 'supply' }]);
+    expect(supplies).toEqual([
+      { part_id: parts.supply24.id, unit_id: spare.id, qty: 1, chain_role: 'supply' },
+    ]);
     const old = await db
       .selectFrom('units')
       .select(['state', 'kit_box_id', 'location_id'])
@@ -282,7 +290,10 @@ describe('box upkeep', () => {
 
     const box = boxes[1];
     const inside = await contentsOf(box.id);
-    const res = await steward.post(`/api/kits/boxes/${box.id}/take-apart`, { locationId: ledBin, reason: 'kit retired' });
+    const res = await steward.post(`/api/kits/boxes/${box.id}/take-apart`, {
+      locationId: ledBin,
+      reason: 'kit retired',
+    });
     expect(res.status).toBe(200);
     expect(await contentsOf(box.id)).toEqual([]);
     expect(await boxState(box.id)).toBe('retired');
@@ -318,7 +329,9 @@ describe('the loans audit trail', () => {
     const local = formatDateTime(loan.due_at, fx.space.time_zone);
     const page = textOf(await (await steward.get('/loans/audit')).text());
     expect(page).toContain(`${boxes[2].name} to Test member 1 · check ok · due ${local}`);
-    expect(page).toContain(`${boxes[0].name} from Test member 1 · back short · 1 × ${parts.led.name} missing · note “star 1 rolled under the bench”`);
+    expect(page).toContain(
+      `${boxes[0].name} from Test member 1 · back short · 1 × ${parts.led.name} missing · note “star 1 rolled under the bench”`,
+    );
     expect(page).toContain(`${boxes[1].name} · back on the shelf:`);
   });
 });

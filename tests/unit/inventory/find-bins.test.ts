@@ -12,9 +12,12 @@ const bins = [
 ];
 
 describe('findBins / pickBin', () => {
-  test.each(['C1', 'c1', 'Bin C1', 'bin c1', 'Bin C1 · consumables', ' C1 consumables '])('"%s" picks Bin C1', (typed) => {
-    expect(pickBin(bins, typed).bin?.id).toBe('c1');
-  });
+  test.each(['C1', 'c1', 'Bin C1', 'bin c1', 'Bin C1 · consumables', ' C1 consumables '])(
+    '"%s" picks Bin C1',
+    (typed) => {
+      expect(pickBin(bins, typed).bin?.id).toBe('c1');
+    },
+  );
 
   test('"consumables" finds both bins that hold consumables, whole-word matches first, and picks none', () => {
     const { bin, candidates } = pickBin(bins, 'consumables');
@@ -29,7 +32,13 @@ describe('findBins / pickBin', () => {
 
   test('the label code, scanned or typed any way, finds its bin', () => {
     const code = bins[0].code;
-    for (const typed of [code, code.toLowerCase(), formatCode(code), `http://example.test/s/${code}`, code.slice(0, 5)])
+    for (const typed of [
+      code,
+      code.toLowerCase(),
+      formatCode(code),
+      `http://example.test/s/${code}`,
+      code.slice(0, 5),
+    ])
       expect(pickBin(bins, typed).bin?.id).toBe('a1');
   });
 

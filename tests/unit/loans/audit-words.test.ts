@@ -16,12 +16,17 @@ describe('auditLine', () => {
       },
       CHICAGO,
     );
-    expect(line).toBe('Reading lamp box 1 to Ada Lindqvist · check ok · lent by a steward · due 16 Dec 2026, 21:00');
+    expect(line).toBe(
+      'Reading lamp box 1 to Ada Lindqvist · check ok · lent by a steward · due 16 Dec 2026, 21:00',
+    );
     expect(line).not.toContain('2026-12-17');
   });
 
   test('a seeded row without a due date does not end in a bare "due"', () => {
-    const line = auditLine({ action: 'loan.created', person: 'Ada Lindqvist', detail: { box: 'Desk lamp box 2', verdict: 'ok' } }, CHICAGO);
+    const line = auditLine(
+      { action: 'loan.created', person: 'Ada Lindqvist', detail: { box: 'Desk lamp box 2', verdict: 'ok' } },
+      CHICAGO,
+    );
     expect(line).toBe('Desk lamp box 2 to Ada Lindqvist · check ok');
     expect(line).not.toMatch(/\bdue\s*$/);
   });
@@ -43,19 +48,34 @@ describe('auditLine', () => {
       },
       CHICAGO,
     );
-    expect(line).toBe('Reading lamp box 1 from Ada Lindqvist · back short · 1 × Warm white LED star missing · note “lost on the bus”');
+    expect(line).toBe(
+      'Reading lamp box 1 from Ada Lindqvist · back short · 1 × Warm white LED star missing · note “lost on the bus”',
+    );
   });
 
   test('a renewal shows the new due date locally; box upkeep names the box and the unit', () => {
     expect(
-      auditLine({ action: 'loan.renewed', thing: 'Meter', person: 'Ada Lindqvist', detail: { to: '2026-12-24T03:00:00.000Z' } }, CHICAGO),
+      auditLine(
+        {
+          action: 'loan.renewed',
+          thing: 'Meter',
+          person: 'Ada Lindqvist',
+          detail: { to: '2026-12-24T03:00:00.000Z' },
+        },
+        CHICAGO,
+      ),
     ).toBe('Meter for Ada Lindqvist · now due 23 Dec 2026, 21:00');
     expect(
       auditLine(
         {
           action: 'kit_box.unit_swapped',
           thing: 'Reading lamp box 1',
-          detail: { removed: 'Driver (K7F2QX9)', to: 'to repair', replacement: 'Driver (M3P8RT2)', reason: 'hums' },
+          detail: {
+            removed: 'Driver (K7F2QX9)',
+            to: 'to repair',
+            replacement: 'Driver (M3P8RT2)',
+            reason: 'hums',
+          },
         },
         CHICAGO,
       ),

@@ -79,6 +79,8 @@ export default async function LoanAuditPage({
                 <td>
                   {r.targetType === 'loan' && r.targetId ? (
                     <Link href={`/loans/${r.targetId}`}>{ACTIONS[r.action] ?? r.action}</Link>
+                  ) : r.targetType === 'kit_box' && r.targetId ? (
+                    <Link href={`/kits/boxes/${r.targetId}`}>{ACTIONS[r.action] ?? r.action}</Link>
                   ) : (
                     (ACTIONS[r.action] ?? r.action)
                   )}

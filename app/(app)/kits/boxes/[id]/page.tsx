@@ -36,7 +36,11 @@ export default async function KitBoxPage({ params }: { params: Promise<{ id: str
     <div className="mx-auto max-w-xl space-y-4">
       <header>
         <p className="muted text-sm">
-          <Link href={`/kits/templates/${box.template.id}`}>{box.template.name}</Link> · label <CodeText code={box.code} />
+          {/* Underlined: in muted text the link's colour alone does not stand out enough. */}
+          <Link href={`/kits/templates/${box.template.id}`} className="underline">
+            {box.template.name}
+          </Link>{' '}
+          · label <CodeText code={box.code} />
         </p>
         <div className="flex flex-wrap items-center gap-2">
           <h1 className="text-2xl font-bold tracking-tight">{box.name}</h1>

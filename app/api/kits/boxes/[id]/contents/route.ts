@@ -6,7 +6,8 @@ import { takeOutOfBox } from '@/lib/kits/upkeep';
 
 export const POST = route({
   method: 'POST',
-  summary: 'Takes a unit (or a quantity of a counted part) out of a box, or swaps a unit for another of the same part',
+  summary:
+    'Takes a unit (or a quantity of a counted part) out of a box, or swaps a unit for another of the same part',
   who: STAFF,
   params: idParams,
   notFound: 'kit box',

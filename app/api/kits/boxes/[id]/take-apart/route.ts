@@ -10,7 +10,10 @@ export const POST = route({
   who: STAFF,
   params: idParams,
   notFound: 'kit box',
-  body: json(takeApartSchema.optional().transform((v) => v ?? { reason: '' }), takeApartSchema.optional()),
+  body: json(
+    takeApartSchema.optional().transform((v) => v ?? { reason: '' }),
+    takeApartSchema.optional(),
+  ),
   response: z.object({ takenApart: z.object({ returned: z.array(z.string()) }) }),
   run: async ({ ctx, params, body }) => ({ takenApart: await takeBoxApart(db, ctx, params.id, body) }),
 });
