@@ -205,6 +205,8 @@ export interface LoansTable {
   /** Parts the borrower described as their own, checked with the loan (migration 0003_build_gate). */
   own_parts: JsonNullable<unknown>;
   created_at: TimestampDefault;
+  /** What the steward wrote when checking it back in (migration 0007_box_upkeep). */
+  return_note: Generated<string>;
 }
 
 export interface LoanLinesTable {

@@ -49,13 +49,14 @@ export function newCode(): string {
 }
 
 /**
- * Crockford's reading rules without judging the result: upper-case, drop hyphens and white space,
- * read I/L as 1 and O as 0. Characters outside the alphabet are kept so callers can point at them.
+ * Crockford's reading rules without judging the result: upper-case, drop separators (hyphens, white
+ * space, dots, underscores, slashes, middle dots — whatever a phone keyboard offers first), read I/L as
+ * 1 and O as 0. Characters outside the alphabet are kept so callers can point at them.
  */
 export function looseNormalize(input: string): string {
   return input
     .toUpperCase()
-    .replace(/[\s-]+/g, '')
+    .replace(/[\s\-–—._/·]+/g, '')
     .replace(/[IL]/g, '1')
     .replace(/O/g, '0');
 }
@@ -83,8 +84,14 @@ function problem<R extends CodeProblem>(reason: R) {
  * the check symbol itself — `verifyCode` does that.
  */
 export function normalizeCode(input: string): NormalizeResult {
-  const code = looseNormalize(input);
+  let code = looseNormalize(input);
   if (code === '') return problem('empty');
+  // The check symbols * ~ $ = are awkward on a phone keyboard: the six data symbols alone are read as
+  // the code whose check is one of those. A code whose check is a letter or digit still needs it typed.
+  if (code.length === DATA_LENGTH) {
+    const value = dataValue(code);
+    if (value !== null && '*~$='.includes(checkSymbol(value))) code += checkSymbol(value);
+  }
   if (code.length !== CODE_LENGTH) return problem('length');
   // U is a check symbol only; in a data position it is as foreign as '#'.
   if (dataValue(code.slice(0, DATA_LENGTH)) === null || !CHECK_SYMBOLS.includes(code[DATA_LENGTH])) {
@@ -135,4 +142,10 @@ export function suggestCodes(input: string, limit = 13): string[] {
     consider(typed.slice(0, i) + typed[i + 1] + typed[i] + typed.slice(i + 2));
   }
   return [...found].slice(0, Math.max(0, limit));
+}
+
+/** The one displayed form of a code (`K7F2-QX9`) for any screen; a code that does not verify shows as stored. */
+export function displayCode(code: string): string {
+  const result = verifyCode(code);
+  return result.ok ? `${result.code.slice(0, 4)}-${result.code.slice(4)}` : code;
 }

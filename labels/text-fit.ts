@@ -33,7 +33,11 @@ export function drawable(font: PDFFont, text: string): string {
   return out.replace(/ {2,}/g, ' ').trim();
 }
 
-/** The longest prefix of `text` that fits in `maxWidth` with an ellipsis appended, or `text` itself if it fits. */
+/**
+ * `text` itself if it fits in `maxWidth`; else its longest run of whole words that fits with an ellipsis
+ * ("Constant-current buck driver…", never "buck driver, 1000 m"). Trailing punctuation goes before the
+ * ellipsis. Only a single word wider than the box is cut inside the word.
+ */
 export function truncateToWidth(font: PDFFont, text: string, size: number, maxWidth: number): string {
   if (font.widthOfTextAtSize(text, size) <= maxWidth) return text;
   let lo = 0;
@@ -43,7 +47,14 @@ export function truncateToWidth(font: PDFFont, text: string, size: number, maxWi
     if (font.widthOfTextAtSize(text.slice(0, mid).trimEnd() + ELLIPSIS, size) <= maxWidth) lo = mid;
     else hi = mid - 1;
   }
-  return lo === 0 ? '' : text.slice(0, lo).trimEnd() + ELLIPSIS;
+  if (lo === 0) return '';
+  let kept = text.slice(0, lo);
+  if (text[lo] !== ' ' && !/\s$/.test(kept)) {
+    const space = kept.lastIndexOf(' ');
+    if (space > 0) kept = kept.slice(0, space);
+  }
+  kept = kept.replace(/[\s,;:·–-]+$/u, '');
+  return (kept || text.slice(0, lo).trimEnd()) + ELLIPSIS;
 }
 
 /** Longest prefix (in characters) that fits without an ellipsis; at least one character. */

@@ -1,5 +1,6 @@
 import type { Alternative } from '@/lib/loans/alternatives';
 import { VerdictBadge } from '@/components/ui/verdict-badge';
+import { displayCode } from '@/labels/code';
 
 // "What works with this": supplies and drivers in this space that pass with the same LEDs.
 export function Alternatives({ items }: { items: Alternative[] }) {
@@ -38,7 +39,7 @@ function Where({ part }: { part: Alternative['supply'] }) {
   if (part.inSelection) return <span className="text-sm">(the one you have)</span>;
   return (
     <span className="text-sm">
-      ({part.free} free{part.code ? `, e.g. label ${part.code}` : ''})
+      ({part.free} free{part.code ? `, e.g. label ${displayCode(part.code)}` : ''})
     </span>
   );
 }

@@ -2,6 +2,7 @@
 import { useMutation } from '@tanstack/react-query';
 import { useRouter } from 'next/navigation';
 import { useId, useState } from 'react';
+import { shortName } from '@/lib/short-name';
 import { callApi, type ApiError } from './api';
 import { ErrorNote } from './error-note';
 
@@ -78,6 +79,8 @@ export function BorrowPanel({
       </div>
     );
 
+  // The button names whom it lends to once a steward has chosen someone else.
+  const lendee = borrowerId !== userId ? shortName(members.find((p) => p.id === borrowerId)?.name ?? '') : null;
   const ready = (gate !== 'acknowledge' || ack) && (gate !== 'blocked' || reason.trim().length > 0);
   return (
     <form
@@ -144,11 +147,15 @@ export function BorrowPanel({
         disabled={!ready || m.isPending}
       >
         {m.isPending
-          ? 'Borrowing…'
+          ? lendee
+            ? `Lending to ${lendee}…`
+            : 'Borrowing…'
           : gate === 'blocked'
-            ? 'Override and lend'
-            : borrowerId !== userId
-              ? 'Lend it'
+            ? lendee
+              ? `Override and lend to ${lendee}`
+              : 'Override and lend'
+            : lendee
+              ? `Lend to ${lendee}`
               : 'Borrow it'}
       </button>
       <ErrorNote error={m.error} />

@@ -13,6 +13,7 @@ import { BorrowPanel } from './borrow-panel';
 import { ErrorNote } from './error-note';
 import { OwnLeds, type OwnLedsValue } from './own-leds';
 import { OwnDriver, OwnSupply } from './own-supply-driver';
+import { displayCode } from '@/labels/code';
 
 type Counted = { partId: string; locationId: string; qty: number };
 type PreviewJson = Omit<Preview, 'dueAt'> & { dueAt: string };
@@ -117,7 +118,7 @@ export function LooseBorrow({
               <Picked
                 key={id}
                 label={u.name}
-                detail={u.code}
+                detail={displayCode(u.code)}
                 onRemove={() => {
                   setUnitIds(unitIds.filter((x) => x !== id));
                   reset();

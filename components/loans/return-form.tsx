@@ -4,6 +4,7 @@ import { useRouter } from 'next/navigation';
 import { useId, useState } from 'react';
 import { callApi } from './api';
 import { ErrorNote } from './error-note';
+import { displayCode } from '@/labels/code';
 
 type Line = { id: string; name: string; qty: number; unitCode: string | null };
 type Condition = 'ok' | 'missing' | 'damaged';
@@ -15,6 +16,7 @@ export function ReturnForm({ loanId, lines }: { loanId: string; lines: Line[] })
   const [state, setState] = useState<Record<string, { condition: Condition; back: number }>>(
     Object.fromEntries(lines.map((l) => [l.id, { condition: 'ok', back: l.qty }])),
   );
+  const [note, setNote] = useState('');
   const set = (id: string, patch: Partial<{ condition: Condition; back: number }>) =>
     setState((s) => ({ ...s, [id]: { ...s[id], ...patch } }));
   const m = useMutation({
@@ -28,6 +30,7 @@ export function ReturnForm({ loanId, lines }: { loanId: string; lines: Line[] })
             returnedQty: s.condition === 'ok' ? l.qty : Math.min(s.back, l.qty - 1),
           };
         }),
+        ...(note.trim() ? { note: note.trim() } : {}),
       }),
     onSuccess: () => router.refresh(),
   });
@@ -54,7 +57,7 @@ export function ReturnForm({ loanId, lines }: { loanId: string; lines: Line[] })
               <p className="font-semibold">
                 {l.qty > 1 ? `${l.qty} × ` : ''}
                 {l.name}
-                {l.unitCode ? <span className="muted text-sm font-normal"> · label {l.unitCode}</span> : null}
+                {l.unitCode ? <span className="muted text-sm font-normal"> · label {displayCode(l.unitCode)}</span> : null}
               </p>
               <div className="flex flex-wrap items-end gap-3">
                 <div>
@@ -100,6 +103,19 @@ export function ReturnForm({ loanId, lines }: { loanId: string; lines: Line[] })
           );
         })}
       </ul>
+      <div>
+        <label className="label" htmlFor={`${ids}-note`}>
+          Note (what is missing or damaged, what needs fixing)
+        </label>
+        <textarea
+          id={`${ids}-note`}
+          className="field"
+          rows={2}
+          maxLength={1000}
+          value={note}
+          onChange={(e) => setNote(e.target.value)}
+        />
+      </div>
       <button type="submit" className="btn-primary w-full" disabled={m.isPending}>
         {m.isPending ? 'Recording…' : 'Confirm the return'}
       </button>

@@ -1,7 +1,7 @@
 'use client';
 import { useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
-import { useState } from 'react';
-import { codeFromScan } from '@/labels/url';
+import { useEffect, useRef, useState } from 'react';
+import { pickBin } from '@/lib/inventory/find-bins';
 import { api, ApiError } from './api';
 import { FormMessage } from './form-bits';
 import { PartPicker } from './part-picker';
@@ -20,18 +20,39 @@ type Line = {
 type Count = { id: string; status: string; locationId: string; locationName: string; lines: Line[] };
 type Location = { id: string; name: string; code: string | null };
 
-/** Count one bin: pick or scan it, type what is there, review the differences, post. */
+/** The count being worked on is in the address, so a reload or coming back resumes it. */
+function rememberCount(id: string | null) {
+  const url = new URL(window.location.href);
+  if (id) url.searchParams.set('count', id);
+  else url.searchParams.delete('count');
+  window.history.replaceState(null, '', url);
+}
+
+/**
+ * Count one bin: pick or scan it, type what is there (each figure is saved on the server as it is
+ * typed, so leaving the page loses nothing), review the differences, post or abandon.
+ */
 export function CountMode({
   locations,
-  openCounts,
+  openCounts: initialOpen,
+  resumeId = null,
 }: {
   locations: Location[];
   openCounts: { id: string; locationName: string }[];
+  resumeId?: string | null;
 }) {
   const queryClient = useQueryClient();
-  const [countId, setCountId] = useState<string | null>(null);
+  const [countId, setCountIdState] = useState<string | null>(resumeId);
+  const [openCounts, setOpenCounts] = useState(initialOpen);
   const [binText, setBinText] = useState('');
+  const [candidates, setCandidates] = useState<Location[]>([]);
   const [draft, setDraft] = useState<Record<string, string>>({});
+  const [saved, setSaved] = useState<'idle' | 'saving' | 'saved' | 'failed'>('idle');
+  const setCountId = (id: string | null) => {
+    setCountIdState(id);
+    rememberCount(id);
+  };
+  const forget = (id: string | null) => setOpenCounts((list) => list.filter((c) => c.id !== id));
   const [message, setMessage] = useState<{ text: string; ok?: boolean; fields?: Record<string, string[]> }>({
     text: '',
   });
@@ -49,9 +70,12 @@ export function CountMode({
   const open = useMutation({
     mutationFn: (locationId: string) =>
       api<{ id: string; created: boolean }>('/api/stock/counts', { body: { locationId } }),
-    onSuccess: (r) => {
+    onSuccess: (r, locationId) => {
       setCountId(r.id);
       setDraft({});
+      setCandidates([]);
+      const name = locations.find((l) => l.id === locationId)?.name ?? '';
+      setOpenCounts((list) => (list.some((c) => c.id === r.id) ? list : [{ id: r.id, locationName: name }, ...list]));
       setMessage({
         text: r.created
           ? 'Count opened. Type what you find in the bin.'
@@ -69,6 +93,37 @@ export function CountMode({
         counted: typed === undefined ? l.counted : typed === '' ? null : Number(typed),
       };
     });
+  // Saved as typed: a short pause after the last keystroke sends what changed.
+  const autosave = useMutation({
+    mutationFn: (typed: Record<string, string>) =>
+      api<Count>(`/api/stock/counts/${countId}`, {
+        method: 'PATCH',
+        body: { lines: Object.entries(typed).map(([partId, v]) => ({ partId, counted: v === '' ? null : Number(v) })) },
+      }),
+    onMutate: () => setSaved('saving'),
+    onSuccess: (c, typed) => {
+      queryClient.setQueryData(['count', countId], c);
+      // Keep only what was typed since this save left.
+      setDraft((d) => Object.fromEntries(Object.entries(d).filter(([k, v]) => typed[k] !== v)));
+      setSaved('saved');
+    },
+    onError: () => setSaved('failed'),
+  });
+  const pending = useRef<ReturnType<typeof setTimeout> | null>(null);
+  useEffect(() => {
+    // A figure that is not a whole number ≥ 0 waits on screen until it is corrected.
+    const valid = Object.fromEntries(
+      Object.entries(draft).filter(([, v]) => v === '' || (Number.isInteger(Number(v)) && Number(v) >= 0)),
+    );
+    if (!countId || !Object.keys(valid).length) return;
+    if (pending.current) clearTimeout(pending.current);
+    pending.current = setTimeout(() => autosave.mutate(valid), 600);
+    return () => {
+      if (pending.current) clearTimeout(pending.current);
+    };
+    // eslint-disable-next-line react-hooks/exhaustive-deps -- autosave is stable enough; re-run on typing only
+  }, [draft, countId]);
+
   const save = useMutation({
     mutationFn: (extra: { partId: string; counted: number | null }[] = []) =>
       api<Count>(`/api/stock/counts/${countId}`, {
@@ -92,6 +147,7 @@ export function CountMode({
         text: `Posted. ${r.changed} quantit${r.changed === 1 ? 'y' : 'ies'} changed to match the count.`,
         ok: true,
       });
+      forget(countId);
       setCountId(null);
     },
     onError: fail,
@@ -99,7 +155,9 @@ export function CountMode({
   const abandon = useMutation({
     mutationFn: () => api(`/api/stock/counts/${countId}`, { method: 'DELETE' }),
     onSuccess: () => {
+      forget(countId);
       setCountId(null);
+      setDraft({});
       setMessage({ text: 'Count abandoned; no stock changed.', ok: true });
     },
     onError: fail,
@@ -107,12 +165,14 @@ export function CountMode({
 
   function openByText(e: React.FormEvent) {
     e.preventDefault();
-    const scanned = codeFromScan(binText);
-    const byCode = scanned.ok ? locations.find((l) => l.code === scanned.code) : undefined;
-    const byName = locations.find((l) => l.name.toLowerCase() === binText.trim().toLowerCase());
-    const loc = byCode ?? byName;
-    if (!loc) return setMessage({ text: `No bin here with the code or name “${binText}”.` });
-    open.mutate(loc.id);
+    const { bin, candidates: found } = pickBin(locations, binText);
+    setCandidates(bin ? [] : found);
+    if (bin) return open.mutate(bin.id);
+    setMessage(
+      found.length
+        ? { text: `${found.length} bins match “${binText.trim()}”; choose one.` }
+        : { text: `No bin here has “${binText.trim()}” in its name or code.` },
+    );
   }
 
   if (!countId || !count.data) {
@@ -122,7 +182,7 @@ export function CountMode({
         <form onSubmit={openByText} className="card flex flex-wrap items-end gap-3">
           <div className="min-w-64 flex-1">
             <label htmlFor="bin" className="label">
-              Scan or type the bin’s code, or its name
+              Scan the bin, or type any part of its name or code
             </label>
             <input
               id="bin"
@@ -142,6 +202,22 @@ export function CountMode({
             Start counting
           </button>
         </form>
+        {candidates.length ? (
+          <section className="card" aria-labelledby="bin-choices">
+            <h2 id="bin-choices" className="font-bold">
+              Which bin?
+            </h2>
+            <ul className="mt-2 flex flex-wrap gap-2">
+              {candidates.map((l) => (
+                <li key={l.id}>
+                  <button type="button" className="btn-quiet" onClick={() => open.mutate(l.id)}>
+                    Count {l.name}
+                  </button>
+                </li>
+              ))}
+            </ul>
+          </section>
+        ) : null}
         {openCounts.length ? (
           <section className="card" aria-labelledby="open-counts">
             <h2 id="open-counts" className="font-bold">
@@ -176,11 +252,17 @@ export function CountMode({
         <h2 id="count-title" className="text-lg font-bold">
           Counting {c.locationName}
         </h2>
-        <p className="muted text-sm">“Books” is what the records say now; leave a line blank to skip it.</p>
+        <p className="muted text-sm">
+          “Recorded” is what Ohmstead holds for this bin now; leave a line blank to skip it. Each figure is kept
+          as you type, until you post or abandon the count.
+        </p>
+        <p role="status" className="muted text-sm">
+          {saved === 'saving' ? 'Saving…' : saved === 'saved' ? 'Saved' : saved === 'failed' ? 'Not saved yet: check the figures.' : ''}
+        </p>
         <div className="mt-3">
           <ScrollRegion label="Count lines">
             <table className="table-dense">
-              <TableHead columns={['Part', 'Books', 'Counted', 'Difference']} />
+              <TableHead columns={['Part', 'Recorded', 'Counted', 'Difference']} />
               <tbody>
                 {c.lines.map((l, i) => {
                   const typed = draft[l.partId];

@@ -15,10 +15,13 @@ export function LabelsPrinter({
   layouts,
   defaultLayout,
   locations,
+  todayCount,
 }: {
   layouts: { id: string; name: string; perPage: number }[];
   defaultLayout: string;
   locations: { id: string; name: string }[];
+  /** Labels issued today in this space, so the size of that run is known before it is made. */
+  todayCount: number;
 }) {
   const [kind, setKind] = useState<Kind>('today');
   const [part, setPart] = useState<PickedPart | null>(null);
@@ -78,6 +81,7 @@ export function LabelsPrinter({
   }
 
   const perPage = layouts.find((l) => l.id === layoutId)?.perPage ?? 1;
+  const pagesFor = (n: number) => Math.ceil((n + skipSlots) / perPage);
   const KINDS: [Kind, string][] = [
     ['today', 'Everything added today'],
     ['part', 'A part and its units'],
@@ -103,6 +107,13 @@ export function LabelsPrinter({
           ))}
         </div>
         <div className="mt-3">
+          {kind === 'today' ? (
+            <p role="status" className="text-sm">
+              {todayCount === 0
+                ? 'Nothing has been labelled today yet.'
+                : `${todayCount} label${todayCount === 1 ? '' : 's'} on ${pagesFor(todayCount)} page${pagesFor(todayCount) === 1 ? '' : 's'} of this sheet${skipSlots ? ` (skipping ${skipSlots} used)` : ''}.`}
+            </p>
+          ) : null}
           {kind === 'part' ? (
             <>
               <label className="label" htmlFor="label-part">
@@ -173,7 +184,13 @@ export function LabelsPrinter({
           Outline each label (test print on plain paper)
         </label>
       </fieldset>
-      <FormMessage message={result.message} fields={result.fields} ok={result.ok} />
+      {/* Refused codes are named in the message itself; the field paths stay out of sight. */}
+      <FormMessage
+        message={result.message}
+        fields={result.fields}
+        shown={Object.keys(result.fields ?? {}).filter((k) => k.startsWith('selection.codes'))}
+        ok={result.ok}
+      />
       <div className="flex flex-wrap items-center gap-3">
         <button type="submit" className="btn-primary" disabled={busy}>
           {busy ? 'Laying out…' : 'Make the label PDF'}

@@ -3,7 +3,9 @@ import { useQueryClient } from '@tanstack/react-query';
 import Link from 'next/link';
 import { useState } from 'react';
 import { api } from './api';
+import { CodeText } from './code-text';
 import { describedBy, Field, FormMessage } from './form-bits';
+import { PrintLabelsButton } from './print-labels-button';
 import { PartPicker, type PickedPart } from './part-picker';
 import { useApiForm } from './use-api-form';
 
@@ -17,23 +19,29 @@ export function StockForm({
   mode,
   locations,
   initialPart,
+  labels,
 }: {
   mode: 'receive' | 'move';
   locations: Location[];
   initialPart: PickedPart | null;
+  /** Label layouts, so new units' labels print from here in one step. */
+  labels?: { layouts: { id: string; name: string }[]; defaultLayout: string };
 }) {
   const queryClient = useQueryClient();
   const [part, setPart] = useState<PickedPart | null>(initialPart);
+  // The units labelled by the last receive: their codes, listed with a button printing exactly those.
+  const [newUnits, setNewUnits] = useState<{ partName: string; codes: string[] } | null>(null);
   const form = useApiForm();
   const { err, busy } = form;
 
   /** The request this form makes for the chosen part, and what to say when it succeeds. */
   async function submitFor(p: PickedPart, get: (k: string) => string): Promise<string> {
     if (mode === 'receive' && p.tracking === 'unit') {
-      const r = await api<{ units: unknown[] }>(`/api/parts/${p.id}/units`, {
+      const r = await api<{ units: { code: string }[] }>(`/api/parts/${p.id}/units`, {
         body: { count: Number(get('qty')), locationId: get('locationId') || null },
       });
-      return `${r.units.length} new unit${r.units.length === 1 ? '' : 's'} of ${p.name} labelled. Print their labels from the part page.`;
+      setNewUnits({ partName: p.name, codes: r.units.map((u) => u.code) });
+      return `${r.units.length} new unit${r.units.length === 1 ? '' : 's'} of ${p.name} labelled. Print their labels below.`;
     }
     if (mode === 'receive') {
       const r = await api<{ qty: number }>('/api/stock/receive', {
@@ -58,6 +66,7 @@ export function StockForm({
     const formEl = e.currentTarget;
     const data = new FormData(formEl);
     if (!part) return form.fail('Choose a part first.', { partId: ['choose a part'] });
+    setNewUnits(null);
     const done = await form.run(
       () => submitFor(part, (k) => String(data.get(k) ?? '')),
       (message) => message,
@@ -82,7 +91,8 @@ export function StockForm({
   );
 
   return (
-    <form onSubmit={onSubmit} className="card max-w-2xl space-y-4" noValidate>
+    <div className="max-w-2xl space-y-4">
+    <form onSubmit={onSubmit} className="card space-y-4" noValidate>
       <FormMessage
         message={form.message}
         fields={form.fields}
@@ -137,5 +147,27 @@ export function StockForm({
         </>
       )}
     </form>
+    {newUnits && labels ? (
+      <section className="card space-y-3" aria-labelledby="new-units">
+        <h2 id="new-units" className="text-lg font-bold">
+          New labels for {newUnits.partName}
+        </h2>
+        <ul className="flex flex-wrap gap-x-4 gap-y-1" aria-label="New unit codes">
+          {newUnits.codes.map((c) => (
+            <li key={c}>
+              <CodeText code={c} />
+            </li>
+          ))}
+        </ul>
+        <PrintLabelsButton
+          selection={{ kind: 'codes', codes: newUnits.codes }}
+          expected={newUnits.codes.length}
+          layouts={labels.layouts}
+          defaultLayout={labels.defaultLayout}
+          label={`Print these ${newUnits.codes.length} label${newUnits.codes.length === 1 ? '' : 's'}`}
+        />
+      </section>
+    ) : null}
+    </div>
   );
 }

@@ -75,10 +75,15 @@ async function refsFor(db: Db, ctx: Pick<Ctx, 'spaceId'>, selection: LabelSelect
       return [...own, ...contents];
     }
     case 'codes': {
+      // Each refusal names the code as typed, in words, so the message alone says which one is wrong.
       const fields: FieldErrors = {};
+      const said: string[] = [];
       const wanted = selection.codes.map((raw, i) => {
         const c = codeFromScan(raw);
-        if (!c.ok) fields[`selection.codes.${i}`] = [c.message];
+        if (!c.ok) {
+          fields[`selection.codes.${i}`] = [`“${raw}”: ${c.message}`];
+          said.push(`“${raw}” is not a label code (${c.message.replace(/\.$/, '').replace(/^./, (ch) => ch.toLowerCase())})`);
+        }
         return c.ok ? c.code : '';
       });
       const found = wanted.some(Boolean)
@@ -86,9 +91,13 @@ async function refsFor(db: Db, ctx: Pick<Ctx, 'spaceId'>, selection: LabelSelect
         : [];
       const map = new Map(found.map((f) => [f.code, f]));
       wanted.forEach((c, i) => {
-        if (c && !map.has(c)) fields[`selection.codes.${i}`] = ['no label with this code here'];
+        if (c && !map.has(c)) {
+          fields[`selection.codes.${i}`] = [`“${selection.codes[i]}”: no label with this code in this space`];
+          said.push(`no label in this space has the code “${selection.codes[i]}”`);
+        }
       });
-      if (Object.keys(fields).length) throw new InvalidError('Some codes cannot be printed.', fields);
+      if (said.length)
+        throw new InvalidError(`Nothing printed: ${said.join('; ')}. Correct ${said.length === 1 ? 'it' : 'them'} and try again.`, fields);
       return wanted.map((c) => map.get(c)!);
     }
     case 'today': {

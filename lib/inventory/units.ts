@@ -131,9 +131,12 @@ export async function changeUnitState(
       );
     }
     if (unit.kit_box_id) {
-      throw new ConflictError('This unit sits in a kit box; take it out of the box first.', {
-        state: ['the unit is in a kit box'],
-      });
+      throw new ConflictError(
+        'This unit sits in a kit box; take it out first on the box’s page (Look after this box).',
+        {
+          state: ['the unit is in a kit box'],
+        },
+      );
     }
     const locationId = input.locationId === undefined ? unit.location_id : input.locationId;
     if (locationId && locationId !== unit.location_id) await findLocation(trx, ctx, locationId);

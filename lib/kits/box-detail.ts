@@ -21,6 +21,7 @@ export type BoxDetail = {
     partId: string;
     name: string;
     qty: number;
+    unitId: string | null;
     unitCode: string | null;
     chainRole: string | null;
     keySpec: string;
@@ -70,6 +71,7 @@ export async function getBox(db: Db, ctx: Ctx, kitBoxId: string): Promise<BoxDet
       partId: l.partId,
       name: l.name,
       qty: l.qty,
+      unitId: l.unitId ?? null,
       unitCode: l.unitCode,
       chainRole: l.chainRole,
       keySpec: keySpec(l.category, l.specs),

@@ -9,11 +9,13 @@ import { now } from '@/lib/clock';
 import { ConflictError, ForbiddenError, InvalidError, NotFoundError } from '@/lib/errors';
 import { releaseItem } from '@/lib/loans/holds';
 import { boxesOfSpace } from '@/lib/loans/selection';
+import { removeSurplus } from './contents';
 import type { BuildBoxInput } from './schemas';
 
 // Kit boxes: physical boxes with a label, built from a template out of labelled units and counted
 // stock. Building and refilling take the parts off the shelf in one transaction ('kit_build'
-// movements); a box that came back short sits in repair until it is refilled.
+// movements); a box that came back short sits in repair until it is refilled. A refill first takes out
+// what the template no longer lists (lib/kits/contents.ts), so it replaces a changed part.
 
 export type BoxSummary = {
   id: string;
@@ -336,12 +338,12 @@ export async function refillBox(
   ctx: Ctx,
   kitBoxId: string,
   picks: Picks,
-): Promise<{ added: string[]; readyHoldId: string | null }> {
+): Promise<{ added: string[]; removed: string[]; readyHoldId: string | null }> {
   if (!isStaff(ctx)) throw new ForbiddenError();
   return db.transaction().execute(async (trx) => {
     const box = await trx
       .selectFrom('kit_boxes')
-      .select(['id', 'name', 'state', 'template_id as templateId'])
+      .select(['id', 'name', 'state', 'template_id as templateId', 'location_id as locationId'])
       .where('id', '=', kitBoxId)
       .where('space_id', '=', ctx.spaceId)
       .forUpdate()
@@ -351,6 +353,8 @@ export async function refillBox(
       throw new ConflictError(`The box is ${box.state}; refill it when it is back.`, {
         kitBoxId: [box.state],
       });
+    // What the template no longer wants comes out first, so a changed line is replaced, not doubled.
+    const removed = await removeSurplus(trx, ctx, box, now());
     const added = await fillBox(trx, ctx, box, picks);
     let readyHoldId: string | null = null;
     if (box.state === 'in_repair') readyHoldId = await releaseItem(trx, ctx.spaceId, { kitBoxId: box.id });
@@ -360,9 +364,9 @@ export async function refillBox(
       action: 'kit_box.refilled',
       targetType: 'kit_box',
       targetId: box.id,
-      detail: { name: box.name, added },
+      detail: { name: box.name, added, ...(removed.length ? { removed } : {}) },
     });
-    return { added, readyHoldId };
+    return { added, removed, readyHoldId };
   });
 }
 

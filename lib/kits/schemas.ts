@@ -68,3 +68,41 @@ export const buildBoxSchema = z
   })
   .strict();
 export type BuildBoxInput = z.infer<typeof buildBoxSchema>;
+
+// Box upkeep: where a part taken out of a box goes. 'repair' and 'retired' apply to labelled units; for
+// counted parts they write the quantity off as damaged or lost.
+const destination = z
+  .enum(['shelf', 'repair', 'retired'], { error: 'to must be shelf, repair or retired' })
+  .default('shelf');
+const reason = z.string({ error: 'reason must be text' }).trim().max(500).default('');
+
+/** Takes one labelled unit (optionally swapping in another of the same part) or a quantity of a counted part out of a box. */
+export const takeOutSchema = z
+  .object({
+    unitId: id('unitId').optional(),
+    replacementUnitId: id('replacementUnitId').optional(),
+    partId: id('partId').optional(),
+    qty: z
+      .number({ error: 'qty must be a number' })
+      .int({ error: 'qty must be a whole number' })
+      .min(1, { error: 'qty must be at least 1' })
+      .max(500)
+      .default(1),
+    to: destination,
+    locationId: id('locationId').optional(),
+    reason,
+  })
+  .strict()
+  .superRefine((b, ctx) => {
+    if ((b.unitId ? 1 : 0) + (b.partId ? 1 : 0) !== 1)
+      ctx.addIssue({ code: 'custom', path: ['unitId'], message: 'give either unitId (a labelled unit) or partId (a counted part)' });
+    if (b.replacementUnitId && !b.unitId)
+      ctx.addIssue({ code: 'custom', path: ['replacementUnitId'], message: 'a swap replaces a labelled unit: give unitId too' });
+  });
+export type TakeOutInput = z.infer<typeof takeOutSchema>;
+
+/** Empties a box back onto the shelf and retires the box. */
+export const takeApartSchema = z
+  .object({ locationId: id('locationId').optional(), reason })
+  .strict();
+export type TakeApartInput = z.infer<typeof takeApartSchema>;

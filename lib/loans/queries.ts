@@ -351,6 +351,10 @@ export type AuditRow = {
   targetType: string | null;
   targetId: string | null;
   detail: Record<string, unknown>;
+  /** What the line is about (the box, or the loan's parts; the held item; the kit), read now. */
+  thing?: string | null;
+  /** Whom it concerns (the borrower, the holder), beside the actor who did it. */
+  person?: string | null;
 };
 
 export const LOAN_AUDIT_PREFIXES = ['loan.', 'hold.', 'reminder.', 'kit_box.', 'kit_template.'];
@@ -382,7 +386,67 @@ export async function loanAudit(
     .orderBy('audit_log.id', 'desc')
     .limit(opts.limit ?? 100)
     .execute();
-  return rows.map((r) => ({ ...r, id: String(r.id) }));
+  const named = await auditTargets(db, ctx.spaceId, rows);
+  return rows.map((r) => ({ ...r, id: String(r.id), ...(named.get(`${r.targetType}:${r.targetId}`) ?? {}) }));
+}
+
+const UUID_RE = /^[0-9a-f]{8}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{12}$/i;
+
+/** Names the thing and the person of each audit row's target, a few queries for the whole page. */
+async function auditTargets(
+  db: Db,
+  spaceId: string,
+  rows: { targetType: string | null; targetId: string | null }[],
+): Promise<Map<string, { thing: string | null; person: string | null }>> {
+  const ids = (type: string) => [
+    ...new Set(rows.filter((r) => r.targetType === type && r.targetId && UUID_RE.test(r.targetId)).map((r) => r.targetId!)),
+  ];
+  const out = new Map<string, { thing: string | null; person: string | null }>();
+  const loanIds = ids('loan');
+  if (loanIds.length) {
+    const loans = await db
+      .selectFrom('loans')
+      .innerJoin('users', 'users.id', 'loans.borrower_id')
+      .leftJoin('kit_boxes', 'kit_boxes.id', 'loans.kit_box_id')
+      .select(['loans.id', 'users.name as person', 'kit_boxes.name as box'])
+      .select((eb) =>
+        eb
+          .selectFrom('loan_lines')
+          .innerJoin('parts', 'parts.id', 'loan_lines.part_id')
+          .select(sql<string>`string_agg(case when loan_lines.qty > 1 then loan_lines.qty || ' × ' else '' end || parts.name, ', ' order by parts.name)`.as('n'))
+          .whereRef('loan_lines.loan_id', '=', 'loans.id')
+          .as('items'),
+      )
+      .where('loans.space_id', '=', spaceId)
+      .where('loans.id', 'in', loanIds)
+      .execute();
+    for (const l of loans) out.set(`loan:${l.id}`, { thing: l.box ?? l.items, person: l.person });
+  }
+  const holdIds = ids('hold');
+  if (holdIds.length) {
+    const holds = await db
+      .selectFrom('holds')
+      .innerJoin('users', 'users.id', 'holds.user_id')
+      .leftJoin('kit_boxes', 'kit_boxes.id', 'holds.kit_box_id')
+      .leftJoin('units', 'units.id', 'holds.unit_id')
+      .leftJoin('parts', 'parts.id', 'units.part_id')
+      .select(['holds.id', 'users.name as person', 'kit_boxes.name as box', 'parts.name as part'])
+      .where('holds.space_id', '=', spaceId)
+      .where('holds.id', 'in', holdIds)
+      .execute();
+    for (const h of holds) out.set(`hold:${h.id}`, { thing: h.box ?? h.part, person: h.person });
+  }
+  const boxIds = ids('kit_box');
+  if (boxIds.length) {
+    const boxes = await db
+      .selectFrom('kit_boxes')
+      .select(['id', 'name'])
+      .where('space_id', '=', spaceId)
+      .where('id', 'in', boxIds)
+      .execute();
+    for (const b of boxes) out.set(`kit_box:${b.id}`, { thing: b.name, person: null });
+  }
+  return out;
 }
 
 /** People of the space a steward can lend to at the bench. */

@@ -81,7 +81,10 @@ export async function returnLoan(
     });
 
     const status = short > 0 ? 'returned_short' : 'returned';
-    await trx.updateTable('loans').set({ status, returned_at: at }).where('id', '=', loan.id).execute();
+    await trx
+      .updateTable('loans')
+      .set({ status, returned_at: at, return_note: input.note ?? '' })
+      .where('id', '=', loan.id).execute();
     for (const l of checked)
       await trx
         .updateTable('loan_lines')

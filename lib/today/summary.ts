@@ -3,10 +3,17 @@ import { sql } from 'kysely';
 import type { Db } from '@/db/connect';
 import { hasRole, type Ctx } from '@/lib/auth/roles';
 import { now } from '@/lib/clock';
+import { boxesOutOfService, type OutOfServiceBox } from '@/lib/kits/upkeep';
 
 export type TodaySummary = {
   myLoans: { id: string; name: string; dueAt: Date; overdue: boolean }[];
-  steward?: { overdue: number; belowReorder: { id: string; name: string; qty: number; reorderPoint: number }[]; inRepair: number };
+  steward?: {
+    overdue: number;
+    belowReorder: { id: string; name: string; qty: number; reorderPoint: number }[];
+    inRepair: number;
+    /** Kit boxes out of service (in repair), each with what it lacks and its last short return. */
+    boxesOut: OutOfServiceBox[];
+  };
   treasurer?: { pendingSales: number; oldPending: number; paidThisMonthMinor: number; currency: string };
   admin?: { people: number; openInvitations: number };
 };
@@ -72,6 +79,7 @@ export async function todaySummary(db: Db, ctx: Ctx): Promise<TodaySummary> {
       overdue: overdue.n,
       belowReorder: belowReorder.map((p) => ({ id: p.id, name: p.name, qty: p.qty, reorderPoint: p.reorder_point })),
       inRepair: repair.n,
+      boxesOut: await boxesOutOfService(db, ctx),
     };
   }
 

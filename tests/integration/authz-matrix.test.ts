@@ -47,6 +47,8 @@ export const MATRIX: Record<string, Row> = {
   'GET /api/invitations': { who: A, ok: 200 },
   'POST /api/invitations': { who: A, ok: 400, body: EMPTY },
   'POST /api/kits/boxes/[id]/refill': { who: W, ok: [400, 404], body: EMPTY },
+  'POST /api/kits/boxes/[id]/contents': { who: W, ok: [400, 404], body: EMPTY },
+  'POST /api/kits/boxes/[id]/take-apart': { who: W, ok: [400, 404], body: EMPTY },
   'GET /api/kits/boxes/[id]': { who: 'user', ok: 404 },
   'GET /api/kits/boxes': { who: 'user', ok: 200 },
   'POST /api/kits/boxes': { who: W, ok: 400, body: EMPTY },

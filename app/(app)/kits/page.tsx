@@ -8,6 +8,7 @@ import { listTemplates } from '@/lib/kits/templates';
 import { loanSettings } from '@/lib/loans/settings';
 import { PageTitle } from '@/components/ui/page-title';
 import { StatePill } from '@/components/ui/state-pill';
+import { displayCode } from '@/labels/code';
 
 export const metadata = { title: 'Kits' };
 
@@ -72,7 +73,7 @@ export default async function KitsPage() {
                   {b.name}
                 </Link>
                 <span className="muted block text-sm">
-                  {b.templateName} · label {b.code}
+                  {b.templateName} · label {displayCode(b.code)}
                 </span>
               </span>
               <span className="flex items-center gap-2 text-sm">

@@ -4,6 +4,7 @@ import { requirePageUser } from '@/lib/auth/guard';
 import { todaySummary } from '@/lib/today/summary';
 import { PageTitle } from '@/components/ui/page-title';
 import { StatePill } from '@/components/ui/state-pill';
+import { OutOfServiceList } from '@/components/kits/out-of-service-list';
 import { countOf, formatDateTime } from '@/lib/format';
 import { formatMoney } from '@/lib/money';
 
@@ -62,11 +63,24 @@ export default async function TodayPage() {
             </li>
             <li>
               <Link href="/shelf/repairs" className="block rounded-lg border border-stone-200 p-3 no-underline dark:border-stone-700">
-                <span className="block text-3xl font-bold">{s.steward.inRepair}</span>{' '}
-                {s.steward.inRepair === 1 ? 'unit in repair' : 'units in repair'}
+                <span className="block text-3xl font-bold">{s.steward.boxesOut.length + s.steward.inRepair}</span>{' '}
+                out of service
+                <span className="muted block text-sm">
+                  {countOf(s.steward.boxesOut.length, 'kit box', 'kit boxes')}, {countOf(s.steward.inRepair, 'unit')} in repair
+                </span>
               </Link>
             </li>
           </ul>
+          {s.steward.boxesOut.length ? (
+            <div className="mt-3">
+              <OutOfServiceList boxes={s.steward.boxesOut.slice(0, 6)} timeZone={tz} />
+              {s.steward.boxesOut.length > 6 ? (
+                <Link href="/shelf/repairs" className="mt-2 inline-block">
+                  All {s.steward.boxesOut.length} boxes out of service
+                </Link>
+              ) : null}
+            </div>
+          ) : null}
           {s.steward.belowReorder.length ? (
             <ul className="mt-3 text-sm">
               {s.steward.belowReorder.slice(0, 6).map((p) => (

@@ -63,6 +63,9 @@ import * as firstRun from '../first-run/route';
 import * as health from '../health/route';
 import * as exportSpace from '../export/route';
 import * as peopleIdErase from '../people/[id]/erase/route';
+// Steward: box upkeep (issue 12)
+import * as kitsBoxesIdContents from '../kits/boxes/[id]/contents/route';
+import * as kitsBoxesIdTakeApart from '../kits/boxes/[id]/take-apart/route';
 
 // Every route file of the production build, by its path in the API document. A test compares this list
 // with app/api on disk (and the test, bench and dev doors, which are not in the production build, are
@@ -133,4 +136,7 @@ export const ROUTES: RouteModules = {
   '/api/health': health,
   '/api/export': exportSpace,
   '/api/people/{id}/erase': peopleIdErase,
+  // Steward: box upkeep (issue 12)
+  '/api/kits/boxes/{id}/contents': kitsBoxesIdContents,
+  '/api/kits/boxes/{id}/take-apart': kitsBoxesIdTakeApart,
 };

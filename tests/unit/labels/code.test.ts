@@ -176,3 +176,32 @@ describe('suggestCodes ("did you mean")', () => {
     expect(suggestCodes('K7F2QX~')).toContain('K7F2QX*');
   });
 });
+
+describe('typing a code on a phone (issue 12)', () => {
+  // Crockford's reading rules plus two of our own: any common separator is ignored, and when the check
+  // symbol is one of * ~ $ = (hard to reach on a phone keyboard) the six data symbols alone suffice.
+  it('accepts lower case and any separators', () => {
+    const code = encodeCode(123_456_789);
+    const [a, b] = [code.slice(0, 4), code.slice(4)];
+    for (const typed of [code.toLowerCase(), `${a}-${b}`, `${a} ${b}`, `${a}.${b}`, `${a}_${b}`, `${a}/${b}`, ` ${a.toLowerCase()}–${b} `])
+      expect(verifyCode(typed)).toEqual({ ok: true, code });
+  });
+
+  it('reads six data symbols as the code when its check symbol is * ~ $ or =', () => {
+    let found = 0;
+    for (let n = 1000; found < 4; n++) {
+      const code = encodeCode(n);
+      const check = code[6];
+      if (!'*~$='.includes(check)) continue;
+      found++;
+      expect(verifyCode(code.slice(0, 6))).toEqual({ ok: true, code });
+      expect(verifyCode(`${code.slice(0, 4)}-${code.slice(4, 6)}`.toLowerCase())).toEqual({ ok: true, code });
+    }
+  });
+
+  it('still asks for the check symbol when it is a letter or digit', () => {
+    const code = encodeCode(36); // check symbol U
+    expect(code[6]).toBe('U');
+    expect(normalizeCode(code.slice(0, 6))).toMatchObject({ ok: false, reason: 'length' });
+  });
+});

@@ -17,13 +17,32 @@ describe('text fitting for the standard fonts', () => {
   it('truncates with an ellipsis to the measured width, and leaves short text alone', () => {
     const text = 'Constant-current buck driver, 350 mA, 6–36 V in';
     expect(truncateToWidth(font, 'short', 8, 100)).toBe('short');
-    const cut = truncateToWidth(font, text, 8, 60);
+    const cut = truncateToWidth(font, text, 8, 100);
     expect(cut).toMatch(/…$/);
-    expect(font.widthOfTextAtSize(cut, 8)).toBeLessThanOrEqual(60);
-    // Maximal: one more character would not fit.
+    expect(font.widthOfTextAtSize(cut, 8)).toBeLessThanOrEqual(100);
+    // At a word boundary (issue 12: "buck driver, 1000 m" was cut mid-word), and maximal: the next
+    // whole word would not fit.
     const kept = cut.slice(0, -1);
-    const longer = text.slice(0, kept.length + 1).trimEnd() + '…';
-    expect(font.widthOfTextAtSize(longer, 8)).toBeGreaterThan(60);
+    expect(text.startsWith(kept)).toBe(true);
+    expect([' ', ',']).toContain(text[kept.length]);
+    const nextWord = text.slice(0, text.indexOf(' ', kept.length + 1)).replace(/,$/, '');
+    expect(font.widthOfTextAtSize(nextWord + '…', 8)).toBeGreaterThan(100);
+  });
+
+  it('never ends a shortened name inside a word or on a comma', () => {
+    const name = 'Constant-current buck driver, 1000 mA, 9–48 V input, potted';
+    const firstWord = font.widthOfTextAtSize('Constant-current…', 8);
+    for (const extra of [1, 8, 20, 35, 50, 70, 90]) {
+      const width = firstWord + extra;
+      const cut = truncateToWidth(font, name, 8, width);
+      expect(font.widthOfTextAtSize(cut, 8)).toBeLessThanOrEqual(width);
+      const kept = cut.replace(/…$/, '');
+      expect(cut.endsWith('…')).toBe(true);
+      expect(kept).not.toMatch(/[,\s]$/);
+      expect([' ', ',']).toContain(name[kept.length]);
+    }
+    // Only a single word wider than the box is cut inside it.
+    expect(truncateToWidth(font, 'Unbrokenpartdescription', 8, 30)).toMatch(/^Unbr\w*…$/);
   });
 
   it('wraps at spaces, breaks a word wider than the box, and caps the line count', () => {

@@ -10,6 +10,7 @@ import { ActionButton } from '@/components/loans/action-button';
 import { ReturnForm } from '@/components/loans/return-form';
 import { StatePill } from '@/components/ui/state-pill';
 import { orNotFound, pageId } from '../or-not-found';
+import { displayCode } from '@/labels/code';
 
 export const metadata = { title: 'Loan' };
 
@@ -120,7 +121,7 @@ export default async function LoanPage({ params }: { params: Promise<{ id: strin
               </span>
               <span className="muted block text-sm">
                 {[
-                  l.unitCode ? `label ${l.unitCode}` : null,
+                  l.unitCode ? `label ${displayCode(l.unitCode)}` : null,
                   l.locationName ? `from ${l.locationName}` : null,
                   l.chainRole ? `chain: ${l.chainRole}` : null,
                 ]

@@ -2,6 +2,7 @@ import Link from 'next/link';
 import { db } from '@/db';
 import { requirePageRole } from '@/lib/auth/guard';
 import { formatDateTime } from '@/lib/format';
+import { auditLine } from '@/lib/loans/audit-words';
 import { loanAudit } from '@/lib/loans/queries';
 import { loanSettings } from '@/lib/loans/settings';
 import { PageTitle } from '@/components/ui/page-title';
@@ -19,37 +20,12 @@ const ACTIONS: Record<string, string> = {
   'reminder.failed': 'Reminder not sent',
   'kit_box.built': 'Box built',
   'kit_box.refilled': 'Box refilled',
+  'kit_box.taken_out': 'Taken out of a box',
+  'kit_box.unit_swapped': 'Unit swapped in a box',
+  'kit_box.taken_apart': 'Box taken apart',
   'kit_template.created': 'Kit created',
   'kit_template.updated': 'Kit edited',
 };
-
-function summary(action: string, d: Record<string, unknown>): string {
-  const s = (k: string) => (d[k] === undefined || d[k] === null ? '' : String(d[k]));
-  switch (action) {
-    case 'loan.created':
-      return [
-        s('verdict') && `check ${s('verdict')}`,
-        d.cautionAcknowledged ? 'cautions acknowledged' : '',
-        d.onBehalf ? 'lent on behalf' : '',
-        `due ${s('dueAt').slice(0, 10)}`,
-      ]
-        .filter(Boolean)
-        .join(' · ');
-    case 'loan.override':
-      return `“${s('reason')}”`;
-    case 'loan.returned':
-      return s('status').replace('_', ' ');
-    case 'loan.renewed':
-      return `due ${s('to').slice(0, 10)}`;
-    case 'reminder.sent':
-    case 'reminder.failed':
-      return [s('kind').replace('_', ' '), s('to'), s('why')].filter(Boolean).join(' · ');
-    case 'hold.placed':
-      return s('item');
-    default:
-      return s('name');
-  }
-}
 
 export default async function LoanAuditPage({
   searchParams,
@@ -103,12 +79,14 @@ export default async function LoanAuditPage({
                 <td>
                   {r.targetType === 'loan' && r.targetId ? (
                     <Link href={`/loans/${r.targetId}`}>{ACTIONS[r.action] ?? r.action}</Link>
+                  ) : r.targetType === 'kit_box' && r.targetId ? (
+                    <Link href={`/kits/boxes/${r.targetId}`}>{ACTIONS[r.action] ?? r.action}</Link>
                   ) : (
                     (ACTIONS[r.action] ?? r.action)
                   )}
                 </td>
                 <td>{r.actor ?? 'scheduled job'}</td>
-                <td>{summary(r.action, r.detail)}</td>
+                <td>{auditLine(r, timeZone)}</td>
               </tr>
             ))}
           </tbody>

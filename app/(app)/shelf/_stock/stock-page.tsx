@@ -2,6 +2,8 @@ import { db } from '@/db';
 import { requirePageRole } from '@/lib/auth/guard';
 import { listLocations } from '@/lib/inventory/locations';
 import { findPartSummary } from '@/lib/inventory/scope';
+import { chooseLayout } from '@/lib/inventory/labels';
+import { LAYOUTS } from '@/labels/layouts';
 import { PageTitle } from '@/components/ui/page-title';
 import { StockForm } from '@/components/shelf/stock-form';
 
@@ -21,9 +23,10 @@ export function stockPage(mode: 'receive' | 'move') {
   return async function StockPage({ searchParams }: { searchParams: Promise<{ part?: string }> }) {
     const ctx = await requirePageRole('steward', 'admin');
     const { part } = await searchParams;
-    const [locations, initialPart] = await Promise.all([
+    const [locations, initialPart, layoutId] = await Promise.all([
       listLocations(db, ctx),
       findPartSummary(db, ctx, part),
+      chooseLayout(db, ctx),
     ]);
     return (
       <div>
@@ -32,6 +35,7 @@ export function stockPage(mode: 'receive' | 'move') {
           mode={mode}
           locations={locations.map((l) => ({ id: l.id, name: l.name }))}
           initialPart={initialPart}
+          labels={{ layouts: LAYOUTS.map((l) => ({ id: l.id, name: l.name })), defaultLayout: layoutId }}
         />
       </div>
     );

@@ -7,8 +7,9 @@ import { CountMode } from '@/components/shelf/count-mode';
 
 export const metadata = { title: 'Stock counts' };
 
-export default async function CountsPage() {
+export default async function CountsPage({ searchParams }: { searchParams: Promise<{ count?: string }> }) {
   const ctx = await requirePageRole('steward', 'admin');
+  const { count } = await searchParams;
   const [locations, open] = await Promise.all([listLocations(db, ctx), listOpenCounts(db, ctx)]);
   return (
     <div className="max-w-4xl">
@@ -19,6 +20,7 @@ export default async function CountsPage() {
       <CountMode
         locations={locations.map((l) => ({ id: l.id, name: l.name, code: l.code }))}
         openCounts={open.map((c) => ({ id: c.id, locationName: c.locationName }))}
+        resumeId={open.some((c) => c.id === count) ? count : null}
       />
     </div>
   );

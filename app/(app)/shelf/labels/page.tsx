@@ -1,7 +1,8 @@
 import { db } from '@/db';
 import { LAYOUTS, labelsPerPage } from '@/labels/layouts';
 import { requirePageRole } from '@/lib/auth/guard';
-import { chooseLayout } from '@/lib/inventory/labels';
+import { env } from '@/lib/env';
+import { chooseLayout, labelItemsFor } from '@/lib/inventory/labels';
 import { listLocations } from '@/lib/inventory/locations';
 import { PageTitle } from '@/components/ui/page-title';
 import { LabelsPrinter } from '@/components/shelf/labels-printer';
@@ -10,7 +11,12 @@ export const metadata = { title: 'Labels' };
 
 export default async function LabelsPage() {
   const ctx = await requirePageRole('steward', 'admin');
-  const [locations, layoutId] = await Promise.all([listLocations(db, ctx), chooseLayout(db, ctx)]);
+  const [locations, layoutId, today] = await Promise.all([
+    listLocations(db, ctx),
+    chooseLayout(db, ctx),
+    // How many labels "Everything added today" makes, told before anything is generated.
+    labelItemsFor(db, ctx, { kind: 'today' }, env().APP_BASE_URL),
+  ]);
   return (
     <div className="max-w-4xl">
       <PageTitle
@@ -21,6 +27,7 @@ export default async function LabelsPage() {
         layouts={LAYOUTS.map((l) => ({ id: l.id, name: l.name, perPage: labelsPerPage(l) }))}
         defaultLayout={layoutId}
         locations={locations.map((l) => ({ id: l.id, name: l.name }))}
+        todayCount={today.length}
       />
     </div>
   );

@@ -6,6 +6,9 @@ import { formatDateTime } from '@/lib/format';
 import { getBox } from '@/lib/kits/box-detail';
 import { previewLoan } from '@/lib/loans/preview';
 import { spaceMembers } from '@/lib/loans/queries';
+import { upkeepChoices } from '@/lib/kits/upkeep';
+import { BoxUpkeep } from '@/components/kits/box-upkeep';
+import { CodeText } from '@/components/shelf/code-text';
 import { Cautions } from '@/components/kits/cautions';
 import { CheckReport } from '@/components/kits/check-report';
 import { ActionButton } from '@/components/loans/action-button';
@@ -25,6 +28,7 @@ export default async function KitBoxPage({ params }: { params: Promise<{ id: str
   const preview = await previewLoan(db, ctx, { kitBoxId: id });
   const staff = isStaff(ctx);
   const members = staff ? await spaceMembers(db, ctx) : [];
+  const upkeep = staff && box.state !== 'out' && box.state !== 'retired' ? await upkeepChoices(db, ctx, box.id) : null;
   const tz = preview.timeZone;
   const takeable = box.state === 'on_shelf' || (box.state === 'held' && box.holds.mine?.status === 'ready');
 
@@ -32,7 +36,11 @@ export default async function KitBoxPage({ params }: { params: Promise<{ id: str
     <div className="mx-auto max-w-xl space-y-4">
       <header>
         <p className="muted text-sm">
-          <Link href={`/kits/templates/${box.template.id}`}>{box.template.name}</Link> · label {box.code}
+          {/* Underlined: in muted text the link's colour alone does not stand out enough. */}
+          <Link href={`/kits/templates/${box.template.id}`} className="underline">
+            {box.template.name}
+          </Link>{' '}
+          · label <CodeText code={box.code} />
         </p>
         <div className="flex flex-wrap items-center gap-2">
           <h1 className="text-2xl font-bold tracking-tight">{box.name}</h1>
@@ -88,13 +96,12 @@ export default async function KitBoxPage({ params }: { params: Promise<{ id: str
                 {c.name}
               </span>
               <span className="muted block text-sm">
-                {[
-                  c.chainRole ? `chain: ${c.chainRole}` : null,
-                  c.keySpec || null,
-                  c.unitCode ? `label ${c.unitCode}` : null,
-                ]
-                  .filter(Boolean)
-                  .join(' · ')}
+                {[c.chainRole ? `chain: ${c.chainRole}` : null, c.keySpec || null].filter(Boolean).join(' · ')}
+                {c.unitCode ? (
+                  <>
+                    {c.chainRole || c.keySpec ? ' · ' : ''}label <CodeText code={c.unitCode} />
+                  </>
+                ) : null}
               </span>
             </li>
           ))}
@@ -122,6 +129,20 @@ export default async function KitBoxPage({ params }: { params: Promise<{ id: str
           </div>
         ) : null}
       </section>
+
+      {upkeep ? (
+        <BoxUpkeep
+          boxId={box.id}
+          contents={box.contents.map((c) => ({
+            partId: c.partId,
+            name: c.name,
+            qty: c.qty,
+            unitId: c.unitId,
+            unitCode: c.unitCode,
+          }))}
+          choices={upkeep}
+        />
+      ) : null}
 
       {box.template.teachingNotes ? (
         <details className="card">

@@ -12,10 +12,10 @@ export const POST = route({
   params: idParams,
   notFound: 'kit box',
   body: json(refillSchema.optional().transform((v) => v ?? { unitIds: [], fromLocations: [] }), refillSchema.optional()),
-  response: z.object({ refill: z.object({ added: z.array(z.looseObject({})) }) }),
+  response: z.object({ refill: z.object({ added: z.array(z.string()), removed: z.array(z.string()) }) }),
   run: async ({ ctx, params, body }) => {
     const result = await refillBox(db, ctx, params.id, body);
     if (result.readyHoldId) await notifyReadyHolds(db, [result.readyHoldId]);
-    return { refill: { added: result.added } };
+    return { refill: { added: result.added, removed: result.removed } };
   },
 });
