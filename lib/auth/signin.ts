@@ -10,6 +10,7 @@ import { sendSignInLink } from '@/lib/mail/templates';
 let dummyHash: string | undefined;
 
 /** The account is on and has at least one space whose admins have not switched its access off. */
+// across spaces: before sign-in there is no space; any space where access is on lets the person in.
 const mayEnter = (eb: ExpressionBuilder<Database, 'users'>) =>
   eb.and([
     eb('users.disabled_at', 'is', null),

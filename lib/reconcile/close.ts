@@ -1,5 +1,6 @@
 import 'server-only';
 import type { Db } from '@/db/connect';
+import { scoped } from '@/db/scoped';
 import { hasRole, type Ctx } from '@/lib/auth/roles';
 import { audit } from '@/lib/audit/log';
 import { now } from '@/lib/clock';
@@ -25,7 +26,7 @@ export async function closeMonth(
   if (monthRange(month, timeZone).to > now())
     throw new InvalidError('Check month.', { month: ['Only a month that has ended can be closed.'] });
   return db.transaction().execute(async (trx) => {
-    const pending = await trx
+    const pending = await scoped(trx, ctx)
       .selectFrom('sales')
       .select((eb) => eb.fn.countAll<number>().as('n'))
       .where('space_id', '=', ctx.spaceId)
@@ -37,7 +38,7 @@ export async function closeMonth(
         `${pending.n} card sales of this month or before still wait for the processor; settle them first.`,
       );
     const summary = { ...report.totals, rows: report.rows.length, payouts: report.payouts.length };
-    const row = await trx
+    const row = await scoped(trx, ctx)
       .insertInto('closed_periods')
       .values({
         space_id: ctx.spaceId,
