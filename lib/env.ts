@@ -35,6 +35,10 @@ const schema = z
     OHM_BENCH: flag,
     // Set to 0 to keep the scheduled jobs (reminder sweep) out of this process.
     OHM_JOBS: z.enum(['0', '1']).default('1'),
+    // How many proxies in front of the app append to X-Forwarded-For. 0 (no proxy): the sign-in throttle
+    // takes the address of the connection itself and ignores the header, which the client can write. 1: the
+    // entry the nearest proxy appended (lib/auth/throttle.ts sourceOf).
+    TRUSTED_PROXY_HOPS: z.coerce.number().int().min(0).max(10).default(0),
     // Next's own: which runtime runs instrumentation.ts.
     NEXT_RUNTIME: z.string().optional(),
   })
