@@ -10,6 +10,9 @@ export async function register(): Promise<void> {
   if (process.env.NEXT_RUNTIME === 'nodejs') {
     const { env } = await import('./lib/env');
     env();
+    // The connection's own address on every request, for the sign-in throttle (TRUSTED_PROXY_HOPS).
+    const { stampPeerAddress } = await import('./lib/auth/peer');
+    stampPeerAddress();
     const { startJobsInThisProcess } = await import('./lib/reminders/start');
     startJobsInThisProcess();
     const { startSaleJobsInThisProcess } = await import('./lib/sales/job-runner');

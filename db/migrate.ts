@@ -27,3 +27,10 @@ export async function migrateDownAll(db: Kysely<unknown>): Promise<string[]> {
   }
   return done;
 }
+
+/** Up or down to the named migration (it stays applied), e.g. for the test of a migration on old data. */
+export async function migrateTo(db: Kysely<unknown>, name: string): Promise<string[]> {
+  const { error, results } = await migrator(db).migrateTo(name);
+  if (error) throw error;
+  return (results ?? []).map((r) => `${r.migrationName}: ${r.status}`);
+}

@@ -160,6 +160,8 @@ export interface KitTemplatesTable {
 export interface KitTemplateLinesTable {
   id: Generated<string>;
   template_id: string;
+  /** Copied from the template (migration 0005_space_keys); the key to its template is (space_id, template_id). */
+  space_id: string;
   part_id: string;
   qty: Generated<number>;
   chain_role: ChainRole | null;
@@ -180,6 +182,8 @@ export interface KitBoxesTable {
 export interface KitBoxContentsTable {
   id: Generated<string>;
   kit_box_id: string;
+  /** Copied from the box (migration 0005_space_keys); the key to its box is (space_id, kit_box_id). */
+  space_id: string;
   part_id: string;
   unit_id: string | null;
   qty: Generated<number>;

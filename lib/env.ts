@@ -48,6 +48,10 @@ const schema = z
     BACKUP_DIR: z.preprocess((v) => (v === '' ? undefined : v), z.string().optional()),
     // pino's level for the app's JSON log lines.
     LOG_LEVEL: z.enum(['fatal', 'error', 'warn', 'info', 'debug', 'trace', 'silent']).default('info'),
+    // How many proxies in front of the app append to X-Forwarded-For. 0 (no proxy): the sign-in throttle
+    // takes the address of the connection itself and ignores the header, which the client can write. 1: the
+    // entry the nearest proxy appended (lib/auth/throttle.ts sourceOf).
+    TRUSTED_PROXY_HOPS: z.coerce.number().int().min(0).max(10).default(0),
     // Next's own: which runtime runs instrumentation.ts.
     NEXT_RUNTIME: z.string().optional(),
   })

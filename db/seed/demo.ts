@@ -206,7 +206,7 @@ export async function seedDemo(db: Db, clock: Date = new Date()): Promise<{ seed
           .returning('id')
           .executeTakeFirstOrThrow();
         for (const [i, [sku, qty, role]] of t.lines.entries()) {
-          await trx.insertInto('kit_template_lines').values({ template_id: tpl.id, part_id: partIds[sku], qty, chain_role: role as ChainRole | null, position: i }).execute();
+          await trx.insertInto('kit_template_lines').values({ space_id: spaceId, template_id: tpl.id, part_id: partIds[sku], qty, chain_role: role as ChainRole | null, position: i }).execute();
         }
         const boxCount = t.name.startsWith('Desk') ? 2 : 1;
         for (let b = 1; b <= boxCount; b++) {
@@ -219,11 +219,11 @@ export async function seedDemo(db: Db, clock: Date = new Date()): Promise<{ seed
             if (part.tracking === 'unit') {
               const unitId = await takeFreeUnit(trx, partIds[sku]);
               await trx.updateTable('units').set({ kit_box_id: boxId, location_id: null }).where('id', '=', unitId).execute();
-              await trx.insertInto('kit_box_contents').values({ kit_box_id: boxId, part_id: partIds[sku], unit_id: unitId, qty: 1, chain_role: role as ChainRole | null }).execute();
+              await trx.insertInto('kit_box_contents').values({ space_id: spaceId, kit_box_id: boxId, part_id: partIds[sku], unit_id: unitId, qty: 1, chain_role: role as ChainRole | null }).execute();
             } else {
               await trx.updateTable('stock').set((eb) => ({ qty: eb('qty', '-', qty) })).where('part_id', '=', partIds[sku]).where('location_id', '=', bins[part.bin]).execute();
               await trx.insertInto('stock_movements').values({ space_id: spaceId, part_id: partIds[sku], location_id: bins[part.bin], qty_delta: -qty, reason: 'kit_build', ref_type: 'kit_box', ref_id: boxId, actor_id: steward }).execute();
-              await trx.insertInto('kit_box_contents').values({ kit_box_id: boxId, part_id: partIds[sku], qty, chain_role: role as ChainRole | null }).execute();
+              await trx.insertInto('kit_box_contents').values({ space_id: spaceId, kit_box_id: boxId, part_id: partIds[sku], qty, chain_role: role as ChainRole | null }).execute();
             }
           }
           boxes.push({ id: boxId, name, template: t.name });

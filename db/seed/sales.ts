@@ -266,7 +266,7 @@ export async function seedSalesMonth(
           { idempotencyKey: `ohm-refund-${sale.id}-1` },
         );
         await db.transaction().execute(async (trx) =>
-          applyRefund(trx, await lockSale(trx, sale.id), {
+          applyRefund(trx, await lockSale(trx, opts.spaceId, sale.id), {
             processorRefundId: refund.id,
             amountMinor: refund.amount,
             lines: refundLines,

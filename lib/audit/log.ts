@@ -23,5 +23,6 @@ export function auditRow(e: AuditEntry) {
 
 /** Written inside the caller's transaction so the audit row and the change commit together. */
 export async function audit(db: Db, e: AuditEntry): Promise<void> {
+  // across spaces: the line is written for the entry's own space (null for an account-wide line).
   await db.insertInto('audit_log').values(auditRow(e)).execute();
 }

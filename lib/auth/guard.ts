@@ -43,6 +43,7 @@ export const currentCtx = cache(async (): Promise<Ctx | null> => {
   if (!claims) return null;
   // Still one query: the session must be open (not signed out, not expired), the account not switched
   // off, and only the spaces where the person's access is on count. None left: nobody.
+  // across spaces: who the caller is, with every space where their access is on (the Ctx is made here).
   const rows = await db
     .selectFrom('users')
     .innerJoin('auth_sessions', (j) =>

@@ -11,6 +11,7 @@ import { log } from '@/lib/log';
 let dummyHash: string | undefined;
 
 /** The account is on and has at least one space whose admins have not switched its access off. */
+// across spaces: before sign-in there is no space; any space where access is on lets the person in.
 const mayEnter = (eb: ExpressionBuilder<Database, 'users'>) =>
   eb.and([
     eb('users.disabled_at', 'is', null),

@@ -2,6 +2,7 @@ import 'server-only';
 import pg from 'pg';
 import { RateLimiterPostgres } from 'rate-limiter-flexible';
 import { env } from '@/lib/env';
+import { PEER_HEADER } from './peer';
 
 // Password sign-in throttling: growing waits, never a lock. Failed attempts are counted (in PostgreSQL,
 // so every app instance shares the counts) for three keys, and each failure past a free allowance makes
@@ -46,12 +47,19 @@ function limiters(): Limiters {
   return (g.ohmPasswordThrottle = { counts, waits: make('pw-wait', 1, 1) });
 }
 
-/** The address a request came from: the last X-Forwarded-For entry, added by the nearest proxy, or by
- *  Next itself from the socket when no proxy is in front. */
-export function sourceOf(headers: Record<string, unknown> | undefined): string {
-  const xff = String(headers?.['x-forwarded-for'] ?? '');
-  const last = xff.split(',').pop()?.trim().toLowerCase() ?? '';
-  return (last.startsWith('::ffff:') ? last.slice(7) : last).slice(0, 64) || 'unknown';
+/**
+ * The address a request came from. The chain is the X-Forwarded-For entries followed by the connection's
+ * own address (stamped by lib/auth/peer.ts); `hops` trusted proxies each appended one entry, so the
+ * client is `hops` places from the end. With no proxy (0) that is the connection itself, whatever the
+ * client wrote in the header. Without the stamp (a server other than `next start`), Next's own
+ * X-Forwarded-For, which it sets from the connection when the client sent none, stands in for it.
+ */
+export function sourceOf(headers: Record<string, unknown> | undefined, hops: number = env().TRUSTED_PROXY_HOPS): string {
+  const xff = String(headers?.['x-forwarded-for'] ?? '').split(',').map((s) => s.trim()).filter(Boolean);
+  const peer = String(headers?.[PEER_HEADER] ?? '').trim();
+  const chain = peer ? [...xff, peer] : xff;
+  const picked = (chain[Math.max(0, chain.length - 1 - hops)] ?? '').toLowerCase();
+  return (picked.startsWith('::ffff:') ? picked.slice(7) : picked).slice(0, 64) || 'unknown';
 }
 
 function keys(email: string, source: string): Record<Kind, string> {

@@ -1,6 +1,7 @@
 import 'server-only';
 import { createHash } from 'node:crypto';
 import type { Db } from '@/db/connect';
+import { scoped } from '@/db/scoped';
 import { audit } from '@/lib/audit/log';
 import type { Ctx } from '@/lib/auth/roles';
 import { InvalidError, NotFoundError } from '@/lib/errors';
@@ -22,7 +23,7 @@ export async function addAttachment(
   const sha256 = createHash('sha256').update(file.bytes).digest('hex');
   return inTransaction(db, async (trx) => {
     await findPart(trx, ctx, partId);
-    const row = await trx
+    const row = await scoped(trx, ctx)
       .insertInto('attachments')
       .values({
         space_id: ctx.spaceId,
@@ -50,7 +51,7 @@ export async function addAttachment(
 
 export async function getAttachment(db: Db, ctx: Pick<Ctx, 'spaceId'>, id: string) {
   assertId(id, 'attachment');
-  const row = await db
+  const row = await scoped(db, ctx)
     .selectFrom('attachments')
     .select(['id', 'filename', 'mime', 'size_bytes', 'data', 'part_id'])
     .where('id', '=', id)
@@ -63,7 +64,7 @@ export async function getAttachment(db: Db, ctx: Pick<Ctx, 'spaceId'>, id: strin
 export async function deleteAttachment(db: Db, ctx: Ctx, id: string) {
   assertId(id, 'attachment');
   return inTransaction(db, async (trx) => {
-    const row = await trx
+    const row = await scoped(trx, ctx)
       .deleteFrom('attachments')
       .where('id', '=', id)
       .where('space_id', '=', ctx.spaceId)

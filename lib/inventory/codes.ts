@@ -1,5 +1,6 @@
 import 'server-only';
 import type { Db } from '@/db/connect';
+import { scoped } from '@/db/scoped';
 import type { LabelKind } from '@/db/types';
 import { newCode } from '@/labels/code';
 
@@ -9,7 +10,7 @@ import { newCode } from '@/labels/code';
  */
 export async function issueCode(db: Db, spaceId: string, kind: LabelKind, targetId: string): Promise<string> {
   for (let attempt = 0; attempt < 10; attempt++) {
-    const row = await db
+    const row = await scoped(db, { spaceId })
       .insertInto('label_codes')
       .values({ code: newCode(), space_id: spaceId, kind, target_id: targetId })
       .onConflict((oc) => oc.column('code').doNothing())
@@ -32,7 +33,7 @@ export async function issueCodes(
     if (attempt >= 10) throw new Error('issueCodes: no free label codes after 10 rounds');
     const wanted = targetIds.filter((id) => !codes.has(id)).map((id) => ({ id, code: newCode() }));
     const unique = [...new Map(wanted.map((w) => [w.code, w])).values()];
-    const rows = await db
+    const rows = await scoped(db, { spaceId })
       .insertInto('label_codes')
       .values(unique.map((w) => ({ code: w.code, space_id: spaceId, kind, target_id: w.id })))
       .onConflict((oc) => oc.column('code').doNothing())

@@ -1,6 +1,7 @@
 import 'server-only';
 import type { z } from 'zod';
 import type { Db } from '@/db/connect';
+import { scoped } from '@/db/scoped';
 import { audit } from '@/lib/audit/log';
 import type { Ctx } from '@/lib/auth/roles';
 import { now } from '@/lib/clock';
@@ -19,8 +20,8 @@ export async function openCount(db: Db, ctx: Ctx, locationId: string) {
   return inTransaction(db, async (trx) => {
     // Lock the location row so two stewards opening at once end up with one count.
     await findLocation(trx, ctx, locationId);
-    await trx.selectFrom('locations').select('id').where('id', '=', locationId).forUpdate().execute();
-    const open = await trx
+    await scoped(trx, ctx).selectFrom('locations').select('id').where('id', '=', locationId).forUpdate().execute();
+    const open = await scoped(trx, ctx)
       .selectFrom('stock_counts')
       .select('id')
       .where('location_id', '=', locationId)
@@ -28,7 +29,7 @@ export async function openCount(db: Db, ctx: Ctx, locationId: string) {
       .where('status', '=', 'open')
       .executeTakeFirst();
     if (open) return { id: open.id, created: false };
-    const stock = await trx
+    const stock = await scoped(trx, ctx)
       .selectFrom('stock')
       .innerJoin('parts', 'parts.id', 'stock.part_id')
       .select(['stock.part_id', 'stock.qty'])
@@ -37,7 +38,7 @@ export async function openCount(db: Db, ctx: Ctx, locationId: string) {
       .orderBy('parts.name')
       .execute();
     const lines: CountLine[] = stock.map((s) => ({ partId: s.part_id, expected: s.qty, counted: null }));
-    const row = await trx
+    const row = await scoped(trx, ctx)
       .insertInto('stock_counts')
       .values({
         space_id: ctx.spaceId,
@@ -61,7 +62,7 @@ export async function openCount(db: Db, ctx: Ctx, locationId: string) {
 
 /** Open counts of the space, newest first. */
 export async function listOpenCounts(db: Db, ctx: Pick<Ctx, 'spaceId'>) {
-  return db
+  return scoped(db, ctx)
     .selectFrom('stock_counts')
     .innerJoin('locations', 'locations.id', 'stock_counts.location_id')
     .select([
@@ -79,7 +80,7 @@ export async function listOpenCounts(db: Db, ctx: Pick<Ctx, 'spaceId'>) {
 /** A count with each line's part, the snapshot, the count, the bin's quantity now and the variance. */
 export async function getCount(db: Db, ctx: Pick<Ctx, 'spaceId'>, id: string) {
   assertId(id, 'count');
-  const count = await db
+  const count = await scoped(db, ctx)
     .selectFrom('stock_counts')
     .innerJoin('locations', 'locations.id', 'stock_counts.location_id')
     .select([
@@ -99,8 +100,8 @@ export async function getCount(db: Db, ctx: Pick<Ctx, 'spaceId'>, id: string) {
   const ids = count.lines.map((l) => l.partId);
   const [parts, stock] = ids.length
     ? await Promise.all([
-        db.selectFrom('parts').select(['id', 'name', 'sku', 'code']).where('id', 'in', ids).execute(),
-        db
+        scoped(db, ctx).selectFrom('parts').select(['id', 'name', 'sku', 'code']).where('id', 'in', ids).execute(),
+        scoped(db, ctx)
           .selectFrom('stock')
           .select(['part_id', 'qty'])
           .where('location_id', '=', count.locationId)
@@ -127,7 +128,7 @@ export async function getCount(db: Db, ctx: Pick<Ctx, 'spaceId'>, id: string) {
 
 async function lockOpenCount(trx: Db, ctx: Ctx, id: string) {
   assertId(id, 'count');
-  const count = await trx
+  const count = await scoped(trx, ctx)
     .selectFrom('stock_counts')
     .selectAll()
     .where('id', '=', id)
@@ -149,7 +150,7 @@ export async function saveCountLines(db: Db, ctx: Ctx, id: string, input: z.outp
     const lines = [...count.lines];
     const newIds = input.lines.map((l) => l.partId).filter((p) => !lines.some((l) => l.partId === p));
     if (newIds.length) {
-      const parts = await trx
+      const parts = await scoped(trx, ctx)
         .selectFrom('parts')
         .leftJoin('stock', (j) =>
           j.onRef('stock.part_id', '=', 'parts.id').on('stock.location_id', '=', count.location_id),
@@ -173,7 +174,7 @@ export async function saveCountLines(db: Db, ctx: Ctx, id: string, input: z.outp
       const target = lines.find((l) => l.partId === line.partId)!;
       target.counted = line.counted;
     }
-    await trx
+    await scoped(trx, ctx)
       .updateTable('stock_counts')
       .set({ lines: JSON.stringify(lines) })
       .where('id', '=', id)
@@ -193,7 +194,7 @@ export async function postCount(db: Db, ctx: Ctx, id: string) {
       });
     const changes: { partId: string; before: number; after: number }[] = [];
     for (const line of counted) {
-      const row = await trx
+      const row = await scoped(trx, ctx)
         .selectFrom('stock')
         .select('qty')
         .where('part_id', '=', line.partId)
@@ -202,7 +203,7 @@ export async function postCount(db: Db, ctx: Ctx, id: string) {
         .executeTakeFirst();
       const before = row?.qty ?? 0;
       if (before === line.counted) continue;
-      await trx
+      await scoped(trx, ctx)
         .insertInto('stock')
         .values({
           space_id: ctx.spaceId,
@@ -214,7 +215,7 @@ export async function postCount(db: Db, ctx: Ctx, id: string) {
           oc.columns(['part_id', 'location_id']).doUpdateSet({ qty: line.counted, updated_at: now() }),
         )
         .execute();
-      await trx
+      await scoped(trx, ctx)
         .insertInto('stock_movements')
         .values({
           space_id: ctx.spaceId,
@@ -230,7 +231,7 @@ export async function postCount(db: Db, ctx: Ctx, id: string) {
         .execute();
       changes.push({ partId: line.partId, before, after: line.counted });
     }
-    await trx
+    await scoped(trx, ctx)
       .updateTable('stock_counts')
       .set({ status: 'posted', posted_at: now() })
       .where('id', '=', id)
@@ -250,7 +251,7 @@ export async function postCount(db: Db, ctx: Ctx, id: string) {
 export async function abandonCount(db: Db, ctx: Ctx, id: string) {
   return inTransaction(db, async (trx) => {
     await lockOpenCount(trx, ctx, id);
-    await trx.updateTable('stock_counts').set({ status: 'abandoned' }).where('id', '=', id).execute();
+    await scoped(trx, ctx).updateTable('stock_counts').set({ status: 'abandoned' }).where('id', '=', id).execute();
     await audit(trx, {
       spaceId: ctx.spaceId,
       actorId: ctx.userId,

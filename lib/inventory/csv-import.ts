@@ -1,6 +1,7 @@
 import 'server-only';
 import { randomUUID } from 'node:crypto';
 import type { Db } from '@/db/connect';
+import { scoped } from '@/db/scoped';
 import { audit } from '@/lib/audit/log';
 import type { Ctx } from '@/lib/auth/roles';
 import { now } from '@/lib/clock';
@@ -15,13 +16,13 @@ import { insertUnits } from './units';
 async function importContext(db: Db, ctx: Pick<Ctx, 'spaceId'>, lock = false): Promise<ImportContext> {
   const [space, parts, locations] = await Promise.all([
     db.selectFrom('spaces').select('currency').where('id', '=', ctx.spaceId).executeTakeFirstOrThrow(),
-    db
+    scoped(db, ctx)
       .selectFrom('parts')
       .select(['id', 'sku', 'category', 'tracking', 'specs'])
       .where('space_id', '=', ctx.spaceId)
       .$if(lock, (qb) => qb.forUpdate())
       .execute(),
-    db.selectFrom('locations').select(['id', 'code', 'name']).where('space_id', '=', ctx.spaceId).execute(),
+    scoped(db, ctx).selectFrom('locations').select(['id', 'code', 'name']).where('space_id', '=', ctx.spaceId).execute(),
   ]);
   const locs = new Map<string, string>();
   for (const l of locations) {
@@ -57,7 +58,7 @@ export async function commitImport(db: Db, ctx: Ctx, csv: string) {
       if (r.action === 'create') {
         partId = randomUUID();
         const code = await issueCode(trx, ctx.spaceId, 'part', partId);
-        await trx
+        await scoped(trx, ctx)
           .insertInto('parts')
           .values({
             id: partId,
@@ -78,7 +79,7 @@ export async function commitImport(db: Db, ctx: Ctx, csv: string) {
           .execute();
         created++;
       } else {
-        await trx
+        await scoped(trx, ctx)
           .updateTable('parts')
           .set({
             updated_at: now(),
@@ -112,7 +113,7 @@ export async function commitImport(db: Db, ctx: Ctx, csv: string) {
       }
     }
     // A bought-in part list with a sellable line and no price slips past the row check only for existing parts.
-    const unpriced = await trx
+    const unpriced = await scoped(trx, ctx)
       .selectFrom('parts')
       .select('sku')
       .where('space_id', '=', ctx.spaceId)

@@ -1,6 +1,7 @@
 import 'server-only';
 import { sql } from 'kysely';
 import type { Db } from '@/db/connect';
+import { scoped } from '@/db/scoped';
 import type { LabelKind } from '@/db/types';
 import { getLayout, LAYOUTS } from '@/labels/layouts';
 import type { LabelItem } from '@/labels/schema';
@@ -19,7 +20,7 @@ import { keySpec } from './specs';
 type LabelRef = { code: string; kind: LabelKind; target_id: string };
 
 const byCode = (db: Db, spaceId: string) =>
-  db.selectFrom('label_codes').select(['code', 'kind', 'target_id']).where('space_id', '=', spaceId);
+  scoped(db, { spaceId }).selectFrom('label_codes').select(['code', 'kind', 'target_id']).where('space_id', '=', spaceId);
 
 async function refsFor(db: Db, ctx: Pick<Ctx, 'spaceId'>, selection: LabelSelection): Promise<LabelRef[]> {
   switch (selection.kind) {
@@ -27,7 +28,7 @@ async function refsFor(db: Db, ctx: Pick<Ctx, 'spaceId'>, selection: LabelSelect
       const part = await findPart(db, ctx, selection.partId);
       const units =
         part.tracking === 'unit'
-          ? await db
+          ? await scoped(db, ctx)
               .selectFrom('units')
               .select(['code', sql<LabelKind>`'unit'`.as('kind'), 'id as target_id'])
               .where('part_id', '=', part.id)
@@ -46,13 +47,13 @@ async function refsFor(db: Db, ctx: Pick<Ctx, 'spaceId'>, selection: LabelSelect
       const loc = await findLocation(db, ctx, selection.locationId);
       const own = loc.code ? [{ code: loc.code, kind: 'location' as const, target_id: loc.id }] : [];
       if (!selection.contents) return own;
-      const contents = await db
+      const contents = await scoped(db, ctx)
         .selectFrom('units')
         .select(['code', sql<LabelKind>`'unit'`.as('kind'), 'id as target_id'])
         .where('location_id', '=', loc.id)
         .where('state', '<>', 'retired')
         .unionAll(
-          db
+          scoped(db, ctx)
             .selectFrom('stock')
             .innerJoin('parts', 'parts.id', 'stock.part_id')
             .select([
@@ -65,7 +66,7 @@ async function refsFor(db: Db, ctx: Pick<Ctx, 'spaceId'>, selection: LabelSelect
             .where('parts.code', 'is not', null),
         )
         .unionAll(
-          db
+          scoped(db, ctx)
             .selectFrom('kit_boxes')
             .select(['code', sql<LabelKind>`'kit_box'`.as('kind'), 'id as target_id'])
             .where('location_id', '=', loc.id)
@@ -127,7 +128,7 @@ async function describeAll(
   const none = Promise.resolve([]);
   const [units, parts, locations, boxes] = await Promise.all([
     ids('unit').length
-      ? db
+      ? scoped(db, { spaceId })
           .selectFrom('units')
           .innerJoin('parts', 'parts.id', 'units.part_id')
           .select(['units.id', 'parts.name', 'parts.sku', 'parts.category', 'parts.specs'])
@@ -136,7 +137,7 @@ async function describeAll(
           .execute()
       : none,
     ids('part').length
-      ? db
+      ? scoped(db, { spaceId })
           .selectFrom('parts')
           .select(['id', 'name', 'sku', 'category', 'specs'])
           .where('id', 'in', ids('part'))
@@ -144,7 +145,7 @@ async function describeAll(
           .execute()
       : none,
     ids('location').length
-      ? db
+      ? scoped(db, { spaceId })
           .selectFrom('locations')
           .select(['id', 'name', 'kind'])
           .where('id', 'in', ids('location'))
@@ -152,7 +153,7 @@ async function describeAll(
           .execute()
       : none,
     ids('kit_box').length
-      ? db
+      ? scoped(db, { spaceId })
           .selectFrom('kit_boxes')
           .innerJoin('kit_templates', 'kit_templates.id', 'kit_boxes.template_id')
           .select(['kit_boxes.id', 'kit_boxes.name', 'kit_templates.name as template'])

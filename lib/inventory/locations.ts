@@ -3,6 +3,7 @@ import { randomUUID } from 'node:crypto';
 import { sql } from 'kysely';
 import type { z } from 'zod';
 import type { Db } from '@/db/connect';
+import { scoped } from '@/db/scoped';
 import { audit } from '@/lib/audit/log';
 import type { Ctx } from '@/lib/auth/roles';
 import { ConflictError, InvalidError, NotFoundError } from '@/lib/errors';
@@ -18,7 +19,7 @@ const NAME_TAKEN = (name: string) =>
 
 /** Every bin, shelf and drawer of the space with what it holds. */
 export async function listLocations(db: Db, ctx: Pick<Ctx, 'spaceId'>) {
-  return db
+  return scoped(db, ctx)
     .selectFrom('locations')
     .leftJoin('locations as parent', 'parent.id', 'locations.parent_id')
     .select([
@@ -51,7 +52,7 @@ export async function listLocations(db: Db, ctx: Pick<Ctx, 'spaceId'>) {
 export async function getLocation(db: Db, ctx: Pick<Ctx, 'spaceId'>, id: string) {
   const location = await findLocation(db, ctx, id);
   const [stock, units, boxes] = await Promise.all([
-    db
+    scoped(db, ctx)
       .selectFrom('stock')
       .innerJoin('parts', 'parts.id', 'stock.part_id')
       .select(['parts.id as partId', 'parts.name', 'parts.sku', 'stock.qty'])
@@ -59,7 +60,7 @@ export async function getLocation(db: Db, ctx: Pick<Ctx, 'spaceId'>, id: string)
       .where('stock.qty', '>', 0)
       .orderBy('parts.name')
       .execute(),
-    db
+    scoped(db, ctx)
       .selectFrom('units')
       .innerJoin('parts', 'parts.id', 'units.part_id')
       .select(['units.id', 'units.code', 'units.serial', 'units.state', 'parts.id as partId', 'parts.name'])
@@ -68,7 +69,7 @@ export async function getLocation(db: Db, ctx: Pick<Ctx, 'spaceId'>, id: string)
       .orderBy('parts.name')
       .orderBy('units.serial')
       .execute(),
-    db
+    scoped(db, ctx)
       .selectFrom('kit_boxes')
       .select(['id', 'name', 'code', 'state'])
       .where('location_id', '=', id)
@@ -92,7 +93,7 @@ export async function createLocation(db: Db, ctx: Ctx, input: z.output<typeof lo
     const id = randomUUID();
     const code = await issueCode(trx, ctx.spaceId, 'location', id);
     try {
-      await trx
+      await scoped(trx, ctx)
         .insertInto('locations')
         .values({
           id,
@@ -135,7 +136,7 @@ export async function updateLocation(
     };
     if (!Object.keys(set).length) return { id };
     try {
-      await trx
+      await scoped(trx, ctx)
         .updateTable('locations')
         .set(set)
         .where('id', '=', id)
@@ -161,7 +162,7 @@ export async function updateLocation(
 export async function deleteLocation(db: Db, ctx: Ctx, id: string) {
   assertId(id, 'location');
   return inTransaction(db, async (trx) => {
-    const loc = await trx
+    const loc = await scoped(trx, ctx)
       .selectFrom('locations')
       .selectAll()
       .where('id', '=', id)
@@ -169,26 +170,26 @@ export async function deleteLocation(db: Db, ctx: Ctx, id: string) {
       .forUpdate()
       .executeTakeFirst();
     if (!loc) throw new NotFoundError('No such location.');
-    const busy = await trx
+    const busy = await scoped(trx, ctx)
       .selectFrom('stock')
       .select(sql<string>`'stock'`.as('what'))
       .where('location_id', '=', id)
       .where('qty', '>', 0)
       .unionAll(
-        trx
+        scoped(trx, ctx)
           .selectFrom('units')
           .select(sql<string>`'units'`.as('what'))
           .where('location_id', '=', id)
           .where('state', '<>', 'retired'),
       )
       .unionAll(
-        trx
+        scoped(trx, ctx)
           .selectFrom('kit_boxes')
           .select(sql<string>`'kit boxes'`.as('what'))
           .where('location_id', '=', id),
       )
       .unionAll(
-        trx
+        scoped(trx, ctx)
           .selectFrom('stock_counts')
           .select(sql<string>`'an open count'`.as('what'))
           .where('location_id', '=', id)
@@ -200,8 +201,8 @@ export async function deleteLocation(db: Db, ctx: Ctx, id: string) {
       throw new ConflictError(`"${loc.name}" still holds ${busy.what}; empty it first.`, {
         id: [`still holds ${busy.what}`],
       });
-    await trx.deleteFrom('stock').where('location_id', '=', id).execute();
-    await trx.deleteFrom('locations').where('id', '=', id).execute();
+    await scoped(trx, ctx).deleteFrom('stock').where('location_id', '=', id).execute();
+    await scoped(trx, ctx).deleteFrom('locations').where('id', '=', id).execute();
     await audit(trx, {
       spaceId: ctx.spaceId,
       actorId: ctx.userId,

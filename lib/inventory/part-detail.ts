@@ -1,5 +1,6 @@
 import 'server-only';
 import type { Db } from '@/db/connect';
+import { scoped } from '@/db/scoped';
 import type { Ctx } from '@/lib/auth/roles';
 import { findPart } from './scope';
 import { keySpec } from './specs';
@@ -8,7 +9,7 @@ import { keySpec } from './specs';
 export async function getPartDetail(db: Db, ctx: Pick<Ctx, 'spaceId'>, partId: string, historyLimit = 100) {
   const part = await findPart(db, ctx, partId);
   const [stock, units, movements, attachments, space] = await Promise.all([
-    db
+    scoped(db, ctx)
       .selectFrom('stock')
       .innerJoin('locations', 'locations.id', 'stock.location_id')
       .select([
@@ -21,7 +22,7 @@ export async function getPartDetail(db: Db, ctx: Pick<Ctx, 'spaceId'>, partId: s
       .where('stock.part_id', '=', part.id)
       .orderBy('locations.name')
       .execute(),
-    db
+    scoped(db, ctx)
       .selectFrom('units')
       .leftJoin('locations', 'locations.id', 'units.location_id')
       .leftJoin('kit_boxes', 'kit_boxes.id', 'units.kit_box_id')
@@ -41,7 +42,7 @@ export async function getPartDetail(db: Db, ctx: Pick<Ctx, 'spaceId'>, partId: s
       .orderBy('units.serial')
       .orderBy('units.created_at')
       .execute(),
-    db
+    scoped(db, ctx)
       .selectFrom('stock_movements as m')
       .leftJoin('locations', 'locations.id', 'm.location_id')
       .leftJoin('users', 'users.id', 'm.actor_id')
@@ -64,7 +65,7 @@ export async function getPartDetail(db: Db, ctx: Pick<Ctx, 'spaceId'>, partId: s
       .orderBy('m.id', 'desc')
       .limit(historyLimit)
       .execute(),
-    db
+    scoped(db, ctx)
       .selectFrom('attachments')
       .select(['id', 'filename', 'mime', 'size_bytes as sizeBytes', 'created_at as createdAt'])
       .where('part_id', '=', part.id)

@@ -1,6 +1,7 @@
 import 'server-only';
 import { sql, type Expression, type SqlBool } from 'kysely';
 import type { Db } from '@/db/connect';
+import { scoped } from '@/db/scoped';
 import type { PartCategory } from '@/db/types';
 import { verifyCode } from '@/labels/code';
 import type { Ctx } from '@/lib/auth/roles';
@@ -40,14 +41,14 @@ const escapeLike = (s: string) => s.replace(/[\\%_]/g, (c) => `\\${c}`);
 
 /** Stock summed over bins, per part of the space (one pass over the space's stock rows). */
 const stockTotals = (db: Db, spaceId: string) =>
-  db
+  scoped(db, { spaceId })
     .selectFrom('stock')
     .select(['part_id', sql<number>`sum(qty)::int`.as('n')])
     .where('space_id', '=', spaceId)
     .groupBy('part_id');
 /** Labelled units on the shelf, per part of the space. */
 const shelfUnits = (db: Db, spaceId: string) =>
-  db
+  scoped(db, { spaceId })
     .selectFrom('units')
     .select(['part_id', sql<number>`count(*)::int`.as('n')])
     .where('space_id', '=', spaceId)
@@ -60,7 +61,7 @@ const shelfUnits = (db: Db, spaceId: string) =>
  * so a name-ordered page stops after its first 50 hits.
  */
 function filtered(db: Db, ctx: Pick<Ctx, 'spaceId'>, q: PartListQuery, withOnHand: boolean) {
-  let qb = db
+  let qb = scoped(db, ctx)
     .selectFrom('parts')
     .$if(withOnHand, (qb) =>
       qb
@@ -88,7 +89,7 @@ function filtered(db: Db, ctx: Pick<Ctx, 'spaceId'>, q: PartListQuery, withOnHan
       .where('parts.tracking', '=', 'counted')
       .where('parts.reorder_point', '>', 0)
       .where(
-        sql<SqlBool>`(select coalesce(sum(s.qty), 0) from stock s where s.part_id = parts.id) < parts.reorder_point`,
+        sql<SqlBool>`(select coalesce(sum(s.qty), 0) from stock s where s.space_id = parts.space_id and s.part_id = parts.id) < parts.reorder_point`,
       );
   }
   return qb;
@@ -104,9 +105,9 @@ const SORT_SQL: Record<PartSort, ReturnType<typeof sql>> = {
 };
 
 /** The page's rows with their stock figures, in the order of `ids`. */
-async function rowsFor(db: Db, ids: string[]): Promise<PartRow[]> {
+async function rowsFor(db: Db, spaceId: string, ids: string[]): Promise<PartRow[]> {
   if (!ids.length) return [];
-  const rows = await db
+  const rows = await scoped(db, { spaceId })
     .selectFrom('parts')
     .select([
       'parts.id',
@@ -199,7 +200,7 @@ export async function listParts(db: Db, ctx: Pick<Ctx, 'spaceId'>, q: PartListQu
     db.selectFrom('spaces').select('currency').where('id', '=', ctx.spaceId).executeTakeFirstOrThrow(),
   ]);
   return {
-    rows: await rowsFor(db, ids),
+    rows: await rowsFor(db, ctx.spaceId, ids),
     total: count.n,
     page: q.page,
     pageSize: q.pageSize,
@@ -216,7 +217,7 @@ export async function allMatchingParts(
 ): Promise<PartRow[]> {
   const ids = await pageIds(db, ctx, q, 0, cap);
   const rows: PartRow[] = [];
-  for (let i = 0; i < ids.length; i += 1000) rows.push(...(await rowsFor(db, ids.slice(i, i + 1000))));
+  for (let i = 0; i < ids.length; i += 1000) rows.push(...(await rowsFor(db, ctx.spaceId, ids.slice(i, i + 1000))));
   return rows;
 }
 

@@ -2,6 +2,7 @@ import 'server-only';
 import { randomUUID } from 'node:crypto';
 import type { z } from 'zod';
 import type { Db } from '@/db/connect';
+import { scoped } from '@/db/scoped';
 import type { PartUpdate } from '@/db/types';
 import { audit } from '@/lib/audit/log';
 import type { Ctx } from '@/lib/auth/roles';
@@ -48,7 +49,7 @@ export async function createPart(db: Db, ctx: Ctx, input: PartCreate) {
     const id = randomUUID();
     const code = await issueCode(trx, ctx.spaceId, 'part', id);
     try {
-      await trx
+      await scoped(trx, ctx)
         .insertInto('parts')
         .values({
           id,
@@ -91,7 +92,7 @@ export async function createPart(db: Db, ctx: Ctx, input: PartCreate) {
 export async function updatePart(db: Db, ctx: Ctx, id: string, patch: PartPatch) {
   assertId(id, 'part');
   return inTransaction(db, async (trx) => {
-    const current = await trx
+    const current = await scoped(trx, ctx)
       .selectFrom('parts')
       .selectAll()
       .where('id', '=', id)
@@ -111,13 +112,13 @@ export async function updatePart(db: Db, ctx: Ctx, id: string, patch: PartPatch)
       set.category = category;
     }
     if (patch.tracking !== undefined && patch.tracking !== current.tracking) {
-      const held = await trx
+      const held = await scoped(trx, ctx)
         .selectFrom('stock')
         .select('qty')
         .where('part_id', '=', id)
         .where('qty', '>', 0)
         .unionAll(
-          trx
+          scoped(trx, ctx)
             .selectFrom('units')
             .select((eb) => eb.lit(1).as('qty'))
             .where('part_id', '=', id),
@@ -147,7 +148,7 @@ export async function updatePart(db: Db, ctx: Ctx, id: string, patch: PartPatch)
       set.archived_at = patch.archived ? (current.archived_at ?? now()) : null;
 
     try {
-      await trx.updateTable('parts').set(set).where('id', '=', id).execute();
+      await scoped(trx, ctx).updateTable('parts').set(set).where('id', '=', id).execute();
     } catch (err) {
       if (isUniqueViolation(err, 'parts_space_sku_uq')) throw SKU_TAKEN(patch.sku ?? current.sku);
       throw err;

@@ -1,6 +1,7 @@
 import 'server-only';
 import { sql } from 'kysely';
 import type { Db } from '@/db/connect';
+import { scoped } from '@/db/scoped';
 import type { LabelKind } from '@/db/types';
 import { codeFromScan } from '@/labels/url';
 import type { Ctx } from '@/lib/auth/roles';
@@ -40,7 +41,7 @@ export function hrefFor(
  * hottest read in the product). A label whose item is gone comes back with a null name.
  */
 function labelsWithTargets(db: Db, spaceId: string, codes: string[]) {
-  return db
+  return scoped(db, { spaceId })
     .selectFrom('label_codes as lc')
     .leftJoin('units as u', (j) =>
       j.onRef('u.id', '=', 'lc.target_id').on('lc.kind', '=', 'unit').onRef('u.space_id', '=', 'lc.space_id'),

@@ -1,5 +1,6 @@
 import 'server-only';
 import type { Db } from '@/db/connect';
+import { scoped } from '@/db/scoped';
 import type { Ctx } from '@/lib/auth/roles';
 import { NotFoundError } from '@/lib/errors';
 import { isId } from '@/lib/ids';
@@ -14,7 +15,7 @@ export function assertId(id: string, what = 'record'): void {
 
 export async function findPart(db: Db, ctx: Scope, id: string) {
   assertId(id, 'part');
-  const part = await db
+  const part = await scoped(db, ctx)
     .selectFrom('parts')
     .selectAll()
     .where('id', '=', id)
@@ -26,7 +27,7 @@ export async function findPart(db: Db, ctx: Scope, id: string) {
 
 export async function findLocation(db: Db, ctx: Scope, id: string) {
   assertId(id, 'location');
-  const loc = await db
+  const loc = await scoped(db, ctx)
     .selectFrom('locations')
     .selectAll()
     .where('id', '=', id)
@@ -39,7 +40,7 @@ export async function findLocation(db: Db, ctx: Scope, id: string) {
 /** A part's name, SKU and tracking when `id` names one in the space (for a form's preselected part); else null. */
 export async function findPartSummary(db: Db, ctx: Scope, id: string | undefined) {
   if (!isId(id)) return null;
-  const p = await db
+  const p = await scoped(db, ctx)
     .selectFrom('parts')
     .select(['id', 'name', 'sku', 'tracking'])
     .where('id', '=', id)

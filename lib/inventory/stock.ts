@@ -1,6 +1,7 @@
 import 'server-only';
 import type { z } from 'zod';
 import type { Db } from '@/db/connect';
+import { scoped } from '@/db/scoped';
 import type { MovementReason } from '@/db/types';
 import { audit } from '@/lib/audit/log';
 import type { Ctx } from '@/lib/auth/roles';
@@ -32,7 +33,7 @@ export async function addToBin(
   locationId: string,
   n: number,
 ): Promise<number> {
-  const row = await trx
+  const row = await scoped(trx, ctx)
     .insertInto('stock')
     .values({ space_id: ctx.spaceId, part_id: partId, location_id: locationId, qty: n })
     .onConflict((oc) =>
@@ -54,7 +55,7 @@ async function takeFromBin(
   n: number,
   field: string,
 ): Promise<number> {
-  const row = await trx
+  const row = await scoped(trx, ctx)
     .updateTable('stock')
     .set((eb) => ({ qty: eb('qty', '-', n), updated_at: now() }))
     .where('part_id', '=', partId)
@@ -64,7 +65,7 @@ async function takeFromBin(
     .returning('qty')
     .executeTakeFirst();
   if (row) return row.qty;
-  const have = await trx
+  const have = await scoped(trx, ctx)
     .selectFrom('stock')
     .select('qty')
     .where('part_id', '=', partId)
@@ -88,7 +89,7 @@ export async function recordMovement(
     refId?: string;
   },
 ) {
-  await trx
+  await scoped(trx, ctx)
     .insertInto('stock_movements')
     .values({
       space_id: ctx.spaceId,
@@ -135,7 +136,7 @@ export async function moveStock(db: Db, ctx: Ctx, input: z.output<typeof moveSch
     await countedPart(trx, ctx, input.partId);
     await findLocation(trx, ctx, input.fromLocationId);
     await findLocation(trx, ctx, input.toLocationId);
-    await trx
+    await scoped(trx, ctx)
       .selectFrom('stock')
       .select('location_id')
       .where('part_id', '=', input.partId)

@@ -2,6 +2,7 @@ import 'server-only';
 import { randomUUID } from 'node:crypto';
 import type { z } from 'zod';
 import type { Db } from '@/db/connect';
+import { scoped } from '@/db/scoped';
 import type { UnitState } from '@/db/types';
 import { audit } from '@/lib/audit/log';
 import type { Ctx } from '@/lib/auth/roles';
@@ -21,7 +22,7 @@ export async function insertUnits(
   locationId: string | null,
   serialPrefix?: string,
 ): Promise<{ id: string; code: string }[]> {
-  const existing = await trx
+  const existing = await scoped(trx, ctx)
     .selectFrom('units')
     .select((eb) => eb.fn.countAll<number>().as('n'))
     .where('part_id', '=', part.id)
@@ -29,7 +30,7 @@ export async function insertUnits(
   const ids = Array.from({ length: count }, () => randomUUID());
   const codes = await issueCodes(trx, ctx.spaceId, 'unit', ids);
   const prefix = serialPrefix || part.sku;
-  await trx
+  await scoped(trx, ctx)
     .insertInto('units')
     .values(
       ids.map((id, i) => ({
@@ -42,7 +43,7 @@ export async function insertUnits(
       })),
     )
     .execute();
-  await trx
+  await scoped(trx, ctx)
     .insertInto('stock_movements')
     .values(
       ids.map((id) => ({
@@ -114,7 +115,7 @@ export async function changeUnitState(
 ) {
   assertId(unitId, 'unit');
   return inTransaction(db, async (trx) => {
-    const unit = await trx
+    const unit = await scoped(trx, ctx)
       .selectFrom('units')
       .selectAll()
       .where('id', '=', unitId)
@@ -140,12 +141,12 @@ export async function changeUnitState(
     }
     const locationId = input.locationId === undefined ? unit.location_id : input.locationId;
     if (locationId && locationId !== unit.location_id) await findLocation(trx, ctx, locationId);
-    await trx
+    await scoped(trx, ctx)
       .updateTable('units')
       .set({ state: input.state, notes: input.reason, location_id: locationId, updated_at: now() })
       .where('id', '=', unit.id)
       .execute();
-    await trx
+    await scoped(trx, ctx)
       .insertInto('stock_movements')
       .values({
         space_id: ctx.spaceId,
@@ -173,7 +174,7 @@ export async function changeUnitState(
 /** Puts a unit in another bin; its state does not change. */
 export async function moveUnit(db: Db, ctx: Ctx, input: z.output<typeof moveUnitSchema>) {
   return inTransaction(db, async (trx) => {
-    const unit = await trx
+    const unit = await scoped(trx, ctx)
       .selectFrom('units')
       .selectAll()
       .where('id', '=', input.unitId)
@@ -195,12 +196,12 @@ export async function moveUnit(db: Db, ctx: Ctx, input: z.output<typeof moveUnit
       throw new InvalidError('The unit is in that bin already.', {
         toLocationId: ['the unit is there already'],
       });
-    await trx
+    await scoped(trx, ctx)
       .updateTable('units')
       .set({ location_id: input.toLocationId, updated_at: now() })
       .where('id', '=', unit.id)
       .execute();
-    await trx
+    await scoped(trx, ctx)
       .insertInto('stock_movements')
       .values([
         {
@@ -239,7 +240,7 @@ export async function moveUnit(db: Db, ctx: Ctx, input: z.output<typeof moveUnit
 
 /** Units waiting for repair, with the note and since when. */
 export async function listRepairs(db: Db, ctx: Ctx) {
-  return db
+  return scoped(db, ctx)
     .selectFrom('units')
     .innerJoin('parts', 'parts.id', 'units.part_id')
     .leftJoin('locations', 'locations.id', 'units.location_id')

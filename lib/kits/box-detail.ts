@@ -1,5 +1,6 @@
 import 'server-only';
 import type { Db } from '@/db/connect';
+import { scoped } from '@/db/scoped';
 import type { UnitState } from '@/db/types';
 import { isStaff, type Ctx } from '@/lib/auth/roles';
 import { NotFoundError } from '@/lib/errors';
@@ -37,15 +38,15 @@ export async function getBox(db: Db, ctx: Ctx, kitBoxId: string): Promise<BoxDet
     .where('kit_boxes.id', '=', kitBoxId)
     .executeTakeFirst();
   if (!box) throw new NotFoundError('No such kit box.');
-  const lines = await boxLines(db, box.id);
-  const loan = await db
+  const lines = await boxLines(db, ctx.spaceId, box.id);
+  const loan = await scoped(db, ctx)
     .selectFrom('loans')
     .innerJoin('users', 'users.id', 'loans.borrower_id')
     .select(['loans.id', 'loans.due_at', 'loans.borrower_id', 'users.name'])
     .where('loans.kit_box_id', '=', box.id)
     .where('loans.status', '=', 'out')
     .executeTakeFirst();
-  const holds = await db
+  const holds = await scoped(db, ctx)
     .selectFrom('holds')
     .select(['id', 'user_id', 'status'])
     .where('kit_box_id', '=', box.id)
@@ -76,7 +77,7 @@ export async function getBox(db: Db, ctx: Ctx, kitBoxId: string): Promise<BoxDet
       chainRole: l.chainRole,
       keySpec: keySpec(l.category, l.specs),
     })),
-    shortfall: await boxShortfall(db, box.id, box.templateId),
+    shortfall: await boxShortfall(db, ctx.spaceId, box.id, box.templateId),
     loan: loan
       ? {
           id: seeWho(loan.borrower_id) ? loan.id : null,

@@ -1,6 +1,7 @@
 import 'server-only';
 import { sql } from 'kysely';
 import type { Db } from '@/db/connect';
+import { scoped } from '@/db/scoped';
 import type { ChainRole, UnitState } from '@/db/types';
 import { newCode } from '@/labels/code';
 import { audit } from '@/lib/audit/log';
@@ -30,7 +31,7 @@ export type BoxSummary = {
 
 export async function listBoxes(db: Db, ctx: Ctx, opts: { templateId?: string } = {}): Promise<BoxSummary[]> {
   let q = boxesOfSpace(db, ctx.spaceId).select(
-    sql<Date | null>`(select l.due_at from loans l where l.kit_box_id = kit_boxes.id and l.status = 'out' limit 1)`.as(
+    sql<Date | null>`(select l.due_at from loans l where l.space_id = kit_boxes.space_id and l.kit_box_id = kit_boxes.id and l.status = 'out' limit 1)`.as(
       'dueAt',
     ),
   );
@@ -41,16 +42,17 @@ export async function listBoxes(db: Db, ctx: Ctx, opts: { templateId?: string } 
 /** Lines of the template the box lacks (after a short return, or a template edited since). */
 export async function boxShortfall(
   db: Db,
+  spaceId: string,
   kitBoxId: string,
   templateId: string,
 ): Promise<{ partId: string; name: string; missing: number }[]> {
-  const rows = await db
+  const rows = await scoped(db, { spaceId })
     .selectFrom('kit_template_lines as l')
     .innerJoin('parts', 'parts.id', 'l.part_id')
     .select([
       'l.part_id as partId',
       'parts.name',
-      sql<number>`(l.qty - coalesce((select sum(c.qty) from kit_box_contents c where c.kit_box_id = ${kitBoxId} and c.part_id = l.part_id), 0))::int`.as(
+      sql<number>`(l.qty - coalesce((select sum(c.qty) from kit_box_contents c where c.space_id = l.space_id and c.kit_box_id = ${kitBoxId} and c.part_id = l.part_id), 0))::int`.as(
         'missing',
       ),
     ])
@@ -70,7 +72,7 @@ async function fillBox(
   picks: Picks,
 ): Promise<string[]> {
   const at = now();
-  const lines = await trx
+  const lines = await scoped(trx, ctx)
     .selectFrom('kit_template_lines as l')
     .innerJoin('parts', 'parts.id', 'l.part_id')
     .select(['l.part_id as partId', 'l.qty', 'l.chain_role as chainRole', 'parts.name', 'parts.tracking'])
@@ -80,7 +82,7 @@ async function fillBox(
   const unused = new Set(picks.unitIds);
   const added: string[] = [];
   for (const line of lines) {
-    const have = await trx
+    const have = await scoped(trx, ctx)
       .selectFrom('kit_box_contents')
       .select(sql<number>`coalesce(sum(qty), 0)::int`.as('n'))
       .where('kit_box_id', '=', box.id)
@@ -120,7 +122,7 @@ async function takeUnits(
   at: Date,
 ) {
   const ofPart = () =>
-    trx
+    scoped(trx, ctx)
       .selectFrom('units')
       .select(['id', 'code', 'state', 'kit_box_id'])
       .where('space_id', '=', ctx.spaceId)
@@ -155,15 +157,16 @@ async function takeUnits(
     throw new ConflictError(`Not enough free units of ${line.name} (need ${need}).`, {
       unitIds: [`short of ${line.name}`],
     });
-  await trx
+  await scoped(trx, ctx)
     .updateTable('units')
     .set({ kit_box_id: boxId, location_id: null, updated_at: at })
     .where('id', 'in', units)
     .execute();
-  await trx
+  await scoped(trx, ctx)
     .insertInto('kit_box_contents')
     .values(
       units.map((u) => ({
+        space_id: ctx.spaceId,
         kit_box_id: boxId,
         part_id: line.partId,
         unit_id: u,
@@ -172,7 +175,7 @@ async function takeUnits(
       })),
     )
     .execute();
-  await trx
+  await scoped(trx, ctx)
     .insertInto('stock_movements')
     .values(
       units.map((u) => ({
@@ -202,7 +205,7 @@ async function takeCounted(
   const from =
     locationId ??
     (
-      await trx
+      await scoped(trx, ctx)
         .selectFrom('stock')
         .select('location_id')
         .where('space_id', '=', ctx.spaceId)
@@ -216,7 +219,7 @@ async function takeCounted(
     throw new ConflictError(`No bin holds ${need} of ${line.name}.`, {
       fromLocations: [`short of ${line.name}`],
     });
-  const left = await trx
+  const left = await scoped(trx, ctx)
     .updateTable('stock')
     .set((eb) => ({ qty: eb('qty', '-', need), updated_at: at }))
     .where('space_id', '=', ctx.spaceId)
@@ -229,7 +232,7 @@ async function takeCounted(
     throw new ConflictError(`That bin does not hold ${need} of ${line.name}.`, {
       fromLocations: [`short of ${line.name}`],
     });
-  const existing = await trx
+  const existing = await scoped(trx, ctx)
     .selectFrom('kit_box_contents')
     .select('id')
     .where('kit_box_id', '=', boxId)
@@ -237,17 +240,17 @@ async function takeCounted(
     .where('unit_id', 'is', null)
     .executeTakeFirst();
   if (existing)
-    await trx
+    await scoped(trx, ctx)
       .updateTable('kit_box_contents')
       .set((eb) => ({ qty: eb('qty', '+', need) }))
       .where('id', '=', existing.id)
       .execute();
   else
-    await trx
+    await scoped(trx, ctx)
       .insertInto('kit_box_contents')
-      .values({ kit_box_id: boxId, part_id: line.partId, qty: need, chain_role: line.chainRole })
+      .values({ space_id: ctx.spaceId, kit_box_id: boxId, part_id: line.partId, qty: need, chain_role: line.chainRole })
       .execute();
-  await trx
+  await scoped(trx, ctx)
     .insertInto('stock_movements')
     .values({
       space_id: ctx.spaceId,
@@ -266,7 +269,7 @@ async function takeCounted(
 async function newBoxCode(trx: Db, spaceId: string, boxId: string): Promise<string> {
   for (;;) {
     const code = newCode();
-    const row = await trx
+    const row = await scoped(trx, { spaceId })
       .insertInto('label_codes')
       .values({ code, space_id: spaceId, kind: 'kit_box', target_id: boxId })
       .onConflict((oc) => oc.column('code').doNothing())
@@ -283,7 +286,7 @@ export async function buildBox(
 ): Promise<{ id: string; code: string; added: string[] }> {
   if (!isStaff(ctx)) throw new ForbiddenError();
   return db.transaction().execute(async (trx) => {
-    const t = await trx
+    const t = await scoped(trx, ctx)
       .selectFrom('kit_templates')
       .select(['id', 'name'])
       .where('id', '=', input.templateId)
@@ -291,7 +294,7 @@ export async function buildBox(
       .executeTakeFirst();
     if (!t) throw new NotFoundError('No such kit.');
     if (input.locationId) {
-      const loc = await trx
+      const loc = await scoped(trx, ctx)
         .selectFrom('locations')
         .select('id')
         .where('id', '=', input.locationId)
@@ -299,7 +302,7 @@ export async function buildBox(
         .executeTakeFirst();
       if (!loc) throw new InvalidError('No such shelf in this space.', { locationId: ['no such location'] });
     }
-    const count = await trx
+    const count = await scoped(trx, ctx)
       .selectFrom('kit_boxes')
       .select((eb) => eb.fn.countAll<number>().as('n'))
       .where('template_id', '=', t.id)
@@ -307,7 +310,7 @@ export async function buildBox(
     const id = crypto.randomUUID();
     const code = await newBoxCode(trx, ctx.spaceId, id);
     const name = input.name ?? `${t.name.split(',')[0]} box ${count.n + 1}`;
-    await trx
+    await scoped(trx, ctx)
       .insertInto('kit_boxes')
       .values({
         id,
@@ -341,7 +344,7 @@ export async function refillBox(
 ): Promise<{ added: string[]; removed: string[]; readyHoldId: string | null }> {
   if (!isStaff(ctx)) throw new ForbiddenError();
   return db.transaction().execute(async (trx) => {
-    const box = await trx
+    const box = await scoped(trx, ctx)
       .selectFrom('kit_boxes')
       .select(['id', 'name', 'state', 'template_id as templateId', 'location_id as locationId'])
       .where('id', '=', kitBoxId)
@@ -372,7 +375,7 @@ export async function refillBox(
 
 /** Places a box can be kept (for the build form). */
 export async function boxLocations(db: Db, ctx: Ctx): Promise<{ id: string; name: string }[]> {
-  return db
+  return scoped(db, ctx)
     .selectFrom('locations')
     .select(['id', 'name'])
     .where('space_id', '=', ctx.spaceId)

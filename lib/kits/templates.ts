@@ -1,6 +1,7 @@
 import 'server-only';
 import { sql } from 'kysely';
 import type { Db } from '@/db/connect';
+import { scoped } from '@/db/scoped';
 import type { ChainRole, PartCategory } from '@/db/types';
 import { audit } from '@/lib/audit/log';
 import { isStaff, type Ctx } from '@/lib/auth/roles';
@@ -23,17 +24,17 @@ export type TemplateSummary = {
 };
 
 export async function listTemplates(db: Db, ctx: Ctx): Promise<TemplateSummary[]> {
-  return db
+  return scoped(db, ctx)
     .selectFrom('kit_templates as t')
     .select([
       't.id',
       't.name',
       't.description',
-      sql<number>`(select count(*)::int from kit_template_lines l where l.template_id = t.id)`.as('lines'),
-      sql<number>`(select count(*)::int from kit_boxes b where b.template_id = t.id and b.state <> 'retired')`.as(
+      sql<number>`(select count(*)::int from kit_template_lines l where l.space_id = t.space_id and l.template_id = t.id)`.as('lines'),
+      sql<number>`(select count(*)::int from kit_boxes b where b.space_id = t.space_id and b.template_id = t.id and b.state <> 'retired')`.as(
         'boxes',
       ),
-      sql<number>`(select count(*)::int from kit_boxes b where b.template_id = t.id and b.state = 'on_shelf')`.as(
+      sql<number>`(select count(*)::int from kit_boxes b where b.space_id = t.space_id and b.template_id = t.id and b.state = 'on_shelf')`.as(
         'onShelf',
       ),
     ])
@@ -68,14 +69,14 @@ export type TemplateDetail = {
 };
 
 export async function getTemplate(db: Db, ctx: Ctx, templateId: string): Promise<TemplateDetail> {
-  const t = await db
+  const t = await scoped(db, ctx)
     .selectFrom('kit_templates')
     .select(['id', 'name', 'description', 'teaching_notes', 'cautions'])
     .where('id', '=', templateId)
     .where('space_id', '=', ctx.spaceId)
     .executeTakeFirst();
   if (!t) throw new NotFoundError('No such kit.');
-  const rows = await db
+  const rows = await scoped(db, ctx)
     .selectFrom('kit_template_lines as l')
     .innerJoin('parts', 'parts.id', 'l.part_id')
     .select([
@@ -93,7 +94,7 @@ export async function getTemplate(db: Db, ctx: Ctx, templateId: string): Promise
     .orderBy('l.position')
     .orderBy('parts.name')
     .execute();
-  const boxes = await db
+  const boxes = await scoped(db, ctx)
     .selectFrom('kit_boxes')
     .select(['id', 'name', 'code', 'state'])
     .where('template_id', '=', t.id)
@@ -126,7 +127,7 @@ export async function getTemplate(db: Db, ctx: Ctx, templateId: string): Promise
 
 async function assertParts(db: Db, spaceId: string, input: TemplateInput): Promise<void> {
   const ids = [...new Set(input.lines.map((l) => l.partId))];
-  const found = await db
+  const found = await scoped(db, { spaceId })
     .selectFrom('parts')
     .select(['id', 'category'])
     .where('space_id', '=', spaceId)
@@ -152,12 +153,13 @@ function assertStaff(ctx: Ctx) {
 
 const isUniqueViolation = (err: unknown) => (err as { code?: string })?.code === '23505';
 
-async function writeLines(trx: Db, templateId: string, input: TemplateInput) {
-  await trx.deleteFrom('kit_template_lines').where('template_id', '=', templateId).execute();
-  await trx
+async function writeLines(trx: Db, ctx: Ctx, templateId: string, input: TemplateInput) {
+  await scoped(trx, ctx).deleteFrom('kit_template_lines').where('template_id', '=', templateId).execute();
+  await scoped(trx, ctx)
     .insertInto('kit_template_lines')
     .values(
       input.lines.map((l, i) => ({
+        space_id: ctx.spaceId,
         template_id: templateId,
         part_id: l.partId,
         qty: l.qty,
@@ -191,21 +193,21 @@ async function saveTemplate(
   try {
     return await db.transaction().execute(async (trx) => {
       const t = templateId
-        ? await trx
+        ? await scoped(trx, ctx)
             .updateTable('kit_templates')
             .set(row)
             .where('id', '=', templateId)
             .where('space_id', '=', ctx.spaceId)
             .returning('id')
             .executeTakeFirst()
-        : await trx
+        : await scoped(trx, ctx)
             .insertInto('kit_templates')
             .values({ ...row, space_id: ctx.spaceId })
             .returning('id')
             .executeTakeFirstOrThrow();
       if (!t) throw new NotFoundError('No such kit.');
       await assertParts(trx, ctx.spaceId, input);
-      await writeLines(trx, t.id, input);
+      await writeLines(trx, ctx, t.id, input);
       await audit(trx, {
         spaceId: ctx.spaceId,
         actorId: ctx.userId,
@@ -226,7 +228,7 @@ async function saveTemplate(
 /** Lendable parts for the template form's part picker. */
 export async function partsForKits(db: Db, ctx: Ctx) {
   assertStaff(ctx);
-  const rows = await db
+  const rows = await scoped(db, ctx)
     .selectFrom('parts')
     .select(['id', 'name', 'sku', 'category', 'tracking', 'specs'])
     .where('space_id', '=', ctx.spaceId)

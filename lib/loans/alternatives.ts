@@ -1,6 +1,7 @@
 import 'server-only';
 import { sql } from 'kysely';
 import type { Db } from '@/db/connect';
+import { scoped } from '@/db/scoped';
 import { rankCandidates, type DriverSpec, type KitSpec, type SupplySpec } from '@/lib/electrical';
 
 // "What works with this": when a loan's chain fails, the supplies and drivers of this space that pass
@@ -33,13 +34,13 @@ type ShelfRow = {
 
 async function freeSuppliesAndDrivers(db: Db, spaceId: string): Promise<ShelfRow[]> {
   // A free unit: on the shelf, not inside a kit box. Counted parts: any stock in a bin.
-  return db
+  return scoped(db, { spaceId })
     .selectFrom('parts')
     .select(['parts.id', 'parts.name', 'parts.category', 'parts.specs'])
     .select((eb) => [
       sql<number>`(case when parts.tracking = 'unit'
-        then (select count(*) from units u where u.part_id = parts.id and u.state = 'on_shelf' and u.kit_box_id is null)
-        else (select coalesce(sum(s.qty), 0) from stock s where s.part_id = parts.id) end)::int`.as('free'),
+        then (select count(*) from units u where u.space_id = parts.space_id and u.part_id = parts.id and u.state = 'on_shelf' and u.kit_box_id is null)
+        else (select coalesce(sum(s.qty), 0) from stock s where s.space_id = parts.space_id and s.part_id = parts.id) end)::int`.as('free'),
       eb
         .selectFrom('units as u')
         .select('u.code')

@@ -1,6 +1,7 @@
 import 'server-only';
 import { sql } from 'kysely';
 import type { Db } from '@/db/connect';
+import { scoped } from '@/db/scoped';
 import { audit, auditRow } from '@/lib/audit/log';
 import { isStaff, type Ctx } from '@/lib/auth/roles';
 import { now } from '@/lib/clock';
@@ -30,7 +31,7 @@ export type BorrowResult = {
 /** A box or unit may be taken when it is on the shelf, or held ready for this borrower. */
 const takeable = (table: 'kit_boxes' | 'units', borrowerId: string) =>
   sql<boolean>`(${sql.ref(`${table}.state`)} = 'on_shelf' or (${sql.ref(`${table}.state`)} = 'held' and exists (
-    select 1 from holds h where h.status = 'ready' and h.user_id = ${borrowerId}
+    select 1 from holds h where h.space_id = ${sql.ref(`${table}.space_id`)} and h.status = 'ready' and h.user_id = ${borrowerId}
       and ${table === 'kit_boxes' ? sql`h.kit_box_id` : sql`h.unit_id`} = ${sql.ref(`${table}.id`)})))`;
 
 export async function borrow(db: Db, ctx: Ctx, input: BorrowInput): Promise<BorrowResult> {
@@ -45,7 +46,7 @@ export async function borrow(db: Db, ctx: Ctx, input: BorrowInput): Promise<Borr
   return db.transaction().execute(async (trx) => {
     // One person's borrows queue behind each other, so two at once cannot both slip under the limit
     // (the lock is on the membership row only). The space's lending rules come in the same round trip.
-    const member = await trx
+    const member = await scoped(trx, ctx)
       .selectFrom('memberships')
       .innerJoin('spaces', 'spaces.id', 'memberships.space_id')
       .select(['memberships.user_id', ...LOAN_SETTING_COLUMNS])
@@ -61,7 +62,7 @@ export async function borrow(db: Db, ctx: Ctx, input: BorrowInput): Promise<Borr
     let lines: SelectionLine[];
     let boxId: string | null = null;
     if ('kitBoxId' in sel) {
-      const taken = await trx
+      const taken = await scoped(trx, ctx)
         .updateTable('kit_boxes')
         .set({ state: 'out' })
         .where('id', '=', sel.kitBoxId)
@@ -76,8 +77,8 @@ export async function borrow(db: Db, ctx: Ctx, input: BorrowInput): Promise<Borr
         });
       }
       boxId = taken.id;
-      lines = await boxLines(trx, boxId);
-      await trx
+      lines = await boxLines(trx, ctx.spaceId, boxId);
+      await scoped(trx, ctx)
         .updateTable('units')
         .set({ state: 'out', updated_at: now() })
         .where('kit_box_id', '=', boxId)
@@ -85,7 +86,7 @@ export async function borrow(db: Db, ctx: Ctx, input: BorrowInput): Promise<Borr
     } else {
       lines = await looseLines(trx, ctx.spaceId, sel);
       if (sel.unitIds.length) {
-        const locked = await trx
+        const locked = await scoped(trx, ctx)
           .selectFrom('units')
           .select(['id', 'code'])
           .select(takeable('units', borrowerId).as('free'))
@@ -101,7 +102,7 @@ export async function borrow(db: Db, ctx: Ctx, input: BorrowInput): Promise<Borr
           );
           throw new ConflictError(`Not available: ${gone.map((u) => u.code).join(', ')}.`, fields);
         }
-        await trx
+        await scoped(trx, ctx)
           .updateTable('units')
           .set({ state: 'out', updated_at: now() })
           .where('id', 'in', sel.unitIds)
@@ -143,7 +144,7 @@ export async function borrow(db: Db, ctx: Ctx, input: BorrowInput): Promise<Borr
     const at = now();
     const dueAt = computeDueAt(at, settings);
     const overridden = gate === 'blocked';
-    const loan = await trx
+    const loan = await scoped(trx, ctx)
       .insertInto('loans')
       .values({
         space_id: ctx.spaceId,
@@ -169,7 +170,7 @@ export async function borrow(db: Db, ctx: Ctx, input: BorrowInput): Promise<Borr
       .filter(({ l }) => l.locationId)
       .sort((a, b) => (a.l.partId + a.l.locationId).localeCompare(b.l.partId + b.l.locationId));
     for (const { l, i } of counted) {
-      const left = await trx
+      const left = await scoped(trx, ctx)
         .updateTable('stock')
         .set((eb) => ({ qty: eb('qty', '-', l.qty), updated_at: at }))
         .where('part_id', '=', l.partId)
@@ -194,7 +195,7 @@ export async function borrow(db: Db, ctx: Ctx, input: BorrowInput): Promise<Borr
       cautionAcknowledged: gate === 'acknowledge',
       dueAt: dueAt.toISOString(),
     };
-    const withLines = trx.with('written_lines', (q) =>
+    const withLines = scoped(trx, ctx).with('written_lines', (q) =>
       q
         .insertInto('loan_lines')
         .values(
@@ -249,7 +250,7 @@ export async function borrow(db: Db, ctx: Ctx, input: BorrowInput): Promise<Borr
     // The borrower's own hold on what they now take is done.
     const unitIds = lines.flatMap((l) => (l.unitId ? [l.unitId] : []));
     if (boxId || unitIds.length)
-      await trx
+      await scoped(trx, ctx)
         .updateTable('holds')
         .set({ status: 'fulfilled' })
         .where('user_id', '=', borrowerId)

@@ -1,5 +1,6 @@
 import 'server-only';
 import type { Db } from '@/db/connect';
+import { scoped } from '@/db/scoped';
 import type { ChainRole, PartCategory } from '@/db/types';
 import { checkLines, type BuildInfo, type CheckLine, type CheckOutcome } from './check';
 import type { OwnParts } from './schemas';
@@ -55,7 +56,7 @@ export function ownPartLines(own: OwnParts | null | undefined, tag: string, fres
 
 /** The build parts the borrower has out on open loose loans, with the own parts described on them. */
 export async function heldBuildLines(db: Db, spaceId: string, borrowerId: string): Promise<BuildLine[]> {
-  const rows = await db
+  const rows = await scoped(db, { spaceId })
     .selectFrom('loan_lines as ll')
     .innerJoin('loans', 'loans.id', 'll.loan_id')
     .innerJoin('parts', 'parts.id', 'll.part_id')
@@ -74,7 +75,7 @@ export async function heldBuildLines(db: Db, spaceId: string, borrowerId: string
     .where('parts.category', 'in', BUILD_CATEGORIES)
     .orderBy('loans.out_at')
     .execute();
-  const owns = await db
+  const owns = await scoped(db, { spaceId })
     .selectFrom('loans')
     .select(['id', 'own_parts'])
     .where('space_id', '=', spaceId)

@@ -39,6 +39,7 @@ export async function calendarFeed(db: Db, token: string, baseUrl: string): Prom
     .where('disabled_at', 'is', null)
     .executeTakeFirst();
   if (!user) throw new NotFoundError('No such calendar.');
+  // across spaces: one person's feed lists their loans in every space where their access is on.
   const loans = await db
     .selectFrom('loans')
     .innerJoin('spaces', 'spaces.id', 'loans.space_id')
@@ -55,7 +56,8 @@ export async function calendarFeed(db: Db, token: string, baseUrl: string): Prom
       'spaces.name as spaceName',
       'kit_boxes.name as boxName',
       sql<string>`(select string_agg(case when ll.qty > 1 then ll.qty || ' × ' || p.name else p.name end, E'\\n' order by p.name)
-        from loan_lines ll join parts p on p.id = ll.part_id where ll.loan_id = loans.id)`.as('contents'),
+        from loan_lines ll join parts p on p.space_id = ll.space_id and p.id = ll.part_id
+        where ll.space_id = loans.space_id and ll.loan_id = loans.id)`.as('contents'),
     ])
     .where('loans.borrower_id', '=', user.id)
     .where('loans.status', '=', 'out')

@@ -1,5 +1,6 @@
 import 'server-only';
 import type { Db } from '@/db/connect';
+import { scoped } from '@/db/scoped';
 import { audit } from '@/lib/audit/log';
 import { isStaff, type Ctx } from '@/lib/auth/roles';
 import { now } from '@/lib/clock';
@@ -23,7 +24,7 @@ const holdColumn = (t: HoldTarget) =>
  * Returns the hold made ready, for the e-mail after commit.
  */
 export async function releaseItem(trx: Db, spaceId: string, target: HoldTarget): Promise<string | null> {
-  const next = await trx
+  const next = await scoped(trx, { spaceId })
     .selectFrom('holds')
     .select('id')
     .where('space_id', '=', spaceId)
@@ -35,15 +36,15 @@ export async function releaseItem(trx: Db, spaceId: string, target: HoldTarget):
     .forUpdate()
     .executeTakeFirst();
   const table = targetTable(target);
-  if (next) await trx.updateTable('holds').set({ status: 'ready' }).where('id', '=', next.id).execute();
+  if (next) await scoped(trx, { spaceId }).updateTable('holds').set({ status: 'ready' }).where('id', '=', next.id).execute();
   if (table === 'kit_boxes')
-    await trx
+    await scoped(trx, { spaceId })
       .updateTable('kit_boxes')
       .set({ state: next ? 'held' : 'on_shelf' })
       .where('id', '=', targetId(target))
       .execute();
   else
-    await trx
+    await scoped(trx, { spaceId })
       .updateTable('units')
       .set({ state: next ? 'held' : 'on_shelf', updated_at: now() })
       .where('id', '=', targetId(target))
@@ -56,7 +57,7 @@ type Item = { id: string; name: string; state: string; inBox: string | null };
 async function lockItem(trx: Db, spaceId: string, target: HoldTarget): Promise<Item> {
   const item =
     'kitBoxId' in target
-      ? await trx
+      ? await scoped(trx, { spaceId })
           .selectFrom('kit_boxes')
           .select(['id', 'name', 'state'])
           .select((eb) => eb.val<string | null>(null).as('inBox'))
@@ -64,7 +65,7 @@ async function lockItem(trx: Db, spaceId: string, target: HoldTarget): Promise<I
           .where('space_id', '=', spaceId)
           .forUpdate()
           .executeTakeFirst()
-      : await trx
+      : await scoped(trx, { spaceId })
           .selectFrom('units')
           .innerJoin('parts', 'parts.id', 'units.part_id')
           .select(['units.id', 'parts.name', 'units.state', 'units.kit_box_id as inBox'])
@@ -94,7 +95,7 @@ export async function placeHold(
       throw new ConflictError(`${item.name} is on the shelf: borrow it now.`, { [field]: ['on the shelf'] });
     if (item.state === 'retired')
       throw new ConflictError(`${item.name} is retired.`, { [field]: ['retired'] });
-    const mine = await trx
+    const mine = await scoped(trx, ctx)
       .selectFrom('loans')
       .leftJoin('loan_lines', 'loan_lines.loan_id', 'loans.id')
       .select('loans.id')
@@ -110,14 +111,14 @@ export async function placeHold(
       throw new ConflictError('You have it out yourself; renew the loan instead.', {
         [field]: ['already yours'],
       });
-    const open = await trx
+    const open = await scoped(trx, ctx)
       .selectFrom('holds')
       .select((eb) => eb.fn.countAll<number>().as('n'))
       .where('space_id', '=', ctx.spaceId)
       .where('user_id', '=', ctx.userId)
       .where('status', 'in', ['waiting', 'ready'])
       .executeTakeFirstOrThrow();
-    const already = await trx
+    const already = await scoped(trx, ctx)
       .selectFrom('holds')
       .select('id')
       .where('user_id', '=', ctx.userId)
@@ -129,7 +130,7 @@ export async function placeHold(
       throw new ConflictError(`You can hold ${settings.maxOpenHolds} things at once.`, {
         [field]: ['hold limit reached'],
       });
-    const hold = await trx
+    const hold = await scoped(trx, ctx)
       .insertInto('holds')
       .values({
         space_id: ctx.spaceId,
@@ -139,7 +140,7 @@ export async function placeHold(
       })
       .returning('id')
       .executeTakeFirstOrThrow();
-    const ahead = await trx
+    const ahead = await scoped(trx, ctx)
       .selectFrom('holds')
       .select((eb) => eb.fn.countAll<number>().as('n'))
       .where(holdColumn(target), '=', item.id)
@@ -161,7 +162,7 @@ export async function placeHold(
 /** The holder or a steward cancels; a ready hold frees the item for the next in line. */
 export async function cancelHold(db: Db, ctx: Ctx, holdId: string): Promise<{ readyHoldId: string | null }> {
   return db.transaction().execute(async (trx) => {
-    const hold = await trx
+    const hold = await scoped(trx, ctx)
       .selectFrom('holds')
       .select(['id', 'user_id', 'status', 'kit_box_id', 'unit_id'])
       .where('id', '=', holdId)
@@ -171,7 +172,7 @@ export async function cancelHold(db: Db, ctx: Ctx, holdId: string): Promise<{ re
     if (!hold || (hold.user_id !== ctx.userId && !isStaff(ctx))) throw new NotFoundError('No such hold.');
     if (hold.status !== 'waiting' && hold.status !== 'ready')
       throw new ConflictError(`The hold is already ${hold.status}.`, { holdId: [hold.status] });
-    await trx.updateTable('holds').set({ status: 'cancelled' }).where('id', '=', hold.id).execute();
+    await scoped(trx, ctx).updateTable('holds').set({ status: 'cancelled' }).where('id', '=', hold.id).execute();
     let readyHoldId: string | null = null;
     if (hold.status === 'ready') {
       const target: HoldTarget = hold.kit_box_id ? { kitBoxId: hold.kit_box_id } : { unitId: hold.unit_id! };

@@ -1,5 +1,6 @@
 import 'server-only';
 import type { Db } from '@/db/connect';
+import { scoped } from '@/db/scoped';
 import { isStaff, type Ctx } from '@/lib/auth/roles';
 import { ConflictError, NotFoundError } from '@/lib/errors';
 
@@ -10,7 +11,7 @@ import { ConflictError, NotFoundError } from '@/lib/errors';
  * another space's, answers as if it did not exist.
  */
 export async function lockOpenLoan(trx: Db, ctx: Ctx, loanId: string, notOut: string) {
-  const loan = await trx
+  const loan = await scoped(trx, ctx)
     .selectFrom('loans')
     .select(['id', 'borrower_id', 'status', 'kit_box_id', 'due_at', 'renewals'])
     .where('id', '=', loanId)
@@ -23,7 +24,7 @@ export async function lockOpenLoan(trx: Db, ctx: Ctx, loanId: string, notOut: st
 }
 
 export async function openLoanCount(db: Db, spaceId: string, borrowerId: string): Promise<number> {
-  const open = await db
+  const open = await scoped(db, { spaceId })
     .selectFrom('loans')
     .select((eb) => eb.fn.countAll<number>().as('n'))
     .where('space_id', '=', spaceId)

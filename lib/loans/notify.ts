@@ -1,5 +1,6 @@
 import 'server-only';
 import type { Db } from '@/db/connect';
+import { scoped } from '@/db/scoped';
 import { env } from '@/lib/env';
 import { holdReadyMail, type BuiltMail } from '@/lib/mail/loans';
 import { sendMail } from '@/lib/mail/send';
@@ -20,6 +21,7 @@ export async function notifyReadyHolds(
   let sent = 0;
   let ids = holdIds;
   if (ids === 'all-unsent') {
+    // across spaces: the scheduled sweep sends every space's unsent notices (one space's, when asked).
     let q = db
       .selectFrom('holds')
       .select('id')
@@ -31,6 +33,7 @@ export async function notifyReadyHolds(
   for (const id of ids) {
     try {
       const done = await db.transaction().execute(async (trx) => {
+        // across spaces: the ids come from the caller's scoped return or refill, or from the sweep above.
         const h = await trx
           .selectFrom('holds')
           .innerJoin('users', 'users.id', 'holds.user_id')
@@ -40,6 +43,7 @@ export async function notifyReadyHolds(
           .leftJoin('parts', 'parts.id', 'units.part_id')
           .select([
             'holds.id',
+            'holds.space_id',
             'holds.kit_box_id',
             'holds.unit_id',
             'users.email',
@@ -60,7 +64,7 @@ export async function notifyReadyHolds(
         const url = h.kit_box_id ? `${base}/kits/boxes/${h.kit_box_id}` : `${base}/loans`;
         const itemName = h.boxName ?? `${h.partName} (${h.unitCode})`;
         await send(holdReadyMail({ to: h.email, name: h.name, spaceName: h.spaceName, itemName, url }));
-        await trx.updateTable('holds').set({ notified_at: new Date() }).where('id', '=', h.id).execute();
+        await scoped(trx, { spaceId: h.space_id }).updateTable('holds').set({ notified_at: new Date() }).where('id', '=', h.id).execute();
         return true;
       });
       if (done) sent++;

@@ -1,6 +1,7 @@
 import 'server-only';
 import { sql } from 'kysely';
 import type { Db } from '@/db/connect';
+import { scoped } from '@/db/scoped';
 import { isStaff, type Ctx } from '@/lib/auth/roles';
 import { now } from '@/lib/clock';
 import { ForbiddenError, NotFoundError } from '@/lib/errors';
@@ -78,7 +79,7 @@ export async function previewLoan(
       if (!box && l.unitId)
         free = l.unitState === 'on_shelf' || (l.unitState === 'held' && readyFor.has(l.unitId));
       if (l.locationId) {
-        const s = await db
+        const s = await scoped(db, ctx)
           .selectFrom('stock')
           .select('qty')
           .where('part_id', '=', l.partId)
@@ -127,7 +128,7 @@ export async function previewLoan(
 
 /** Boxes and units held ready for this person: they may take them although they are not on the shelf. */
 export async function readyHoldTargets(db: Db, spaceId: string, userId: string): Promise<Set<string>> {
-  const rows = await db
+  const rows = await scoped(db, { spaceId })
     .selectFrom('holds')
     .select(sql<string>`coalesce(kit_box_id, unit_id)`.as('target'))
     .where('space_id', '=', spaceId)

@@ -1,6 +1,7 @@
 import 'server-only';
 import { sql } from 'kysely';
 import type { Db } from '@/db/connect';
+import { scoped } from '@/db/scoped';
 import { isStaff, type Ctx } from '@/lib/auth/roles';
 import { now } from '@/lib/clock';
 import { ForbiddenError, NotFoundError } from '@/lib/errors';
@@ -28,11 +29,12 @@ export type LoanRow = {
 };
 
 const titleExpr = sql<string>`coalesce(kit_boxes.name, (select string_agg(case when ll.qty > 1 then ll.qty || ' × ' || p.name else p.name end, ', ' order by p.name)
-  from loan_lines ll join parts p on p.id = ll.part_id where ll.loan_id = loans.id), 'Loan')`;
+  from loan_lines ll join parts p on p.space_id = ll.space_id and p.id = ll.part_id
+  where ll.space_id = loans.space_id and ll.loan_id = loans.id), 'Loan')`;
 
 /** Loans of the space with their borrower and box, and `title` (the box, or the parts) to select. */
 const loansWithBorrower = (db: Db, spaceId: string) =>
-  db
+  scoped(db, { spaceId })
     .selectFrom('loans')
     .innerJoin('users', 'users.id', 'loans.borrower_id')
     .leftJoin('kit_boxes', 'kit_boxes.id', 'loans.kit_box_id')
@@ -109,7 +111,7 @@ export type LoanDetail = {
 };
 
 export async function getLoan(db: Db, ctx: Ctx, loanId: string): Promise<LoanDetail> {
-  const l = await db
+  const l = await scoped(db, ctx)
     .selectFrom('loans')
     .innerJoin('users as b', 'b.id', 'loans.borrower_id')
     .leftJoin('users as lender', 'lender.id', 'loans.lent_by_id')
@@ -141,7 +143,7 @@ export async function getLoan(db: Db, ctx: Ctx, loanId: string): Promise<LoanDet
     .executeTakeFirst();
   if (!l || (l.borrower_id !== ctx.userId && !isStaff(ctx))) throw new NotFoundError('No such loan.');
   const settings = await loanSettings(db, ctx.spaceId);
-  const lines = await db
+  const lines = await scoped(db, ctx)
     .selectFrom('loan_lines')
     .innerJoin('parts', 'parts.id', 'loan_lines.part_id')
     .leftJoin('units', 'units.id', 'loan_lines.unit_id')
@@ -163,7 +165,7 @@ export async function getLoan(db: Db, ctx: Ctx, loanId: string): Promise<LoanDet
     )
     .orderBy('parts.name')
     .execute();
-  const holds = await db
+  const holds = await scoped(db, ctx)
     .selectFrom('holds')
     .select((eb) => eb.fn.countAll<number>().as('n'))
     .where('space_id', '=', ctx.spaceId)
@@ -183,7 +185,7 @@ export async function getLoan(db: Db, ctx: Ctx, loanId: string): Promise<LoanDet
       ]),
     )
     .executeTakeFirstOrThrow();
-  const reminders = await db
+  const reminders = await scoped(db, ctx)
     .selectFrom('reminders')
     .select(['kind', 'for_day as forDay', 'status', 'sent_at as sentAt'])
     .where('loan_id', '=', l.id)
@@ -244,13 +246,15 @@ export async function overdueRound(db: Db, ctx: Ctx): Promise<{ rows: RoundRow[]
       sql<
         string[]
       >`(select coalesce(array_agg(case when ll.qty > 1 then ll.qty || ' × ' || p.name else p.name end || coalesce(' (' || u.code || ')', '') order by p.name), '{}')
-        from loan_lines ll join parts p on p.id = ll.part_id left join units u on u.id = ll.unit_id where ll.loan_id = loans.id)`.as(
+        from loan_lines ll join parts p on p.space_id = ll.space_id and p.id = ll.part_id
+        left join units u on u.space_id = ll.space_id and u.id = ll.unit_id
+        where ll.space_id = loans.space_id and ll.loan_id = loans.id)`.as(
         'lines',
       ),
-      sql<Date | null>`(select max(r.sent_at) from reminders r where r.loan_id = loans.id and r.status = 'sent')`.as(
+      sql<Date | null>`(select max(r.sent_at) from reminders r where r.space_id = loans.space_id and r.loan_id = loans.id and r.status = 'sent')`.as(
         'lastReminder',
       ),
-      sql<number>`(select count(*)::int from reminders r where r.loan_id = loans.id and r.status = 'sent')`.as(
+      sql<number>`(select count(*)::int from reminders r where r.space_id = loans.space_id and r.loan_id = loans.id and r.status = 'sent')`.as(
         'reminders',
       ),
     ])
@@ -317,7 +321,7 @@ export type HoldRow = {
 
 /** My open holds (a member), or all open holds in the space (staff, `all`). */
 export async function listHolds(db: Db, ctx: Ctx, opts: { all?: boolean } = {}): Promise<HoldRow[]> {
-  let q = db
+  let q = scoped(db, ctx)
     .selectFrom('holds')
     .innerJoin('users', 'users.id', 'holds.user_id')
     .leftJoin('kit_boxes', 'kit_boxes.id', 'holds.kit_box_id')
@@ -331,7 +335,7 @@ export async function listHolds(db: Db, ctx: Ctx, opts: { all?: boolean } = {}):
       'holds.unit_id as unitId',
       'holds.created_at as createdAt',
       'users.name as userName',
-      sql<number>`(select count(*)::int from holds h2 where h2.status in ('waiting','ready')
+      sql<number>`(select count(*)::int from holds h2 where h2.space_id = holds.space_id and h2.status in ('waiting','ready')
         and coalesce(h2.kit_box_id, h2.unit_id) = coalesce(holds.kit_box_id, holds.unit_id) and (h2.created_at, h2.id) <= (holds.created_at, holds.id))`.as(
         'position',
       ),
@@ -366,7 +370,7 @@ export async function loanAudit(
   opts: { action?: string; before?: string; limit?: number } = {},
 ): Promise<AuditRow[]> {
   if (!isStaff(ctx)) throw new ForbiddenError();
-  let q = db
+  let q = scoped(db, ctx)
     .selectFrom('audit_log')
     .leftJoin('users', 'users.id', 'audit_log.actor_id')
     .select([
@@ -452,7 +456,7 @@ async function auditTargets(
 /** People of the space a steward can lend to at the bench. */
 export async function spaceMembers(db: Db, ctx: Ctx): Promise<{ id: string; name: string; email: string }[]> {
   if (!isStaff(ctx)) throw new ForbiddenError();
-  return db
+  return scoped(db, ctx)
     .selectFrom('memberships')
     .innerJoin('users', 'users.id', 'memberships.user_id')
     .select(['users.id', 'users.name', 'users.email'])
@@ -477,7 +481,7 @@ export type LoosePick = {
 
 /** What can be borrowed loose: free labelled units not in a box, and counted lendable stock per bin. */
 export async function loosePick(db: Db, ctx: Ctx): Promise<LoosePick> {
-  const units = await db
+  const units = await scoped(db, ctx)
     .selectFrom('units')
     .innerJoin('parts', 'parts.id', 'units.part_id')
     .select(['units.id', 'units.code', 'parts.name', 'parts.category', 'parts.specs'])
@@ -489,7 +493,7 @@ export async function loosePick(db: Db, ctx: Ctx): Promise<LoosePick> {
     .orderBy('parts.name')
     .orderBy('units.code')
     .execute();
-  const stock = await db
+  const stock = await scoped(db, ctx)
     .selectFrom('stock')
     .innerJoin('parts', 'parts.id', 'stock.part_id')
     .innerJoin('locations', 'locations.id', 'stock.location_id')

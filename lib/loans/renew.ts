@@ -1,5 +1,6 @@
 import 'server-only';
 import type { Db } from '@/db/connect';
+import { scoped } from '@/db/scoped';
 import { audit } from '@/lib/audit/log';
 import type { Ctx } from '@/lib/auth/roles';
 import { now } from '@/lib/clock';
@@ -25,7 +26,7 @@ export async function renewLoan(
           : `This loan was renewed ${loan.renewals} times, the most allowed.`,
         { loanId: ['no renewals left'] },
       );
-    const waiting = await trx
+    const waiting = await scoped(trx, ctx)
       .selectFrom('holds')
       .select('holds.id')
       .where('holds.space_id', '=', ctx.spaceId)
@@ -53,7 +54,7 @@ export async function renewLoan(
 
     const at = now();
     const dueAt = renewedDueAt(loan.due_at, at, settings);
-    await trx
+    await scoped(trx, ctx)
       .updateTable('loans')
       .set({ due_at: dueAt, renewals: loan.renewals + 1 })
       .where('id', '=', loan.id)

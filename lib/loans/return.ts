@@ -1,5 +1,6 @@
 import 'server-only';
 import type { Db } from '@/db/connect';
+import { scoped } from '@/db/scoped';
 import { audit } from '@/lib/audit/log';
 import type { Ctx } from '@/lib/auth/roles';
 import { now } from '@/lib/clock';
@@ -29,7 +30,7 @@ export async function returnLoan(
   return db.transaction().execute(async (trx) => {
     const loan = await lockOpenLoan(trx, ctx, loanId, 'This loan is already returned.');
 
-    const lines = await trx
+    const lines = await scoped(trx, ctx)
       .selectFrom('loan_lines')
       .innerJoin('parts', 'parts.id', 'loan_lines.part_id')
       .select([
@@ -81,12 +82,12 @@ export async function returnLoan(
     });
 
     const status = short > 0 ? 'returned_short' : 'returned';
-    await trx
+    await scoped(trx, ctx)
       .updateTable('loans')
       .set({ status, returned_at: at, return_note: input.note ?? '' })
       .where('id', '=', loan.id).execute();
     for (const l of checked)
-      await trx
+      await scoped(trx, ctx)
         .updateTable('loan_lines')
         .set({ returned_qty: l.returnedQty, return_condition: l.condition })
         .where('id', '=', l.id)
@@ -121,7 +122,7 @@ export async function returnLoan(
           if (!loan.kit_box_id) freed.push(l.unit_id);
         } else {
           // Out of the box for good: a damaged unit waits for repair, a lost one is retired.
-          await trx
+          await scoped(trx, ctx)
             .updateTable('units')
             .set({
               state: l.condition === 'damaged' ? 'in_repair' : 'retired',
@@ -131,7 +132,7 @@ export async function returnLoan(
             .where('id', '=', l.unit_id)
             .execute();
           if (loan.kit_box_id)
-            await trx
+            await scoped(trx, ctx)
               .deleteFrom('kit_box_contents')
               .where('kit_box_id', '=', loan.kit_box_id)
               .where('unit_id', '=', l.unit_id)
@@ -144,7 +145,7 @@ export async function returnLoan(
       if (l.location_id) {
         // Loose counted stock: what came back goes back into its bin.
         if (l.returnedQty > 0) {
-          await trx
+          await scoped(trx, ctx)
             .insertInto('stock')
             .values({
               space_id: ctx.spaceId,
@@ -163,7 +164,7 @@ export async function returnLoan(
         }
       } else if (shortQty > 0 && loan.kit_box_id) {
         // Counted contents of a box: the box now holds fewer.
-        const content = await trx
+        const content = await scoped(trx, ctx)
           .selectFrom('kit_box_contents')
           .select(['id', 'qty'])
           .where('kit_box_id', '=', loan.kit_box_id)
@@ -173,27 +174,27 @@ export async function returnLoan(
           .executeTakeFirst();
         if (content) {
           if (content.qty > shortQty)
-            await trx
+            await scoped(trx, ctx)
               .updateTable('kit_box_contents')
               .set({ qty: content.qty - shortQty })
               .where('id', '=', content.id)
               .execute();
-          else await trx.deleteFrom('kit_box_contents').where('id', '=', content.id).execute();
+          else await scoped(trx, ctx).deleteFrom('kit_box_contents').where('id', '=', content.id).execute();
         }
       }
       if (shortQty > 0) movements.push(move(l, lostReason, -shortQty, null));
     }
-    if (movements.length) await trx.insertInto('stock_movements').values(movements).execute();
+    if (movements.length) await scoped(trx, ctx).insertInto('stock_movements').values(movements).execute();
 
     const readyHoldIds: string[] = [];
     if (loan.kit_box_id) {
-      await trx
+      await scoped(trx, ctx)
         .updateTable('units')
         .set({ state: 'on_shelf', updated_at: at })
         .where('kit_box_id', '=', loan.kit_box_id)
         .execute();
       if (short > 0)
-        await trx
+        await scoped(trx, ctx)
           .updateTable('kit_boxes')
           .set({ state: 'in_repair' })
           .where('id', '=', loan.kit_box_id)

@@ -1,6 +1,7 @@
 import 'server-only';
 import { sql } from 'kysely';
 import type { Db } from '@/db/connect';
+import { scoped } from '@/db/scoped';
 import type { ChainRole, PartCategory, UnitState } from '@/db/types';
 import { ConflictError, InvalidError, NotFoundError } from '@/lib/errors';
 import type { CheckLine } from './check';
@@ -23,7 +24,7 @@ export type SelectionLine = CheckLine & {
 
 /** Kit boxes of a space with their template and shelf: the base of every box query. */
 export const boxesOfSpace = (db: Db, spaceId: string) =>
-  db
+  scoped(db, { spaceId })
     .selectFrom('kit_boxes')
     .innerJoin('kit_templates', 'kit_templates.id', 'kit_boxes.template_id')
     .leftJoin('locations', 'locations.id', 'kit_boxes.location_id')
@@ -56,8 +57,8 @@ export async function loadBox(db: Db, spaceId: string, kitBoxId: string): Promis
   return box;
 }
 
-export async function boxLines(db: Db, kitBoxId: string): Promise<SelectionLine[]> {
-  const rows = await db
+export async function boxLines(db: Db, spaceId: string, kitBoxId: string): Promise<SelectionLine[]> {
+  const rows = await scoped(db, { spaceId })
     .selectFrom('kit_box_contents as c')
     .innerJoin('parts', 'parts.id', 'c.part_id')
     .leftJoin('units', 'units.id', 'c.unit_id')
@@ -113,7 +114,7 @@ export async function looseLines(
 ): Promise<SelectionLine[]> {
   const lines: SelectionLine[] = [];
   if (sel.unitIds.length) {
-    const units = await db
+    const units = await scoped(db, { spaceId })
       .selectFrom('units')
       .innerJoin('parts', 'parts.id', 'units.part_id')
       .leftJoin('kit_boxes', 'kit_boxes.id', 'units.kit_box_id')
@@ -149,7 +150,7 @@ export async function looseLines(
     });
   }
   for (const [i, c] of sel.counted.entries()) {
-    const row = await db
+    const row = await scoped(db, { spaceId })
       .selectFrom('parts')
       .innerJoin('locations', (j) =>
         j.on('locations.id', '=', c.locationId).on('locations.space_id', '=', spaceId),
@@ -190,7 +191,7 @@ export async function looseLines(
 export async function resolveSelection(db: Db, spaceId: string, sel: Selection): Promise<ResolvedSelection> {
   if ('kitBoxId' in sel) {
     const box = await loadBox(db, spaceId, sel.kitBoxId);
-    return { box, lines: await boxLines(db, box.id) };
+    return { box, lines: await boxLines(db, spaceId, box.id) };
   }
   return { box: null, lines: await looseLines(db, spaceId, sel) };
 }

@@ -1,5 +1,6 @@
 import 'server-only';
 import type { Db } from '@/db/connect';
+import { scoped } from '@/db/scoped';
 import { env } from '@/lib/env';
 import { formatMoney } from '@/lib/money';
 import { saleRef } from '@/lib/sales/ref';
@@ -54,12 +55,14 @@ export function receiptMessage(r: ReceiptData, appBaseUrl: string) {
 
 /** Sends the receipt of a paid sale to its buyer. Called after the payment's transaction committed. */
 export async function sendSaleReceipt(db: Db, saleId: string): Promise<void> {
+  // across spaces: called after the commit of a payment (webhook, sweep, till) with that sale's id.
   const sale = await db
     .selectFrom('sales')
     .innerJoin('spaces', 'spaces.id', 'sales.space_id')
     .innerJoin('users', 'users.id', 'sales.buyer_id')
     .select([
       'sales.id',
+      'sales.space_id',
       'sales.method',
       'sales.currency',
       'sales.total_minor',
@@ -72,7 +75,7 @@ export async function sendSaleReceipt(db: Db, saleId: string): Promise<void> {
     .where('sales.id', '=', saleId)
     .executeTakeFirst();
   if (!sale?.paid_at) return;
-  const lines = await db
+  const lines = await scoped(db, { spaceId: sale.space_id })
     .selectFrom('sale_lines')
     .innerJoin('parts', 'parts.id', 'sale_lines.part_id')
     .select(['parts.name', 'parts.sale_unit', 'sale_lines.qty', 'sale_lines.unit_price_minor'])

@@ -9,6 +9,7 @@ import { log } from '@/lib/log';
 export async function afterPaymentEvent(db: Db, result: { receipts: string[]; refundsToSync: string[] }) {
   await sendReceipts(db, result.receipts);
   for (const saleId of result.refundsToSync) {
+    // across spaces: the sale ids come from the webhook's own lookup (lib/payments/events.ts).
     const sale = await db.selectFrom('sales').select('space_id').where('id', '=', saleId).executeTakeFirst();
     try {
       if (sale) await syncRefunds(db, paymentsClient(sale.space_id), saleId);

@@ -40,6 +40,7 @@ type Obj = {
  * event's metadata is never enough: anyone who can open a session at the processor can write it.
  */
 async function ourSale(trx: Db, event: Stripe.Event, obj: Obj): Promise<Sale | undefined> {
+  // across spaces: the event names no space we trust; the stored session or payment id finds the sale.
   const q = trx.selectFrom('sales').selectAll().where('reverses_sale_id', 'is', null);
   if (event.type.startsWith('checkout.session.'))
     return obj.id ? q.where('checkout_session_id', '=', obj.id).executeTakeFirst() : undefined;
@@ -51,6 +52,7 @@ async function ourSale(trx: Db, event: Stripe.Event, obj: Obj): Promise<Sale | u
 async function claimedSale(trx: Db, obj: Obj): Promise<Pick<Sale, 'id' | 'space_id' | 'status'> | undefined> {
   const id = asUuid(obj.metadata?.saleId) ?? asUuid(obj.client_reference_id);
   if (!id) return undefined;
+  // across spaces: a claim is only reported (in the space of the sale it names), never acted on.
   return trx
     .selectFrom('sales')
     .select(['id', 'space_id', 'status'])
@@ -95,6 +97,7 @@ export async function applyPaymentEvent(db: Db, event: Stripe.Event): Promise<Ev
     const claimed = sale ? undefined : await claimedSale(trx, obj);
     const spaceId =
       sale?.space_id ?? claimed?.space_id ?? (await knownSpace(trx, asUuid(obj.metadata?.spaceId)));
+    // across spaces: every delivery is kept once, also those naming no space of ours (space_id null).
     const inserted = await trx
       .insertInto('payment_events')
       .values({
@@ -112,6 +115,7 @@ export async function applyPaymentEvent(db: Db, event: Stripe.Event): Promise<Ev
     if (!inserted) return done('duplicate delivery: already applied');
 
     const result = await dispatch(trx, { event, obj, sale, claimed });
+    // across spaces: the row inserted just above, by its processor id.
     await trx
       .updateTable('payment_events')
       .set({ outcome: result.outcome })
@@ -196,7 +200,7 @@ async function dispatch(trx: Db, f: Found): Promise<EventOutcome> {
               `refund ${refund.id} is not of the payment Ohmstead accepted for sale ${claimed.id}`,
             )
           : done('no matching sale');
-      return done(await bookProcessorRefund(trx, sale.id, refund, event.id));
+      return done(await bookProcessorRefund(trx, sale, refund, event.id));
     }
     case 'charge.refunded': {
       const charge = event.data.object;
@@ -204,7 +208,7 @@ async function dispatch(trx: Db, f: Found): Promise<EventOutcome> {
         return claimed
           ? refuse(trx, f, `charge ${charge.id} is not the payment Ohmstead accepted for sale ${claimed.id}`)
           : done('no matching sale');
-      const booked = await refundsOfSale(trx, sale.id)
+      const booked = await refundsOfSale(trx, sale)
         .select((eb) => eb.fn.coalesce(eb.fn.sum<number>('amount_minor'), eb.lit(0)).as('n'))
         .where('processor_refund_id', 'is not', null)
         .executeTakeFirstOrThrow();
@@ -220,11 +224,11 @@ async function dispatch(trx: Db, f: Found): Promise<EventOutcome> {
 /** Books a processor refund on its sale (our own refunds carry their lines in the metadata). */
 export async function bookProcessorRefund(
   trx: Db,
-  saleId: string,
+  sale: Pick<Sale, 'id' | 'space_id'>,
   refund: Stripe.Refund,
   source: string,
 ): Promise<string> {
-  const locked = await lockSale(trx, saleId);
+  const locked = await lockSale(trx, sale.space_id, sale.id);
   if (!['paid', 'partially_refunded', 'refunded'].includes(locked.status)) {
     // The refund of a sale we do not yet hold as paid: the reconciliation shows it for the treasurer.
     return `refund not booked: sale is ${locked.status} on our side`;

@@ -8,9 +8,10 @@ import { bookProcessorRefund } from './events';
  * a refund made on the processor's side), fetch the payment's refunds and book the missing ones.
  */
 export async function syncRefunds(db: Db, stripe: Stripe, saleId: string): Promise<number> {
+  // across spaces: the sale id comes from the webhook's own lookup (lib/payments/events.ts).
   const sale = await db
     .selectFrom('sales')
-    .select(['id', 'payment_intent_id'])
+    .select(['id', 'space_id', 'payment_intent_id'])
     .where('id', '=', saleId)
     .executeTakeFirst();
   if (!sale?.payment_intent_id) return 0;
@@ -22,7 +23,7 @@ export async function syncRefunds(db: Db, stripe: Stripe, saleId: string): Promi
     if (refund.status !== 'succeeded' && refund.status !== 'pending') continue;
     const outcome = await db
       .transaction()
-      .execute((trx) => bookProcessorRefund(trx, sale.id, refund, 'refund sync'));
+      .execute((trx) => bookProcessorRefund(trx, sale, refund, 'refund sync'));
     if (outcome === 'refund booked') booked += 1;
   }
   return booked;

@@ -1,6 +1,7 @@
 import 'server-only';
 import { sql } from 'kysely';
 import type { Db } from '@/db/connect';
+import { scoped } from '@/db/scoped';
 import type { Role } from '@/db/types';
 import { ROLES, type Ctx } from '@/lib/auth/roles';
 import { hashPassword } from '@/lib/auth/password';
@@ -42,7 +43,7 @@ const toInvitation = (r: {
 
 /** Invitations of the current space that can still be accepted, newest first. */
 export async function listInvitations(db: Db, ctx: Pick<Ctx, 'spaceId'>): Promise<Invitation[]> {
-  const rows = await db
+  const rows = await scoped(db, ctx)
     .selectFrom('invitations')
     .select(['id', 'email', 'name', 'roles', 'expires_at', 'created_at'])
     .where('space_id', '=', ctx.spaceId)
@@ -60,7 +61,7 @@ export async function listInvitations(db: Db, ctx: Pick<Ctx, 'spaceId'>): Promis
  */
 export async function createInvitation(db: Db, ctx: Ctx, input: InviteInput): Promise<Invitation> {
   return db.transaction().execute(async (trx) => {
-    const member = await trx
+    const member = await scoped(trx, ctx)
       .selectFrom('memberships')
       .innerJoin('users', 'users.id', 'memberships.user_id')
       .select('users.id')
@@ -73,7 +74,7 @@ export async function createInvitation(db: Db, ctx: Ctx, input: InviteInput): Pr
       });
 
     const at = now();
-    await trx
+    await scoped(trx, ctx)
       .updateTable('invitations')
       .set({ expires_at: at })
       .where('space_id', '=', ctx.spaceId)
@@ -83,7 +84,7 @@ export async function createInvitation(db: Db, ctx: Ctx, input: InviteInput): Pr
       .execute();
 
     const { token, hash } = newToken();
-    const row = await trx
+    const row = await scoped(trx, ctx)
       .insertInto('invitations')
       .values({
         space_id: ctx.spaceId,
@@ -113,7 +114,7 @@ export async function createInvitation(db: Db, ctx: Ctx, input: InviteInput): Pr
 export async function withdrawInvitation(db: Db, ctx: Ctx, id: string): Promise<void> {
   await db.transaction().execute(async (trx) => {
     const at = now();
-    const row = await trx
+    const row = await scoped(trx, ctx)
       .updateTable('invitations')
       .set({ expires_at: at })
       .where('id', '=', id)
@@ -145,6 +146,7 @@ export type OpenInvitation = {
 
 /** What the welcome page shows for a link; null when it is unknown, used, withdrawn or expired. */
 export async function findOpenInvitation(db: Db, token: string): Promise<OpenInvitation | null> {
+  // across spaces: the link's token is the only key a visitor has; the invitation names its space.
   const row = await db
     .selectFrom('invitations')
     .innerJoin('spaces', 'spaces.id', 'invitations.space_id')
@@ -182,6 +184,7 @@ export async function acceptInvitation(db: Db, input: AcceptInvitationInput): Pr
   const passwordHash = input.password ? await hashPassword(input.password) : null;
   return db.transaction().execute(async (trx) => {
     const at = now();
+    // across spaces: as above, the token finds the invitation and with it the space.
     const inv = await trx
       .updateTable('invitations')
       .set({ accepted_at: at })
@@ -231,7 +234,7 @@ export async function acceptInvitation(db: Db, input: AcceptInvitationInput): Pr
 
     // Roles merge with any the person already holds here, kept in the fixed order of ROLES.
     const order = sql.raw(`array[${ROLES.map((r) => `'${r}'`).join(',')}]::text[]`);
-    await trx
+    await scoped(trx, { spaceId: inv.space_id })
       .insertInto('memberships')
       .values({ space_id: inv.space_id, user_id: userId, roles: inv.roles })
       .onConflict((oc) =>

@@ -1,6 +1,7 @@
 import 'server-only';
 import { sql } from 'kysely';
 import type { Db } from '@/db/connect';
+import { scoped } from '@/db/scoped';
 import type { Role } from '@/db/types';
 import type { Ctx } from '@/lib/auth/roles';
 import { audit } from '@/lib/audit/log';
@@ -21,7 +22,7 @@ export type Person = {
 const isAdmin = sql<boolean>`'admin' = any(memberships.roles)`;
 
 function peopleOf(db: Db, spaceId: string) {
-  return db
+  return scoped(db, { spaceId })
     .selectFrom('memberships')
     .innerJoin('users', 'users.id', 'memberships.user_id')
     .select([
@@ -70,7 +71,7 @@ export async function updatePerson(
     // elsewhere that merely reference the space.
     await trx.selectFrom('spaces').select('id').where('id', '=', ctx.spaceId).forNoKeyUpdate().execute();
     // Read after the lock: in READ COMMITTED this statement sees whatever the previous holder committed.
-    const rows = await trx
+    const rows = await scoped(trx, ctx)
       .selectFrom('memberships')
       .select(['user_id', 'roles', 'disabled_at'])
       .where('space_id', '=', ctx.spaceId)
@@ -98,7 +99,7 @@ export async function updatePerson(
     }
 
     if (input.roles || disabled !== wasDisabled) {
-      await trx
+      await scoped(trx, ctx)
         .updateTable('memberships')
         .set({ roles, disabled_at: disabled ? (target.disabled_at ?? now()) : null })
         .where('space_id', '=', ctx.spaceId)

@@ -1,6 +1,7 @@
 import 'server-only';
 import { sql } from 'kysely';
 import type { Db } from '@/db/connect';
+import { scoped } from '@/db/scoped';
 import { monthRange, shiftMonth, spaceClock, type Month } from '@/lib/sales/periods';
 
 export type MonthCategoryPoint = { month: Month } & Record<string, number | string>;
@@ -16,7 +17,7 @@ export async function salesByMonthAndCategory(
   const first = shiftMonth(until, -(months - 1));
   const { from } = monthRange(first, timeZone);
   const { to } = monthRange(until, timeZone);
-  const rows = await db
+  const rows = await scoped(db, { spaceId })
     .selectFrom('sale_lines')
     .innerJoin('sales', 'sales.id', 'sale_lines.sale_id')
     .innerJoin('parts', 'parts.id', 'sale_lines.part_id')

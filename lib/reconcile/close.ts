@@ -1,5 +1,6 @@
 import 'server-only';
 import type { Db } from '@/db/connect';
+import { scoped } from '@/db/scoped';
 import { hasRole, type Ctx } from '@/lib/auth/roles';
 import { audit } from '@/lib/audit/log';
 import { now } from '@/lib/clock';
@@ -39,7 +40,7 @@ export async function closeMonth(
     );
   }
   return db.transaction().execute(async (trx) => {
-    const pending = await trx
+    const pending = await scoped(trx, ctx)
       .selectFrom('sales')
       .select((eb) => eb.fn.countAll<number>().as('n'))
       .where('space_id', '=', ctx.spaceId)
@@ -56,7 +57,7 @@ export async function closeMonth(
       payouts: report.payouts.length,
       unresolved: unresolved.map((r) => r.key),
     };
-    const row = await trx
+    const row = await scoped(trx, ctx)
       .insertInto('closed_periods')
       .values({
         space_id: ctx.spaceId,

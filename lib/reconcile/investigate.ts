@@ -1,6 +1,7 @@
 import 'server-only';
 import { sql } from 'kysely';
 import type { Db } from '@/db/connect';
+import { scoped } from '@/db/scoped';
 import { PAYMENT_REFUSED } from '@/lib/sales/refused';
 
 // The Books' "to investigate" list: payments the processor reported that Ohmstead refused to count
@@ -34,7 +35,7 @@ export async function refusedPayments(
   from: Date,
   to: Date,
 ): Promise<ToInvestigate[]> {
-  const rows = await db
+  const rows = await scoped(db, { spaceId })
     .selectFrom('audit_log')
     .select(['created_at', 'target_id', sql<Detail>`detail`.as('detail')])
     .where('space_id', '=', spaceId)

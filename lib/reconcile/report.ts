@@ -1,6 +1,7 @@
 import 'server-only';
 import type Stripe from 'stripe';
 import type { Db } from '@/db/connect';
+import { scoped } from '@/db/scoped';
 import type { Ctx } from '@/lib/auth/roles';
 import { monthKey, monthRange, spaceClock, type Month } from '@/lib/sales/periods';
 import { refusedPayments, type ToInvestigate } from './investigate';
@@ -53,7 +54,7 @@ export async function reconcileMonth(
   });
   const { sales, refunds } = await ourSide(db, ctx.spaceId, from, to, theirs);
   const result = matchPeriod({ from, to, spaceId: ctx.spaceId, currency, sales, refunds, theirs });
-  const closed = await db
+  const closed = await scoped(db, ctx)
     .selectFrom('closed_periods')
     .leftJoin('users', 'users.id', 'closed_periods.closed_by')
     .select(['closed_periods.closed_at', 'users.name'])
@@ -112,7 +113,7 @@ async function ourSide(
     ),
   ];
 
-  const saleRows = await db
+  const saleRows = await scoped(db, { spaceId })
     .selectFrom('sales')
     .leftJoin('users', 'users.id', 'sales.buyer_id')
     .select([
@@ -139,7 +140,7 @@ async function ourSide(
     )
     .execute();
 
-  const refundRows = await db
+  const refundRows = await scoped(db, { spaceId })
     .selectFrom('refunds')
     .innerJoin('sales', 'sales.id', 'refunds.sale_id')
     .select([

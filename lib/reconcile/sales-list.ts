@@ -1,5 +1,6 @@
 import 'server-only';
 import type { Db } from '@/db/connect';
+import { scoped } from '@/db/scoped';
 import type { SaleStatus } from '@/db/types';
 import { monthRange, spaceClock, type Month } from '@/lib/sales/periods';
 
@@ -19,7 +20,7 @@ export type SaleListRow = {
 export async function salesOfMonth(db: Db, spaceId: string, month: Month): Promise<SaleListRow[]> {
   const { timeZone } = await spaceClock(db, spaceId);
   const { from, to } = monthRange(month, timeZone);
-  const rows = await db
+  const rows = await scoped(db, { spaceId })
     .selectFrom('sales')
     .leftJoin('users', 'users.id', 'sales.buyer_id')
     .select([

@@ -1,5 +1,6 @@
 import 'server-only';
 import type { Db } from '@/db/connect';
+import { scoped } from '@/db/scoped';
 import { audit } from '@/lib/audit/log';
 import { InvalidError } from '@/lib/errors';
 import { env } from '@/lib/env';
@@ -21,6 +22,7 @@ export async function deliverReminder(
   send: SendFn,
 ): Promise<DeliverOutcome> {
   return db.transaction().execute(async (trx) => {
+    // across spaces: the sweep hands over reminder ids of every space; the row names its own space.
     const r = await trx
       .selectFrom('reminders')
       .innerJoin('loans', 'loans.id', 'reminders.loan_id')
@@ -49,7 +51,7 @@ export async function deliverReminder(
       .executeTakeFirst();
     if (!r) return 'skipped';
     const finish = async (status: 'sent' | 'failed', detail: Record<string, unknown>) => {
-      await trx
+      await scoped(trx, { spaceId: r.space_id })
         .updateTable('reminders')
         .set({ status, sent_at: status === 'sent' ? at : null })
         .where('id', '=', r.id)
@@ -67,7 +69,7 @@ export async function deliverReminder(
     // Returned since the reminder was queued: nothing to remind of.
     if (r.status !== 'out') return finish('failed', { why: 'returned before it was sent' });
 
-    const lines = await trx
+    const lines = await scoped(trx, { spaceId: r.space_id })
       .selectFrom('loan_lines')
       .innerJoin('parts', 'parts.id', 'loan_lines.part_id')
       .leftJoin('units', 'units.id', 'loan_lines.unit_id')

@@ -1,5 +1,6 @@
 import 'server-only';
 import type { Db } from '@/db/connect';
+import { scoped } from '@/db/scoped';
 import { isStaff, type Ctx } from '@/lib/auth/roles';
 import { now } from '@/lib/clock';
 import { ConflictError, ForbiddenError, NotFoundError } from '@/lib/errors';
@@ -25,7 +26,7 @@ export async function sendManualReminders(
   const at = now();
   const reminderIds = await db.transaction().execute(async (trx) => {
     // Locked, so two stewards pressing the button at once cannot both pass the pause check.
-    const loans = await trx
+    const loans = await scoped(trx, ctx)
       .selectFrom('loans')
       .innerJoin('users', 'users.id', 'loans.borrower_id')
       .select(['loans.id', 'loans.status', 'users.name as borrower'])
@@ -57,7 +58,7 @@ export async function sendManualReminders(
         { [`loanIds.${loanIds.indexOf(id)}`]: [`reminded recently; next from ${formatDateTime(until, space.time_zone)}`] },
       );
     });
-    const rows = await trx
+    const rows = await scoped(trx, ctx)
       .insertInto('reminders')
       .values(
         ids.map((id) => ({

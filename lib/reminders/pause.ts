@@ -13,6 +13,7 @@ const PAUSE_MS = REMINDER_PAUSE_HOURS * 3_600_000;
 /** For each of `loanIds` reminded within the pause before `at`: when the next reminder may go. */
 export async function pausedUntil(db: Db, loanIds: string[], at: Date): Promise<Map<string, Date>> {
   if (!loanIds.length) return new Map();
+  // across spaces: the loan ids come from a scoped read, or from the sweep over every space.
   const rows = await db
     .selectFrom('reminders')
     .select(['loan_id', sql<Date>`max(coalesce(sent_at, created_at))`.as('last')])

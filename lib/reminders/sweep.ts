@@ -1,6 +1,7 @@
 import 'server-only';
 import { sql } from 'kysely';
 import type { Db } from '@/db/connect';
+import { scoped } from '@/db/scoped';
 import { localDay } from '@/lib/loans/due';
 import { notifyReadyHolds, type SendFn } from '@/lib/loans/notify';
 import { sendMail } from '@/lib/mail/send';
@@ -23,6 +24,7 @@ export async function runReminderSweep(
   deps: { send?: SendFn; spaceId?: string } = {},
 ): Promise<SweepResult> {
   const send = deps.send ?? sendMail;
+  // across spaces: the scheduled sweep reads every space's open loans (or one space's, when asked).
   let due = db
     .selectFrom('loans')
     .innerJoin('spaces', 'spaces.id', 'loans.space_id')
@@ -55,7 +57,7 @@ export async function runReminderSweep(
       { daysBefore: l.reminder_days_before, everyDays: l.reminder_every_days },
     );
     if (!slot) continue;
-    const row = await db
+    const row = await scoped(db, { spaceId: l.space_id })
       .insertInto('reminders')
       .values({
         space_id: l.space_id,
@@ -73,6 +75,7 @@ export async function runReminderSweep(
     if (row) queued++;
   }
 
+  // across spaces: as above, every space's reminders waiting to go.
   let pendingQuery = db.selectFrom('reminders').select('id').where('status', '=', 'pending');
   if (deps.spaceId) pendingQuery = pendingQuery.where('space_id', '=', deps.spaceId);
   const pending = await pendingQuery.orderBy('created_at').orderBy('id').limit(1000).execute();

@@ -1,5 +1,6 @@
 import 'server-only';
 import type { Db } from '@/db/connect';
+import { scoped } from '@/db/scoped';
 import type { Sale } from '@/db/types';
 import { markSalePaid, type PaidOutcome } from './paid';
 import { recordRefusedPayment } from './refused';
@@ -58,7 +59,7 @@ export async function acceptPayment(trx: Db, sale: SaleMoney, ev: PaymentEvidenc
       currency: ev.currency,
       why,
     });
-    const current = await trx.selectFrom('sales').selectAll().where('id', '=', sale.id).executeTakeFirst();
+    const current = await scoped(trx, { spaceId: sale.space_id }).selectFrom('sales').selectAll().where('id', '=', sale.id).executeTakeFirst();
     return { changed: false, refused: why, sale: current ?? null };
   }
   return markSalePaid(trx, {

@@ -1,4 +1,5 @@
 import type { Db } from '@/db/connect';
+import { scoped } from '@/db/scoped';
 import type { Sale } from '@/db/types';
 import { hasRole, isStaff, type Ctx } from '@/lib/auth/roles';
 import { ForbiddenError, InvalidError, NotFoundError } from '@/lib/errors';
@@ -10,7 +11,7 @@ export function canSeeAllSales(ctx: Ctx): boolean {
 
 /** The sale in the caller's space that the caller may see; anything else is 404, never 403. */
 export async function saleFor(db: Db, ctx: Ctx, saleId: string, lock = false): Promise<Sale> {
-  let q = db.selectFrom('sales').selectAll().where('id', '=', saleId).where('space_id', '=', ctx.spaceId);
+  let q = scoped(db, ctx).selectFrom('sales').selectAll().where('id', '=', saleId).where('space_id', '=', ctx.spaceId);
   if (!canSeeAllSales(ctx))
     q = q.where((eb) => eb.or([eb('buyer_id', '=', ctx.userId), eb('cashier_id', '=', ctx.userId)]));
   const sale = await (lock ? q.forUpdate() : q).executeTakeFirst();
@@ -22,7 +23,7 @@ export async function saleFor(db: Db, ctx: Ctx, saleId: string, lock = false): P
 export async function resolveBuyer(db: Db, ctx: Ctx, buyerId: string | undefined): Promise<string> {
   if (!buyerId || buyerId === ctx.userId) return ctx.userId;
   if (!isStaff(ctx)) throw new ForbiddenError('Only a steward can sell on someone else’s behalf.');
-  const member = await db
+  const member = await scoped(db, ctx)
     .selectFrom('memberships')
     .select('user_id')
     .where('space_id', '=', ctx.spaceId)

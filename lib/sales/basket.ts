@@ -1,5 +1,6 @@
 import { sql } from 'kysely';
 import type { Db } from '@/db/connect';
+import { scoped } from '@/db/scoped';
 import type { PartCategory } from '@/db/types';
 import { ConflictError, InvalidError, type FieldErrors } from '@/lib/errors';
 
@@ -28,7 +29,7 @@ export async function priceBasket(
     wanted.set(l.partId, { qty: (seen?.qty ?? 0) + l.qty, index: seen?.index ?? index });
   });
   const ids = [...wanted.keys()];
-  const parts = await db
+  const parts = await scoped(db, { spaceId })
     .selectFrom('parts')
     .select(['id', 'name', 'category', 'sale_unit', 'price_minor', 'sellable', 'tracking', 'archived_at'])
     .select((eb) =>

@@ -1,6 +1,7 @@
 import 'server-only';
 import type Stripe from 'stripe';
 import type { Db } from '@/db/connect';
+import { scoped } from '@/db/scoped';
 import type { Ctx } from '@/lib/auth/roles';
 import { audit } from '@/lib/audit/log';
 import { AppError, UnavailableError } from '@/lib/errors';
@@ -42,7 +43,7 @@ export async function startCardSale(
   const { sale, lines } = await db.transaction().execute(async (trx) => {
     const { currency } = await spaceClock(trx, ctx.spaceId);
     const priced = await priceBasket(trx, ctx.spaceId, input.lines);
-    const row = await trx
+    const row = await scoped(trx, ctx)
       .insertInto('sales')
       .values({
         space_id: ctx.spaceId,
@@ -55,7 +56,7 @@ export async function startCardSale(
       })
       .returningAll()
       .executeTakeFirstOrThrow();
-    await trx
+    await scoped(trx, ctx)
       .insertInto('sale_lines')
       .values(
         priced.map((l) => ({
@@ -113,7 +114,7 @@ export async function startCardSale(
 
   const expiresAt = new Date(session.expires_at * 1000);
   await db.transaction().execute(async (trx) => {
-    await trx
+    await scoped(trx, ctx)
       .updateTable('sales')
       .set({ checkout_session_id: session.id, expires_at: expiresAt })
       .where('id', '=', sale.id)

@@ -1,4 +1,5 @@
 import type { Db } from '@/db/connect';
+import { scoped } from '@/db/scoped';
 import { isStaff, type Ctx } from '@/lib/auth/roles';
 import { audit } from '@/lib/audit/log';
 import { now } from '@/lib/clock';
@@ -21,7 +22,7 @@ export async function writeCashSale(
     at: Date;
   },
 ): Promise<{ id: string; total_minor: number }> {
-  const sale = await trx
+  const sale = await scoped(trx, { spaceId: input.spaceId })
     .insertInto('sales')
     .values({
       space_id: input.spaceId,
@@ -36,7 +37,7 @@ export async function writeCashSale(
     })
     .returning(['id', 'total_minor'])
     .executeTakeFirstOrThrow();
-  const lines = await trx
+  const lines = await scoped(trx, { spaceId: input.spaceId })
     .insertInto('sale_lines')
     .values(
       input.lines.map((l) => ({

@@ -1,6 +1,7 @@
 import 'server-only';
 import { sql } from 'kysely';
 import type { Db } from '@/db/connect';
+import { scoped } from '@/db/scoped';
 import type { PartCategory } from '@/db/types';
 
 export type CatalogItem = {
@@ -16,7 +17,7 @@ export type CatalogItem = {
 
 /** What the counter sells: counted, priced, sellable, not archived parts, with what is on the shelf. */
 export async function sellableCatalog(db: Db, spaceId: string): Promise<CatalogItem[]> {
-  const rows = await db
+  const rows = await scoped(db, { spaceId })
     .selectFrom('parts')
     .leftJoin('stock', 'stock.part_id', 'parts.id')
     .select([
@@ -51,7 +52,7 @@ export async function sellableCatalog(db: Db, spaceId: string): Promise<CatalogI
 
 /** People a steward can ring a sale up for. */
 export async function buyersOf(db: Db, spaceId: string): Promise<{ id: string; name: string }[]> {
-  return db
+  return scoped(db, { spaceId })
     .selectFrom('memberships')
     .innerJoin('users', 'users.id', 'memberships.user_id')
     .select(['users.id', 'users.name'])

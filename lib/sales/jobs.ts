@@ -48,6 +48,7 @@ export async function runSaleSweep(
     receipts: [],
   };
   if (opts.spaceIds && opts.spaceIds.length === 0) return run;
+  // across spaces: the scheduled sweep finds which spaces have sales to sweep, then works per space.
   let q = db
     .selectFrom('sales')
     .select('space_id')

@@ -1,4 +1,5 @@
 import type { Db } from '@/db/connect';
+import { scoped } from '@/db/scoped';
 import type { Sale } from '@/db/types';
 import { audit } from '@/lib/audit/log';
 import { now } from '@/lib/clock';
@@ -31,13 +32,15 @@ export type PaidOutcome =
  */
 export async function markSalePaid(trx: Db, info: PaidInfo): Promise<PaidOutcome> {
   let paidAt = info.paidAt ?? now();
+  // across spaces: the caller found this sale by the processor's ids Ohmstead stored (lib/sales/accept.ts).
   const current = await trx.selectFrom('sales').selectAll().where('id', '=', info.saleId).executeTakeFirst();
   if (!current) return { changed: false, sale: null };
+  const inSpace = scoped(trx, { spaceId: current.space_id });
   // A closed month never changes: a late payment lands in today's (open) month instead.
   const closedMonth = await isClosedAt(trx, current.space_id, paidAt);
   if (closedMonth) paidAt = now();
 
-  const sale = await trx
+  const sale = await inSpace
     .updateTable('sales')
     .set({ status: 'paid', paid_at: paidAt, payment_intent_id: info.paymentIntentId })
     .where('id', '=', info.saleId)
@@ -47,11 +50,11 @@ export async function markSalePaid(trx: Db, info: PaidInfo): Promise<PaidOutcome
     .executeTakeFirst();
   if (!sale) {
     // Another delivery got here first (its transaction held the row); report the state it left.
-    const latest = await trx.selectFrom('sales').selectAll().where('id', '=', info.saleId).executeTakeFirst();
+    const latest = await inSpace.selectFrom('sales').selectAll().where('id', '=', info.saleId).executeTakeFirst();
     return { changed: false, sale: latest ?? current };
   }
 
-  const lines = await trx
+  const lines = await inSpace
     .selectFrom('sale_lines')
     .select(['id', 'part_id', 'qty'])
     .where('sale_id', '=', sale.id)
@@ -109,6 +112,7 @@ export async function markSaleEnded(
   status: 'expired' | 'failed',
   why: { source: string; actorId?: string | null; reason?: string },
 ): Promise<boolean> {
+  // across spaces: called by the webhook and the sweeps with the sale they found (by stored ids, per space).
   const sale = await trx
     .updateTable('sales')
     .set({ status })

@@ -1,5 +1,6 @@
 import { TZDate } from '@date-fns/tz';
 import type { Db } from '@/db/connect';
+import { scoped } from '@/db/scoped';
 
 // Books periods are calendar months in the space's own time zone (a setting): a sale at 23:30 on the
 // 31st in Chicago belongs to that month even though it is already the 1st in UTC.
@@ -55,7 +56,7 @@ export async function spaceClock(db: Db, spaceId: string): Promise<{ timeZone: s
 /** True when the month holding `at` (in the space's zone) has been closed by the treasurer. */
 export async function isClosedAt(db: Db, spaceId: string, at: Date): Promise<boolean> {
   const { timeZone } = await spaceClock(db, spaceId);
-  const row = await db
+  const row = await scoped(db, { spaceId })
     .selectFrom('closed_periods')
     .select('month')
     .where('space_id', '=', spaceId)

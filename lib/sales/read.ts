@@ -1,5 +1,6 @@
 import 'server-only';
 import type { Db } from '@/db/connect';
+import { scoped } from '@/db/scoped';
 import type { SaleStatus } from '@/db/types';
 import type { Ctx } from '@/lib/auth/roles';
 import { saleFor } from './access';
@@ -53,20 +54,20 @@ export async function saleView(db: Db, ctx: Ctx, saleId: string): Promise<SaleVi
     ? await db.selectFrom('users').select(['id', 'name']).where('id', 'in', ids).execute()
     : [];
   const nameOf = (id: string | null) => people.find((p) => p.id === id)?.name ?? null;
-  const names = await db
+  const names = await scoped(db, ctx)
     .selectFrom('sale_lines')
     .innerJoin('parts', 'parts.id', 'sale_lines.part_id')
     .select(['sale_lines.id', 'parts.name'])
     .where('sale_lines.sale_id', '=', sale.id)
     .execute();
   const state = await refundState(db, sale);
-  const reversals = await db
+  const reversals = await scoped(db, ctx)
     .selectFrom('sales')
     .select(['id', 'total_minor', 'created_at'])
     .where('reverses_sale_id', '=', sale.id)
     .orderBy('created_at')
     .execute();
-  const refunds = await db
+  const refunds = await scoped(db, ctx)
     .selectFrom('refunds')
     .select(['id', 'amount_minor', 'restock', 'created_at', 'processor_refund_id', 'sale_id'])
     .where('sale_id', 'in', [sale.id, ...reversals.map((r) => r.id)])

@@ -1,5 +1,6 @@
 import type Stripe from 'stripe';
 import type { Db } from '@/db/connect';
+import { scoped } from '@/db/scoped';
 import type { Sale } from '@/db/types';
 import { isId } from '@/lib/ids';
 import { hasRole, type Ctx } from '@/lib/auth/roles';
@@ -26,13 +27,13 @@ type LineState = {
 export type RefundState = { lines: LineState[]; refundedMinor: number; leftMinor: number; count: number };
 
 /** The refunds of a sale: booked on it, or on its reversing entries. */
-export const refundsOfSale = (db: Db, saleId: string) =>
-  db
+export const refundsOfSale = (db: Db, sale: Pick<Sale, 'id' | 'space_id'>) =>
+  scoped(db, { spaceId: sale.space_id })
     .selectFrom('refunds')
     .where((eb) =>
       eb.or([
-        eb('sale_id', '=', saleId),
-        eb('sale_id', 'in', eb.selectFrom('sales').select('id').where('reverses_sale_id', '=', saleId)),
+        eb('sale_id', '=', sale.id),
+        eb('sale_id', 'in', eb.selectFrom('sales').select('id').where('reverses_sale_id', '=', sale.id)),
       ]),
     );
 
@@ -40,13 +41,13 @@ export const refundsOfSale = (db: Db, saleId: string) =>
  * What has been refunded of a sale so far: its own refunds plus those booked on reversing entries
  * (refunds of a sale in a closed month are booked on a reversing sale dated in the open month).
  */
-export async function refundState(db: Db, sale: Pick<Sale, 'id' | 'total_minor'>): Promise<RefundState> {
-  const refunds = await refundsOfSale(db, sale.id).select(['amount_minor', 'lines']).execute();
+export async function refundState(db: Db, sale: Pick<Sale, 'id' | 'space_id' | 'total_minor'>): Promise<RefundState> {
+  const refunds = await refundsOfSale(db, sale).select(['amount_minor', 'lines']).execute();
   const perLine = new Map<string, number>();
   for (const r of refunds)
     for (const l of r.lines) perLine.set(l.saleLineId, (perLine.get(l.saleLineId) ?? 0) + l.qty);
   const refundedMinor = refunds.reduce((s, r) => s + r.amount_minor, 0);
-  const lines = await db
+  const lines = await scoped(db, { spaceId: sale.space_id })
     .selectFrom('sale_lines')
     .select(['id', 'part_id', 'location_id', 'qty', 'unit_price_minor'])
     .where('sale_id', '=', sale.id)
@@ -154,7 +155,7 @@ export async function applyRefund(
   input: ApplyRefundInput,
 ): Promise<{ applied: boolean; refundId: string | null }> {
   if (input.processorRefundId) {
-    const seen = await trx
+    const seen = await scoped(trx, { spaceId: sale.space_id })
       .selectFrom('refunds')
       .select('id')
       .where('processor_refund_id', '=', input.processorRefundId)
@@ -171,7 +172,7 @@ export async function applyRefund(
 
   let bookedOn = sale.id;
   if (closed) {
-    const reversal = await trx
+    const reversal = await scoped(trx, { spaceId: sale.space_id })
       .insertInto('sales')
       .values({
         space_id: sale.space_id,
@@ -190,7 +191,7 @@ export async function applyRefund(
       .executeTakeFirstOrThrow();
     bookedOn = reversal.id;
     if (lines.length) {
-      await trx
+      await scoped(trx, { spaceId: sale.space_id })
         .insertInto('sale_lines')
         .values(
           lines.map((l) => {
@@ -209,7 +210,7 @@ export async function applyRefund(
     }
   }
 
-  const refund = await trx
+  const refund = await scoped(trx, { spaceId: sale.space_id })
     .insertInto('refunds')
     .values({
       space_id: sale.space_id,
@@ -226,7 +227,7 @@ export async function applyRefund(
 
   if (!closed) {
     for (const l of lines) {
-      await trx
+      await scoped(trx, { spaceId: sale.space_id })
         .updateTable('sale_lines')
         .set((eb) => ({ refunded_qty: eb('refunded_qty', '+', l.qty) }))
         .where('id', '=', l.saleLineId)
@@ -234,7 +235,7 @@ export async function applyRefund(
         .execute();
     }
     const refunded = state.refundedMinor + input.amountMinor;
-    await trx
+    await scoped(trx, { spaceId: sale.space_id })
       .updateTable('sales')
       .set({ status: refunded >= sale.total_minor ? 'refunded' : 'partially_refunded' })
       .where('id', '=', sale.id)
@@ -274,8 +275,8 @@ export async function applyRefund(
   return { applied: true, refundId: refund.id };
 }
 
-const lockSale = (trx: Db, saleId: string) =>
-  trx.selectFrom('sales').selectAll().where('id', '=', saleId).forUpdate().executeTakeFirstOrThrow();
+const lockSale = (trx: Db, spaceId: string, saleId: string) =>
+  scoped(trx, { spaceId }).selectFrom('sales').selectAll().where('id', '=', saleId).forUpdate().executeTakeFirstOrThrow();
 
 /**
  * A refund by the treasurer, full or per line, optionally putting the items back on the shelf. Card
@@ -309,13 +310,13 @@ export async function refundSale(
       source: 'treasurer',
     });
   const statusOf = async (trx: Db) =>
-    (await trx.selectFrom('sales').select('status').where('id', '=', sale.id).executeTakeFirstOrThrow())
+    (await scoped(trx, ctx).selectFrom('sales').select('status').where('id', '=', sale.id).executeTakeFirstOrThrow())
       .status;
 
   if (sale.method === 'cash') {
     // No processor: plan and book under the sale's lock, so a double click cannot refund twice.
     return db.transaction().execute(async (trx) => {
-      const locked = await lockSale(trx, sale.id);
+      const locked = await lockSale(trx, sale.space_id, sale.id);
       refundable(locked);
       const plan = planRefund(await refundState(trx, locked), input.lines);
       const out = await book(trx, locked, plan, null);
@@ -353,7 +354,7 @@ export async function refundSale(
     throw processorError(err, 'refund this card payment');
   }
   return db.transaction().execute(async (trx) => {
-    const locked = await lockSale(trx, sale.id);
+    const locked = await lockSale(trx, sale.space_id, sale.id);
     const out = await book(trx, locked, plan, processorRefundId);
     return { refundId: out.refundId, amountMinor: plan.amountMinor, status: await statusOf(trx) };
   });

@@ -1,6 +1,7 @@
 import 'server-only';
 import { sql } from 'kysely';
 import type { Db } from '@/db/connect';
+import { scoped } from '@/db/scoped';
 import { audit } from '@/lib/audit/log';
 
 // A payment Ohmstead refused to count (a checkout session it did not open for the sale, or money that
@@ -29,7 +30,7 @@ export async function recordRefusedPayment(trx: Db, r: RefusedPayment): Promise<
   if (!r.spaceId) return false; // names no space of ours: only payment_events keeps it
   const key = `${r.spaceId}:${r.saleId ?? '-'}:${r.objectId ?? '-'}`;
   await sql`select pg_advisory_xact_lock(hashtext(${key}))`.execute(trx);
-  let seen = trx
+  let seen = scoped(trx, { spaceId: r.spaceId })
     .selectFrom('audit_log')
     .select('id')
     .where('space_id', '=', r.spaceId)

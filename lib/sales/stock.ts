@@ -1,5 +1,6 @@
 import { sql } from 'kysely';
 import type { Db } from '@/db/connect';
+import { scoped } from '@/db/scoped';
 
 export type Shortfall = { partId: string; saleLineId: string; wanted: number; taken: number };
 
@@ -27,7 +28,7 @@ export async function takeStock(
     a.part_id < b.part_id ? -1 : a.part_id > b.part_id ? 1 : 0,
   );
   for (const line of ordered) {
-    const rows = await trx
+    const rows = await scoped(trx, { spaceId: input.spaceId })
       .selectFrom('stock')
       .select(['location_id', 'qty'])
       .where('space_id', '=', input.spaceId)
@@ -42,14 +43,14 @@ export async function takeStock(
     for (const bin of bins) {
       if (remaining === 0) break;
       const take = Math.min(bin.qty, remaining);
-      await trx
+      await scoped(trx, { spaceId: input.spaceId })
         .updateTable('stock')
         .set({ qty: sql`qty - ${take}`, updated_at: sql`now()` })
         .where('part_id', '=', line.part_id)
         .where('location_id', '=', bin.location_id)
         .where('qty', '>=', take)
         .executeTakeFirstOrThrow();
-      await trx
+      await scoped(trx, { spaceId: input.spaceId })
         .insertInto('stock_movements')
         .values({
           space_id: input.spaceId,
@@ -67,7 +68,7 @@ export async function takeStock(
       remaining -= take;
     }
     if (firstBin)
-      await trx.updateTable('sale_lines').set({ location_id: firstBin }).where('id', '=', line.id).execute();
+      await scoped(trx, { spaceId: input.spaceId }).updateTable('sale_lines').set({ location_id: firstBin }).where('id', '=', line.id).execute();
     if (remaining > 0) {
       if (!input.allowShort)
         return [{ partId: line.part_id, saleLineId: line.id, wanted: line.qty, taken: line.qty - remaining }];
@@ -97,7 +98,7 @@ export async function returnStock(
   for (const line of input.lines) {
     let locationId = line.locationId;
     if (!locationId) {
-      const bin = await trx
+      const bin = await scoped(trx, { spaceId: input.spaceId })
         .selectFrom('stock')
         .select('location_id')
         .where('space_id', '=', input.spaceId)
@@ -111,7 +112,7 @@ export async function returnStock(
       notReturned.push({ partId: line.partId, qty: line.qty });
       continue;
     }
-    await trx
+    await scoped(trx, { spaceId: input.spaceId })
       .insertInto('stock')
       .values({ space_id: input.spaceId, part_id: line.partId, location_id: locationId, qty: line.qty })
       .onConflict((oc) =>
@@ -120,7 +121,7 @@ export async function returnStock(
           .doUpdateSet({ qty: sql`stock.qty + ${line.qty}`, updated_at: sql`now()` }),
       )
       .execute();
-    await trx
+    await scoped(trx, { spaceId: input.spaceId })
       .insertInto('stock_movements')
       .values({
         space_id: input.spaceId,

@@ -1,6 +1,7 @@
 import 'server-only';
 import type Stripe from 'stripe';
 import type { Db } from '@/db/connect';
+import { scoped } from '@/db/scoped';
 import { isProcessorUnreachable } from './processor-errors';
 import { settleSale } from './settle';
 
@@ -21,7 +22,7 @@ const NO_SESSION_GRACE_MS = 5 * 60_000;
 
 /** The space's pending card sales that are due for a sweep. */
 function overdue(db: Db, opts: { spaceId: string; now: Date }) {
-  return db
+  return scoped(db, opts)
     .selectFrom('sales')
     .where('space_id', '=', opts.spaceId)
     .where('method', '=', 'card')

@@ -1,6 +1,7 @@
 import 'server-only';
 import type { Updateable } from 'kysely';
 import type { Db } from '@/db/connect';
+import { scoped } from '@/db/scoped';
 import type { SpacesTable } from '@/db/types';
 import type { Ctx } from '@/lib/auth/roles';
 import { LAYOUT_IDS, type LayoutId } from '@/labels/layouts';
@@ -47,7 +48,7 @@ function toSettings(row: Record<Column, string | number>): Settings {
 
 /** Sales carry their currency, but one space's books in two currencies cannot be reconciled month by month. */
 async function refuseCurrencyChangeWithSales(db: Db, spaceId: string, current: string): Promise<void> {
-  const sale = await db
+  const sale = await scoped(db, { spaceId })
     .selectFrom('sales')
     .select('id')
     .where('space_id', '=', spaceId)

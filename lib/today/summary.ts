@@ -1,6 +1,7 @@
 import 'server-only';
 import { sql } from 'kysely';
 import type { Db } from '@/db/connect';
+import { scoped } from '@/db/scoped';
 import { hasRole, type Ctx } from '@/lib/auth/roles';
 import { now } from '@/lib/clock';
 import { boxesOutOfService, type OutOfServiceBox } from '@/lib/kits/upkeep';
@@ -21,7 +22,7 @@ export type TodaySummary = {
 /** What needs this person now, in their current space, by role. */
 export async function todaySummary(db: Db, ctx: Ctx): Promise<TodaySummary> {
   const at = now();
-  const myLoans = await db
+  const myLoans = await scoped(db, ctx)
     .selectFrom('loans')
     .leftJoin('kit_boxes', 'kit_boxes.id', 'loans.kit_box_id')
     .select(['loans.id', 'loans.due_at', 'kit_boxes.name as box'])
@@ -48,14 +49,14 @@ export async function todaySummary(db: Db, ctx: Ctx): Promise<TodaySummary> {
   };
 
   if (hasRole(ctx, 'steward', 'admin')) {
-    const overdue = await db
+    const overdue = await scoped(db, ctx)
       .selectFrom('loans')
       .select((eb) => eb.fn.countAll<number>().as('n'))
       .where('space_id', '=', ctx.spaceId)
       .where('status', '=', 'out')
       .where('due_at', '<', at)
       .executeTakeFirstOrThrow();
-    const belowReorder = await db
+    const belowReorder = await scoped(db, ctx)
       .selectFrom('parts')
       .leftJoin('stock', 'stock.part_id', 'parts.id')
       .select(['parts.id', 'parts.name', 'parts.reorder_point'])
@@ -69,7 +70,7 @@ export async function todaySummary(db: Db, ctx: Ctx): Promise<TodaySummary> {
       .orderBy('parts.name')
       .limit(20)
       .execute();
-    const repair = await db
+    const repair = await scoped(db, ctx)
       .selectFrom('units')
       .select((eb) => eb.fn.countAll<number>().as('n'))
       .where('space_id', '=', ctx.spaceId)
@@ -85,7 +86,7 @@ export async function todaySummary(db: Db, ctx: Ctx): Promise<TodaySummary> {
 
   if (hasRole(ctx, 'treasurer')) {
     const space = await db.selectFrom('spaces').select('currency').where('id', '=', ctx.spaceId).executeTakeFirstOrThrow();
-    const row = await db
+    const row = await scoped(db, ctx)
       .selectFrom('sales')
       .select([
         sql<number>`count(*) filter (where status = 'pending')::int`.as('pending'),
@@ -98,12 +99,12 @@ export async function todaySummary(db: Db, ctx: Ctx): Promise<TodaySummary> {
   }
 
   if (hasRole(ctx, 'admin')) {
-    const people = await db
+    const people = await scoped(db, ctx)
       .selectFrom('memberships')
       .select((eb) => eb.fn.countAll<number>().as('n'))
       .where('space_id', '=', ctx.spaceId)
       .executeTakeFirstOrThrow();
-    const inv = await db
+    const inv = await scoped(db, ctx)
       .selectFrom('invitations')
       .select((eb) => eb.fn.countAll<number>().as('n'))
       .where('space_id', '=', ctx.spaceId)

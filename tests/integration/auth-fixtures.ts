@@ -75,10 +75,12 @@ export async function tokenFromMail(
 export class SourceSession {
   private cookies = new Map<string, string>();
   constructor(readonly localAddress: string) {}
+  /** Extra headers on every request (e.g. a forged X-Forwarded-For). */
+  headers: Record<string, string> = {};
 
   request(method: string, path: string, body?: string, contentType?: string): Promise<{ status: number; text: string }> {
     const url = new URL(path, BASE);
-    const headers: Record<string, string> = {};
+    const headers: Record<string, string> = { ...this.headers };
     if (this.cookies.size) headers.cookie = [...this.cookies].map(([k, v]) => `${k}=${v}`).join('; ');
     if (contentType) headers['content-type'] = contentType;
     // As a browser on the app's own pages would: changes carried by a session cookie must name our origin.
