@@ -41,6 +41,7 @@ async function prune(dir: string, at: Date): Promise<string[]> {
   return gone;
 }
 
+// across spaces: one dump holds every space, so the admins of every space hear that it failed.
 async function tellAdmins(db: Db, at: Date, error: string): Promise<void> {
   const admins = await db
     .selectFrom('memberships')

@@ -1,4 +1,5 @@
 import 'server-only';
+import { scoped } from '@/db/scoped';
 import JSZip from 'jszip';
 import { sql } from 'kysely';
 import type { Db } from '@/db/connect';
@@ -87,7 +88,7 @@ export async function exportSpace(db: Db, ctx: Ctx): Promise<{ filename: string;
         where p.space_id = ${ctx.spaceId} order by 1`.execute(trx);
       zip.file(`${t.name}.csv`, csvOf(t.columns, r.rows));
     }
-    const files = await trx.selectFrom('attachments').select(['id', 'filename', 'data']).where('space_id', '=', ctx.spaceId).execute();
+    const files = await scoped(trx, ctx).selectFrom('attachments').select(['id', 'filename', 'data']).where('space_id', '=', ctx.spaceId).execute();
     for (const f of files) zip.file(`attachments/${f.id}-${f.filename.replace(/[^\w.-]+/g, '_')}`, f.data as Uint8Array);
     return space.slug;
   });

@@ -1,4 +1,5 @@
 import 'server-only';
+import { scoped } from '@/db/scoped';
 import type { Db } from '@/db/connect';
 import type { Ctx } from '@/lib/auth/roles';
 import { InvalidError } from '@/lib/errors';
@@ -29,12 +30,12 @@ export async function unitOut(
   opts: { locationId?: string | null; reason?: string; at: Date },
 ): Promise<void> {
   const locationId = opts.locationId ?? box.locationId;
-  await trx
+  await scoped(trx, ctx)
     .deleteFrom('kit_box_contents')
     .where('kit_box_id', '=', box.id)
     .where('unit_id', '=', unit.id)
     .execute();
-  await trx
+  await scoped(trx, ctx)
     .updateTable('units')
     .set({
       kit_box_id: null,
@@ -46,7 +47,7 @@ export async function unitOut(
     .where('id', '=', unit.id)
     .where('space_id', '=', ctx.spaceId)
     .execute();
-  await trx
+  await scoped(trx, ctx)
     .insertInto('stock_movements')
     .values({
       space_id: ctx.spaceId,
@@ -75,7 +76,7 @@ async function binFor(
   given?: string | null,
 ): Promise<string | null> {
   if (given) {
-    const loc = await trx
+    const loc = await scoped(trx, ctx)
       .selectFrom('locations')
       .select('id')
       .where('id', '=', given)
@@ -84,7 +85,7 @@ async function binFor(
     if (!loc) throw new InvalidError('No such bin in this space.', { locationId: ['no such location'] });
     return loc.id;
   }
-  const most = await trx
+  const most = await scoped(trx, ctx)
     .selectFrom('stock')
     .select('location_id')
     .where('space_id', '=', ctx.spaceId)
@@ -105,7 +106,7 @@ export async function countedOut(
   to: Destination,
   opts: { locationId?: string | null; reason?: string; at: Date },
 ): Promise<void> {
-  const content = await trx
+  const content = await scoped(trx, ctx)
     .selectFrom('kit_box_contents')
     .select(['id', 'qty'])
     .where('kit_box_id', '=', box.id)
@@ -118,12 +119,12 @@ export async function countedOut(
       qty: [`at most ${content?.qty ?? 0}`],
     });
   if (content.qty > qty)
-    await trx
+    await scoped(trx, ctx)
       .updateTable('kit_box_contents')
       .set({ qty: content.qty - qty })
       .where('id', '=', content.id)
       .execute();
-  else await trx.deleteFrom('kit_box_contents').where('id', '=', content.id).execute();
+  else await scoped(trx, ctx).deleteFrom('kit_box_contents').where('id', '=', content.id).execute();
 
   const note = [`out of ${box.name}, ${DESTINATION_WORDS[to]}`, opts.reason].filter(Boolean).join(': ');
   const movement = {
@@ -138,7 +139,7 @@ export async function countedOut(
   };
   if (to !== 'shelf') {
     // Written off: no bin's stock changes (location null), as with a short return.
-    await trx
+    await scoped(trx, ctx)
       .insertInto('stock_movements')
       .values({
         ...movement,
@@ -154,7 +155,7 @@ export async function countedOut(
     throw new InvalidError(`Say which bin ${part.name} goes back to.`, {
       locationId: ['choose a bin for the counted parts'],
     });
-  await trx
+  await scoped(trx, ctx)
     .insertInto('stock')
     .values({ space_id: ctx.spaceId, part_id: part.id, location_id: bin, qty, updated_at: opts.at })
     .onConflict((oc) =>
@@ -163,7 +164,7 @@ export async function countedOut(
         .doUpdateSet((eb) => ({ qty: eb('stock.qty', '+', qty), updated_at: opts.at })),
     )
     .execute();
-  await trx
+  await scoped(trx, ctx)
     .insertInto('stock_movements')
     .values({ ...movement, location_id: bin, qty_delta: qty, reason: 'move_in' })
     .execute();
@@ -183,14 +184,14 @@ export async function removeSurplus(
 ): Promise<string[]> {
   const want = new Map(
     (
-      await trx
+      await scoped(trx, ctx)
         .selectFrom('kit_template_lines')
         .select(['part_id', 'qty', 'chain_role'])
         .where('template_id', '=', box.templateId)
         .execute()
     ).map((l) => [l.part_id, l]),
   );
-  const contents = await trx
+  const contents = await scoped(trx, ctx)
     .selectFrom('kit_box_contents as c')
     .innerJoin('parts', 'parts.id', 'c.part_id')
     .leftJoin('units', 'units.id', 'c.unit_id')
@@ -234,7 +235,7 @@ export async function removeSurplus(
       }
     }
     if (line && rows.some((r) => r.chainRole !== line.chain_role))
-      await trx
+      await scoped(trx, ctx)
         .updateTable('kit_box_contents')
         .set({ chain_role: line.chain_role })
         .where('kit_box_id', '=', box.id)

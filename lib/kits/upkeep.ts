@@ -1,4 +1,5 @@
 import 'server-only';
+import { scoped } from '@/db/scoped';
 import type { Db } from '@/db/connect';
 import type { UnitState } from '@/db/types';
 import { audit } from '@/lib/audit/log';
@@ -19,7 +20,7 @@ type LockedBox = BoxRef & { state: UnitState; templateId: string };
 
 async function lockBox(trx: Db, ctx: Ctx, boxId: string): Promise<LockedBox> {
   if (!isStaff(ctx)) throw new ForbiddenError();
-  const box = await trx
+  const box = await scoped(trx, ctx)
     .selectFrom('kit_boxes')
     .select(['id', 'name', 'state', 'template_id as templateId', 'location_id as locationId'])
     .where('id', '=', boxId)
@@ -36,10 +37,10 @@ async function lockBox(trx: Db, ctx: Ctx, boxId: string): Promise<LockedBox> {
   return box;
 }
 
-async function outOfServiceIfShort(trx: Db, box: LockedBox): Promise<boolean> {
+async function outOfServiceIfShort(trx: Db, ctx: Ctx, box: LockedBox): Promise<boolean> {
   if (box.state !== 'on_shelf') return box.state === 'in_repair';
-  if (!(await boxShortfall(trx, box.id, box.templateId)).length) return false;
-  await trx.updateTable('kit_boxes').set({ state: 'in_repair' }).where('id', '=', box.id).execute();
+  if (!(await boxShortfall(trx, ctx.spaceId, box.id, box.templateId)).length) return false;
+  await scoped(trx, ctx).updateTable('kit_boxes').set({ state: 'in_repair' }).where('id', '=', box.id).execute();
   return true;
 }
 
@@ -61,7 +62,7 @@ export async function takeOutOfBox(
     let removed: string;
     let replacement: string | null = null;
     if (input.unitId) {
-      const unit = await trx
+      const unit = await scoped(trx, ctx)
         .selectFrom('kit_box_contents as c')
         .innerJoin('units', 'units.id', 'c.unit_id')
         .innerJoin('parts', 'parts.id', 'units.part_id')
@@ -77,7 +78,7 @@ export async function takeOutOfBox(
         .executeTakeFirst();
       if (!unit) throw new InvalidError('That unit is not in this box.', { unitId: ['not in this box'] });
       if (input.replacementUnitId) {
-        const next = await trx
+        const next = await scoped(trx, ctx)
           .selectFrom('units')
           .select(['id', 'code', 'part_id', 'state', 'kit_box_id'])
           .where('id', '=', input.replacementUnitId)
@@ -99,14 +100,15 @@ export async function takeOutOfBox(
           locationId: input.locationId,
           reason: input.reason,
         });
-        await trx
+        await scoped(trx, ctx)
           .updateTable('units')
           .set({ kit_box_id: box.id, location_id: null, updated_at: at })
           .where('id', '=', next.id)
           .execute();
-        await trx
+        await scoped(trx, ctx)
           .insertInto('kit_box_contents')
           .values({
+            space_id: ctx.spaceId,
             kit_box_id: box.id,
             part_id: next.part_id,
             unit_id: next.id,
@@ -114,7 +116,7 @@ export async function takeOutOfBox(
             chain_role: unit.chainRole,
           })
           .execute();
-        await trx
+        await scoped(trx, ctx)
           .insertInto('stock_movements')
           .values({
             space_id: ctx.spaceId,
@@ -138,7 +140,7 @@ export async function takeOutOfBox(
         });
       removed = `${unit.name} (${unit.code})`;
     } else {
-      const part = await trx
+      const part = await scoped(trx, ctx)
         .selectFrom('parts')
         .select(['id', 'name'])
         .where('id', '=', input.partId!)
@@ -152,7 +154,7 @@ export async function takeOutOfBox(
       });
       removed = `${input.qty} × ${part.name}`;
     }
-    const short = await outOfServiceIfShort(trx, box);
+    const short = await outOfServiceIfShort(trx, ctx, box);
     await audit(trx, {
       spaceId: ctx.spaceId,
       actorId: ctx.userId,
@@ -181,7 +183,7 @@ export async function takeBoxApart(
   return inTransaction(db, async (trx) => {
     const box = await lockBox(trx, ctx, boxId);
     const at = now();
-    const contents = await trx
+    const contents = await scoped(trx, ctx)
       .selectFrom('kit_box_contents as c')
       .innerJoin('parts', 'parts.id', 'c.part_id')
       .leftJoin('units', 'units.id', 'c.unit_id')
@@ -200,8 +202,8 @@ export async function takeBoxApart(
         returned.push(`${c.qty} × ${c.name}`);
       }
     }
-    await trx.updateTable('kit_boxes').set({ state: 'retired' }).where('id', '=', box.id).execute();
-    await trx
+    await scoped(trx, ctx).updateTable('kit_boxes').set({ state: 'retired' }).where('id', '=', box.id).execute();
+    await scoped(trx, ctx)
       .updateTable('holds')
       .set({ status: 'cancelled' })
       .where('kit_box_id', '=', box.id)
@@ -230,7 +232,7 @@ export type OutOfServiceBox = {
 
 /** Boxes out of service (waiting in repair), each with what it lacks and why. */
 export async function boxesOutOfService(db: Db, ctx: Pick<Ctx, 'spaceId'>): Promise<OutOfServiceBox[]> {
-  const boxes = await db
+  const boxes = await scoped(db, ctx)
     .selectFrom('kit_boxes')
     .select(['id', 'name', 'code', 'template_id'])
     .where('space_id', '=', ctx.spaceId)
@@ -239,7 +241,7 @@ export async function boxesOutOfService(db: Db, ctx: Pick<Ctx, 'spaceId'>): Prom
     .execute();
   return Promise.all(
     boxes.map(async (b) => {
-      const loan = await db
+      const loan = await scoped(db, ctx)
         .selectFrom('loans')
         .select(['id', 'returned_at', 'return_note'])
         .where('space_id', '=', ctx.spaceId)
@@ -249,7 +251,7 @@ export async function boxesOutOfService(db: Db, ctx: Pick<Ctx, 'spaceId'>): Prom
         .limit(1)
         .executeTakeFirst();
       const lines = loan
-        ? await db
+        ? await scoped(db, ctx)
             .selectFrom('loan_lines')
             .innerJoin('parts', 'parts.id', 'loan_lines.part_id')
             .select([
@@ -267,7 +269,7 @@ export async function boxesOutOfService(db: Db, ctx: Pick<Ctx, 'spaceId'>): Prom
         id: b.id,
         name: b.name,
         code: b.code,
-        shortfall: await boxShortfall(db, b.id, b.template_id),
+        shortfall: await boxShortfall(db, ctx.spaceId, b.id, b.template_id),
         lastReturn: loan
           ? {
               at: loan.returned_at ?? new Date(0),
@@ -292,13 +294,13 @@ export type UpkeepChoices = {
 
 /** What the upkeep screen offers: bins for parts going back, and spare units for swaps. */
 export async function upkeepChoices(db: Db, ctx: Ctx, boxId: string): Promise<UpkeepChoices> {
-  const bins = await db
+  const bins = await scoped(db, ctx)
     .selectFrom('locations')
     .select(['id', 'name'])
     .where('space_id', '=', ctx.spaceId)
     .orderBy('name')
     .execute();
-  const free = await db
+  const free = await scoped(db, ctx)
     .selectFrom('units')
     .select(['units.id', 'units.code', 'units.part_id'])
     .where('units.space_id', '=', ctx.spaceId)

@@ -211,41 +211,42 @@ export async function borrow(db: Db, ctx: Ctx, input: BorrowInput): Promise<Borr
         )
         .returning('loan_lines.id'),
     );
-    const withMoves = moves.length
-      ? (withLines.with('written_moves', (q) =>
-          q
-            .insertInto('stock_movements')
-            .values(
-              moves.map((l) => ({
-                space_id: ctx.spaceId,
-                part_id: l.partId,
-                location_id: l.locationId,
-                unit_id: l.unitId,
-                // Units are not counted stock: their movement records the event, quantity 0.
-                qty_delta: l.unitId ? 0 : -l.qty,
-                reason: 'loan_out' as const,
-                ref_type: 'loan',
-                ref_id: loan.id,
-                actor_id: ctx.userId,
-                created_at: at,
-              })),
-            )
-            .returning('stock_movements.id'),
-        ) as unknown as typeof withLines)
-      : withLines;
-    await withMoves
-      .insertInto('audit_log')
-      .values(
-        auditRow({
-          spaceId: ctx.spaceId,
-          actorId: ctx.userId,
-          action: 'loan.created',
-          targetType: 'loan',
-          targetId: loan.id,
-          detail,
-        }),
-      )
-      .execute();
+    // The audit row rides along as a CTE; PostgreSQL runs every data-modifying CTE once, read or not.
+    const written = withLines.with('written_audit', (q) =>
+      q
+        .insertInto('audit_log')
+        .values(
+          auditRow({
+            spaceId: ctx.spaceId,
+            actorId: ctx.userId,
+            action: 'loan.created',
+            targetType: 'loan',
+            targetId: loan.id,
+            detail,
+          }),
+        )
+        .returning('audit_log.id'),
+    );
+    if (moves.length)
+      await written
+        .insertInto('stock_movements')
+        .values(
+          moves.map((l) => ({
+            space_id: ctx.spaceId,
+            part_id: l.partId,
+            location_id: l.locationId,
+            unit_id: l.unitId,
+            // Units are not counted stock: their movement records the event, quantity 0.
+            qty_delta: l.unitId ? 0 : -l.qty,
+            reason: 'loan_out' as const,
+            ref_type: 'loan',
+            ref_id: loan.id,
+            actor_id: ctx.userId,
+            created_at: at,
+          })),
+        )
+        .execute();
+    else await written.selectFrom('written_audit').select('written_audit.id').execute();
 
     // The borrower's own hold on what they now take is done.
     const unitIds = lines.flatMap((l) => (l.unitId ? [l.unitId] : []));

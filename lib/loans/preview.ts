@@ -53,7 +53,7 @@ export async function previewLoan(
   const borrowerId = opts.borrowerId ?? ctx.userId;
   // Someone of another space (or no one) is not found, as borrow() answers.
   if (borrowerId !== ctx.userId) {
-    const member = await db
+    const member = await scoped(db, ctx)
       .selectFrom('memberships')
       .select('user_id')
       .where('space_id', '=', ctx.spaceId)

@@ -408,7 +408,7 @@ async function auditTargets(
   const out = new Map<string, { thing: string | null; person: string | null }>();
   const loanIds = ids('loan');
   if (loanIds.length) {
-    const loans = await db
+    const loans = await scoped(db, { spaceId })
       .selectFrom('loans')
       .innerJoin('users', 'users.id', 'loans.borrower_id')
       .leftJoin('kit_boxes', 'kit_boxes.id', 'loans.kit_box_id')
@@ -428,7 +428,7 @@ async function auditTargets(
   }
   const holdIds = ids('hold');
   if (holdIds.length) {
-    const holds = await db
+    const holds = await scoped(db, { spaceId })
       .selectFrom('holds')
       .innerJoin('users', 'users.id', 'holds.user_id')
       .leftJoin('kit_boxes', 'kit_boxes.id', 'holds.kit_box_id')
@@ -442,7 +442,7 @@ async function auditTargets(
   }
   const boxIds = ids('kit_box');
   if (boxIds.length) {
-    const boxes = await db
+    const boxes = await scoped(db, { spaceId })
       .selectFrom('kit_boxes')
       .select(['id', 'name'])
       .where('space_id', '=', spaceId)

@@ -1,4 +1,5 @@
 import 'server-only';
+import { scoped } from '@/db/scoped';
 import { sql } from 'kysely';
 import type { Db } from '@/db/connect';
 import { audit } from '@/lib/audit/log';
@@ -49,7 +50,7 @@ async function scrubSpaceText(trx: Db, spaceId: string, needles: string[], place
 
 export async function erasePerson(db: Db, ctx: Ctx, userId: string, input: EraseInput): Promise<{ id: string; name: string }> {
   return db.transaction().execute(async (trx) => {
-    const person = await trx
+    const person = await scoped(trx, ctx)
       .selectFrom('users')
       .innerJoin('memberships', 'memberships.user_id', 'users.id')
       .select(['users.id', 'users.name', 'users.email', 'users.erased_at'])
@@ -62,11 +63,11 @@ export async function erasePerson(db: Db, ctx: Ctx, userId: string, input: Erase
     if (person.id === ctx.userId) throw new ConflictError('You cannot erase yourself here; ask another admin.');
     if (input.confirmEmail.trim().toLowerCase() !== person.email.toLowerCase())
       throw new InvalidError('Type the person’s e-mail address to confirm.', { confirmEmail: ['does not match this person’s e-mail address'] });
-    const elsewhere = await trx.selectFrom('memberships').select('space_id').where('user_id', '=', userId).where('space_id', '<>', ctx.spaceId).executeTakeFirst();
+    const elsewhere = await scoped(trx, ctx).selectFrom('memberships').select('space_id').where('user_id', '=', userId).where('space_id', '<>', ctx.spaceId).executeTakeFirst();
     if (elsewhere) throw new ConflictError('This person is also a member of another space: its admins must agree, so an operator erases them.');
-    const out = await trx.selectFrom('loans').select('id').where('borrower_id', '=', userId).where('status', '=', 'out').executeTakeFirst();
+    const out = await scoped(trx, ctx).selectFrom('loans').select('id').where('borrower_id', '=', userId).where('status', '=', 'out').executeTakeFirst();
     if (out) throw new ConflictError('This person still has a loan out: take it back (or write it off) first.');
-    const pending = await trx.selectFrom('sales').select('id').where('buyer_id', '=', userId).where('status', '=', 'pending').executeTakeFirst();
+    const pending = await scoped(trx, ctx).selectFrom('sales').select('id').where('buyer_id', '=', userId).where('status', '=', 'pending').executeTakeFirst();
     if (pending) throw new ConflictError('This person has a card sale still pending: let it end first.');
 
     const placeholder = `Erased person ${userId.slice(0, 8)}`;
@@ -77,10 +78,10 @@ export async function erasePerson(db: Db, ctx: Ctx, userId: string, input: Erase
       .set({ name: placeholder, email: `erased-${userId}@erased.invalid`, password_hash: null, calendar_token: null, disabled_at: at, erased_at: at })
       .where('id', '=', userId)
       .execute();
-    await trx.updateTable('memberships').set({ disabled_at: at }).where('user_id', '=', userId).execute();
+    await scoped(trx, ctx).updateTable('memberships').set({ disabled_at: at }).where('user_id', '=', userId).execute();
     await trx.deleteFrom('auth_sessions').where('user_id', '=', userId).execute();
     await trx.deleteFrom('sign_in_tokens').where('user_id', '=', userId).execute();
-    await trx.updateTable('holds').set({ status: 'cancelled' }).where('user_id', '=', userId).where('status', 'in', ['waiting', 'ready']).execute();
+    await scoped(trx, ctx).updateTable('holds').set({ status: 'cancelled' }).where('user_id', '=', userId).where('status', 'in', ['waiting', 'ready']).execute();
     // No name or address in the audit row: only that it happened, and to which placeholder.
     await audit(trx, { spaceId: ctx.spaceId, actorId: ctx.userId, action: 'person.erased', targetType: 'person', targetId: userId });
     return { id: userId, name: placeholder };

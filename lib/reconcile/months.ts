@@ -1,4 +1,5 @@
 import 'server-only';
+import { scoped } from '@/db/scoped';
 import { sql } from 'kysely';
 import type { Db } from '@/db/connect';
 import { InvalidError } from '@/lib/errors';
@@ -12,7 +13,7 @@ import { monthInput } from '@/lib/sales/schemas';
 /** The latest month (space's zone) holding a sale or refund, up to `now`; the current month if none. */
 export async function latestActiveMonth(db: Db, spaceId: string, now: Date): Promise<Month> {
   const { timeZone } = await spaceClock(db, spaceId);
-  const row = await db
+  const row = await scoped(db, { spaceId })
     .selectFrom('sales')
     .select(
       sql<Date | null>`max(greatest(sales.created_at, coalesce(sales.paid_at, sales.created_at)))`.as('at'),
@@ -20,7 +21,7 @@ export async function latestActiveMonth(db: Db, spaceId: string, now: Date): Pro
     .where('space_id', '=', spaceId)
     .where('created_at', '<=', now)
     .executeTakeFirst();
-  const refund = await db
+  const refund = await scoped(db, { spaceId })
     .selectFrom('refunds')
     .select((eb) => eb.fn.max('created_at').as('at'))
     .where('space_id', '=', spaceId)

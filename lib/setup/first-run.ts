@@ -1,4 +1,5 @@
 import 'server-only';
+import { scoped } from '@/db/scoped';
 import { randomBytes } from 'node:crypto';
 import { sql } from 'kysely';
 import type { Db } from '@/db/connect';
@@ -45,7 +46,7 @@ export async function createFirstSpace(db: Db, input: FirstRunInput): Promise<{ 
       .onConflict((oc) => oc.column('email').doUpdateSet({ password_hash: passwordHash, name: input.adminName, last_space_id: space.id }))
       .returning('id')
       .executeTakeFirstOrThrow();
-    await trx.insertInto('memberships').values({ space_id: space.id, user_id: user.id, roles: ['admin'] }).execute();
+    await scoped(trx, { spaceId: space.id }).insertInto('memberships').values({ space_id: space.id, user_id: user.id, roles: ['admin'] }).execute();
     await audit(trx, { spaceId: space.id, actorId: user.id, action: 'space.first_run', targetType: 'space', targetId: space.id, detail: { currency: input.currency, timeZone: input.timeZone } });
     return { spaceId: space.id, userId: user.id };
   });

@@ -31,7 +31,7 @@ describe('findBins / pickBin', () => {
   });
 
   test('the label code, scanned or typed any way, finds its bin', () => {
-    const code = bins[0].code;
+    const code = bins[0].code ?? '';
     for (const typed of [
       code,
       code.toLowerCase(),
