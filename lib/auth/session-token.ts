@@ -1,3 +1,4 @@
+import 'server-only';
 import { createSecretKey, hkdfSync, type KeyObject } from 'node:crypto';
 import { jwtDecrypt, type JWTPayload } from 'jose';
 
