@@ -19,3 +19,8 @@ export const CHAIN_ROLE_WORDS: Record<ChainRole, string> = {
   led: 'the LEDs that light',
   wire: 'wires the build together',
 };
+
+/** A stored chain role (typed loosely in some reads) in a member's words. */
+export function chainRoleWords(role: string): string {
+  return role in CHAIN_ROLE_WORDS ? CHAIN_ROLE_WORDS[role as ChainRole] : role;
+}

@@ -30,9 +30,14 @@ afterEach(() => {
   if (found.length) throw new Error(`Content-Security-Policy violations:\n  ${found.join('\n  ')}`);
 });
 
-/** A fresh context at phone width (390 px) by default. */
-export async function newPage(browser: Browser, width = 390, height = 844): Promise<Page> {
-  const context = await browser.newContext({ viewport: { width, height }, baseURL: BASE });
+/** A fresh context at phone width (390 px) by default; `storageState` carries another context's sign-in. */
+export async function newPage(
+  browser: Browser,
+  width = 390,
+  height = 844,
+  storageState?: Awaited<ReturnType<BrowserContext['storageState']>>,
+): Promise<Page> {
+  const context = await browser.newContext({ viewport: { width, height }, baseURL: BASE, storageState });
   await context.exposeBinding('__ohmCspViolation', (_source, text: string) => {
     cspViolations.push(text);
   });

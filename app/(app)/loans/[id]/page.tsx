@@ -10,7 +10,7 @@ import { ActionButton } from '@/components/loans/action-button';
 import { ReturnForm } from '@/components/loans/return-form';
 import { StatePill } from '@/components/ui/state-pill';
 import { orNotFound, pageId } from '../or-not-found';
-import { CHAIN_ROLE_WORDS } from '@/lib/domain';
+import { chainRoleWords } from '@/lib/domain';
 
 export const metadata = { title: 'Loan' };
 
@@ -123,7 +123,7 @@ export default async function LoanPage({ params }: { params: Promise<{ id: strin
                 {[
                   l.unitCode ? `label ${l.unitCode}` : null,
                   l.locationName ? `from ${l.locationName}` : null,
-                  l.chainRole ? CHAIN_ROLE_WORDS[l.chainRole] : null,
+                  l.chainRole ? chainRoleWords(l.chainRole) : null,
                 ]
                   .filter(Boolean)
                   .join(' · ')}

@@ -13,7 +13,7 @@ import { Alternatives } from '@/components/loans/alternatives';
 import { BorrowPanel } from '@/components/loans/borrow-panel';
 import { StatePill } from '@/components/ui/state-pill';
 import { orNotFound, pageId } from '../../../loans/or-not-found';
-import { CHAIN_ROLE_WORDS } from '@/lib/domain';
+import { chainRoleWords } from '@/lib/domain';
 
 export const metadata = { title: 'Kit box' };
 
@@ -90,7 +90,7 @@ export default async function KitBoxPage({ params }: { params: Promise<{ id: str
               </span>
               <span className="muted block text-sm">
                 {[
-                  c.chainRole ? CHAIN_ROLE_WORDS[c.chainRole] : null,
+                  c.chainRole ? chainRoleWords(c.chainRole) : null,
                   c.keySpec || null,
                   c.unitCode ? `label ${c.unitCode}` : null,
                 ]
