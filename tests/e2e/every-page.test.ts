@@ -11,15 +11,13 @@ import { launchBrowser, newPage, preloadAxe, settled, signInPage, wcagViolations
 // violation of the WCAG 2.x A/AA rules (2.2 included), or a primary action reaching outside the viewport.
 // The list of pages is read from app/**/page.tsx, so a new page is visited without editing this file
 // (a new dynamic segment needs a concrete id below, or the listing test fails).
-// Speed: one browser, a few tabs per person (one sign-in), one navigation per page; the four views are made by resizing
+// Speed: one browser, one context per person, one navigation per page; the four views are made by resizing
 // and switching the emulated colour scheme. At each width axe runs all WCAG A/AA rules in the light scheme
 // and, in the dark one, the rules a colour scheme can change (contrast of text, links and controls).
 
 const APP = path.resolve(__dirname, '../../app');
 const WIDTHS = [390, 1280] as const;
 const SCHEMES = ['light', 'dark'] as const;
-/** Tabs per person checking pages side by side (one browser). */
-const TABS = 3;
 
 /** App Router route patterns of every page file: `(group)` folders dropped, `[id]` kept. */
 export function pagePatterns(dir = APP, rel = ''): string[] {
@@ -165,75 +163,52 @@ test('every page file has a concrete address to visit', () => {
 });
 
 describe.each(PEOPLE)('$who', ({ who, email }) => {
-  // A few tabs per person, signed in once and sharing the session, check pages side by side.
-  const free: Page[] = [];
-  const waiting: ((p: Page) => void)[] = [];
-  const errorsOf = new Map<Page, string[]>();
+  let page: Page;
+  const errors: string[] = [];
   const visited: string[] = [];
 
-  const open = async (
-    storage?: Awaited<ReturnType<import('playwright-core').BrowserContext['storageState']>>,
-  ) => {
-    const page = await newPage(browser, 390, 844, storage);
+  beforeAll(async () => {
+    ids ??= await demoIds();
+    page = await newPage(browser, 390, 844);
     await preloadAxe(page.context());
-    const errors: string[] = [];
-    errorsOf.set(page, errors);
     page.on('console', (m) => {
       if (m.type() === 'error') errors.push(`console: ${m.text()}`);
     });
     page.on('pageerror', (e) => errors.push(`uncaught: ${e.message}`));
-    return page;
-  };
-  const acquire = () =>
-    new Promise<Page>((resolve) => (free.length ? resolve(free.pop()!) : waiting.push(resolve)));
-  const release = (page: Page) => (waiting.length ? waiting.shift()!(page) : free.push(page));
-
-  beforeAll(async () => {
-    ids ??= await demoIds();
-    const first = await open();
-    if (email) await signInPage(first, email);
-    const storage = await first.context().storageState();
-    free.push(first);
-    for (let i = 1; i < TABS; i++) free.push(await open(storage));
+    if (email) await signInPage(page, email);
   });
   afterAll(async () => {
-    await Promise.all([...errorsOf.keys()].map((p) => p.context().close()));
+    await page?.context().close();
   });
 
   const patterns = pagePatterns().filter((p) => (who === 'anonymous' ? PUBLIC.includes(p) : p !== '/'));
-  test.concurrent.each(patterns)('%s', async (pattern) => {
+  test.each(patterns)('%s', async (pattern) => {
     const href = concrete(pattern, who);
     expect(href, `a concrete address for ${pattern}`).not.toBeNull();
-    const page = await acquire();
-    try {
-      const errors = errorsOf.get(page)!;
-      errors.length = 0;
-      await page.setViewportSize({ width: 390, height: 844 });
-      await page.emulateMedia({ colorScheme: 'light' });
-      await page.goto(href!, { waitUntil: 'load' });
-      // Client-side data settles; a page that keeps polling (a payment's status) is checked as it stands.
-      await page.waitForLoadState('networkidle', { timeout: 5_000 }).catch(() => undefined);
-      const landed = new URL(page.url()).pathname;
-      // A page this role may not open sends them to /forbidden, which is visited on its own.
-      if (landed === '/forbidden' && pattern !== '/forbidden') return;
-      visited.push(pattern);
-      const problems: string[] = [];
-      for (const width of WIDTHS) {
-        await page.setViewportSize({ width, height: width < 600 ? 844 : 900 });
-        for (const scheme of SCHEMES) {
-          await page.emulateMedia({ colorScheme: scheme });
-          await settled(page);
-          const where = `${width} px ${scheme}`;
-          for (const p of await layoutProblems(page)) problems.push(`${where}: ${p}`);
-          const rules = scheme === 'light' ? undefined : 'colours';
-          for (const v of await wcagViolations(page, rules)) problems.push(`${where}: axe ${v}`);
-        }
+    errors.length = 0;
+    await page.setViewportSize({ width: 390, height: 844 });
+    await page.emulateMedia({ colorScheme: 'light' });
+    await page.goto(href!, { waitUntil: 'load' });
+    // Client-side data settles; a page that keeps polling (a payment's status) is checked as it stands.
+    await page.waitForLoadState('networkidle', { timeout: 5_000 }).catch(() => undefined);
+    const landed = new URL(page.url()).pathname;
+    // A page this role may not open sends them to /forbidden, which is visited on its own.
+    if (landed === '/forbidden' && pattern !== '/forbidden') return;
+    visited.push(pattern);
+    const problems: string[] = [];
+    for (const width of WIDTHS) {
+      await page.setViewportSize({ width, height: width < 600 ? 844 : 900 });
+      for (const scheme of SCHEMES) {
+        await page.emulateMedia({ colorScheme: scheme });
+        await settled(page);
+        const where = `${width} px ${scheme}`;
+        for (const p of await layoutProblems(page)) problems.push(`${where}: ${p}`);
+        const rules = scheme === 'light' ? undefined : 'colours';
+        for (const v of await wcagViolations(page, rules)) problems.push(`${where}: axe ${v}`);
       }
-      for (const e of errors) problems.push(e);
-      expect(problems, `${href} as ${who} (landed on ${landed})`).toEqual([]);
-    } finally {
-      release(page);
     }
+    for (const e of errors) problems.push(e);
+    expect(problems, `${href} as ${who} (landed on ${landed})`).toEqual([]);
   });
 
   test('opened the pages of its own sections', () => {
