@@ -11,3 +11,16 @@ export type SaleStatus = 'pending' | 'paid' | 'failed' | 'expired' | 'refunded' 
 export type MovementReason =
   | 'receive' | 'move_in' | 'move_out' | 'adjust' | 'count' | 'loan_out' | 'loan_return' | 'lost' | 'damaged'
   | 'repair' | 'retire' | 'sale' | 'refund' | 'kit_build';
+
+/** What each part does in a build, in the words a member reads (never the stored role names). */
+export const CHAIN_ROLE_WORDS: Record<ChainRole, string> = {
+  supply: 'powers the build',
+  driver: 'drives the LEDs',
+  led: 'the LEDs that light',
+  wire: 'wires the build together',
+};
+
+/** A stored chain role (typed loosely in some reads) in a member's words. */
+export function chainRoleWords(role: string): string {
+  return role in CHAIN_ROLE_WORDS ? CHAIN_ROLE_WORDS[role as ChainRole] : role;
+}

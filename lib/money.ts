@@ -21,3 +21,9 @@ export function parseMoney(input: string, currency: string): number | null {
   const [whole, frac = ''] = s.split('.');
   return Number(whole) * 10 ** exp + Number((frac + '0'.repeat(exp)).slice(0, exp) || '0');
 }
+
+/** A shelf price in plain words: "$1.60 each" for single items, "$0.40 per metre" for anything sold by a measure. */
+export function formatUnitPrice(minor: number, currency: string, saleUnit: string): string {
+  const price = formatMoney(minor, currency);
+  return !saleUnit || saleUnit === 'each' ? `${price} each` : `${price} per ${saleUnit}`;
+}

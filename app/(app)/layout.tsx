@@ -6,7 +6,8 @@ export default async function SignedInLayout({ children }: { children: React.Rea
   return (
     <>
       <AppHeader ctx={ctx} />
-      <main className="mx-auto max-w-6xl px-4 py-5">{children}</main>
+      {/* Room at the bottom for the phone's section bar. */}
+      <main className="mx-auto max-w-6xl px-4 pt-5 pb-24 sm:pb-5">{children}</main>
     </>
   );
 }

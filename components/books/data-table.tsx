@@ -9,8 +9,9 @@ import {
 } from '@tanstack/react-table';
 import { ArrowDown, ArrowUp } from 'lucide-react';
 import { useState } from 'react';
+import { CARD_TABLE, cardCellProps } from '@/components/ui/card-table';
 
-/** A dense, sortable table for the books: laptop first, scrolls sideways inside its box on a phone. */
+/** A dense, sortable table (books, people): on a laptop a table, on a phone each row a card. */
 export function DataTable<T>({
   data,
   columns,
@@ -41,15 +42,16 @@ export function DataTable<T>({
   });
   return (
     <div className="overflow-x-auto" tabIndex={0} role="region" aria-label={caption}>
-      <table className="table-dense">
+      <table role="table" className={CARD_TABLE}>
         <caption className="sr-only">{caption}</caption>
-        <thead>
+        <thead role="rowgroup">
           {table.getHeaderGroups().map((g) => (
-            <tr key={g.id}>
+            <tr role="row" key={g.id}>
               {g.headers.map((h) => {
                 const dir = h.column.getIsSorted();
                 return (
                   <th
+                    role="columnheader"
                     key={h.id}
                     scope="col"
                     aria-sort={dir === 'asc' ? 'ascending' : dir === 'desc' ? 'descending' : undefined}
@@ -76,17 +78,19 @@ export function DataTable<T>({
             </tr>
           ))}
         </thead>
-        <tbody>
+        <tbody role="rowgroup">
           {table.getRowModel().rows.map((r) => (
-            <tr key={r.id} {...(rowAttrs?.(r.original) ?? {})}>
+            <tr role="row" key={r.id} {...(rowAttrs?.(r.original) ?? {})}>
               {r.getVisibleCells().map((c) => (
-                <td key={c.id}>{flexRender(c.column.columnDef.cell, c.getContext())}</td>
+                <td role="cell" key={c.id} {...cardCellProps(c.column)}>
+                  {flexRender(c.column.columnDef.cell, c.getContext())}
+                </td>
               ))}
             </tr>
           ))}
           {data.length === 0 ? (
-            <tr>
-              <td colSpan={columns.length} className="muted">
+            <tr role="row">
+              <td role="cell" colSpan={columns.length} className="muted">
                 {empty}
               </td>
             </tr>

@@ -2,9 +2,10 @@
 import { useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
 import { Minus, Plus, Trash2 } from 'lucide-react';
 import { useCallback, useId, useMemo, useState } from 'react';
+import { useStoredBasket } from './basket-store';
 import { callApi, errorText, type ApiError } from '@/components/loans/api';
 import type { CatalogItem } from '@/lib/sales/catalog';
-import { formatMoney } from '@/lib/money';
+import { formatMoney, formatUnitPrice } from '@/lib/money';
 import { CameraScan } from './camera-scan';
 import { lookupCode } from './code-lookup';
 
@@ -19,6 +20,12 @@ type Props = {
 const unitWord = (item: CatalogItem, n = 1) =>
   item.saleUnit === 'each' ? '' : ` ${item.saleUnit}${n === 1 ? '' : 's'}`;
 
+/** Why the basket cannot take one more of an item: the shelf has no more of it. */
+const shelfLimit = (item: CatalogItem) =>
+  item.onShelf === 0
+    ? `${item.name} is not on the shelf.`
+    : `Only ${item.onShelf}${unitWord(item, item.onShelf)} of ${item.name} on the shelf, and all of them are in the basket.`;
+
 // The bench's till, for a phone held in one hand: scan or type a label, or pick from the list; the
 // basket with big +/− targets; pay by card on the processor's page, or (a steward) record cash.
 export function Counter({ currency, items: initial, me, buyers }: Props) {
@@ -30,7 +37,8 @@ export function Counter({ currency, items: initial, me, buyers }: Props) {
     initialData: initial,
   });
   const items = catalog.data;
-  const [basket, setBasket] = useState<Map<string, number>>(new Map());
+  // Kept in this tab until the sale is paid or ends unpaid: going back from the card page finds it again.
+  const { basket, update: setBasket, markPending, clear: emptyBasket } = useStoredBasket(me);
   const [code, setCode] = useState('');
   const [search, setSearch] = useState('');
   const [note, setNote] = useState<string | null>(null);
@@ -43,23 +51,29 @@ export function Counter({ currency, items: initial, me, buyers }: Props) {
   const total = lines.reduce((s, l) => s + l.qty * l.item.priceMinor, 0);
   const money = (n: number) => formatMoney(n, currency);
 
-  const add = useCallback((item: CatalogItem, by = 1) => {
-    setBasket((b) => {
-      const next = new Map(b);
-      const qty = Math.min(item.onShelf, Math.max(0, (next.get(item.id) ?? 0) + by));
-      if (qty === 0) next.delete(item.id);
-      else next.set(item.id, qty);
-      return next;
-    });
-    setNote(by > 0 && item.onShelf === 0 ? `${item.name} is not on the shelf.` : null);
-  }, []);
+  /** Changes a line by `by`; never past what is on the shelf, and says so when it stops. True if it changed. */
+  const add = useCallback(
+    (item: CatalogItem, by = 1) => {
+      const had = basket.get(item.id) ?? 0;
+      const wanted = Math.max(0, had + by);
+      const qty = Math.min(item.onShelf, wanted);
+      setBasket((b) => {
+        const next = new Map(b);
+        if (qty === 0) next.delete(item.id);
+        else next.set(item.id, qty);
+        return next;
+      });
+      setNote(wanted > qty ? shelfLimit(item) : null);
+      return qty !== had;
+    },
+    [basket, setBasket],
+  );
 
   const onCode = useCallback(
     (text: string) => {
       const found = lookupCode(text, items);
       if ('item' in found) {
-        add(found.item);
-        setNote(`Added ${found.item.name}.`);
+        if (add(found.item)) setNote(`Added ${found.item.name}.`);
         setCode('');
       } else setNote(found.message);
     },
@@ -72,13 +86,16 @@ export function Counter({ currency, items: initial, me, buyers }: Props) {
   });
   const card = useMutation({
     mutationFn: () => callApi<{ sale: { id: string }; url: string }>('/api/sales', 'POST', body()),
-    onSuccess: ({ url }) => window.location.assign(url),
+    onSuccess: ({ sale, url }) => {
+      markPending(sale.id);
+      window.location.assign(url);
+    },
   });
   const cash = useMutation({
     mutationFn: () =>
       callApi<{ sale: { id: string; totalMinor: number } }>('/api/sales/cash', 'POST', body()),
     onSuccess: ({ sale }) => {
-      setBasket(new Map());
+      emptyBasket();
       setNote(`Cash sale of ${money(sale.totalMinor)} recorded. Put the money in the honour box.`);
       void queryClient.invalidateQueries({ queryKey: ['counter-catalog'] });
     },
@@ -161,11 +178,13 @@ export function Counter({ currency, items: initial, me, buyers }: Props) {
                   >
                     {l.qty}
                   </span>
+                  {/* At the shelf's stock "+" stays reachable and says why it adds nothing (below). */}
                   <button
                     type="button"
-                    className="btn-quiet px-3"
+                    className="btn-quiet px-3 aria-disabled:opacity-50"
                     onClick={() => add(l.item, 1)}
-                    disabled={l.qty >= l.item.onShelf}
+                    aria-disabled={l.qty >= l.item.onShelf || undefined}
+                    aria-describedby={l.qty >= l.item.onShelf ? `${ids}-limit-${l.item.id}` : undefined}
                     aria-label={`One more ${l.item.name}`}
                   >
                     <Plus aria-hidden className="size-5" />
@@ -181,6 +200,12 @@ export function Counter({ currency, items: initial, me, buyers }: Props) {
                 </div>
                 <span className="font-semibold tabular-nums">{money(l.qty * l.item.priceMinor)}</span>
               </div>
+              {l.qty >= l.item.onShelf ? (
+                <p id={`${ids}-limit-${l.item.id}`} role="status" className="muted mt-1 text-sm">
+                  That is all {l.item.onShelf}
+                  {unitWord(l.item, l.item.onShelf)} on the shelf.
+                </p>
+              ) : null}
               {lineProblem(index) ? (
                 <p className="mt-1 text-sm font-semibold text-red-800 dark:text-red-300">
                   {lineProblem(index)}
@@ -271,9 +296,9 @@ export function Counter({ currency, items: initial, me, buyers }: Props) {
               <div className="min-w-0">
                 <p className="font-semibold break-words">{i.name}</p>
                 <p className="muted text-sm">
-                  {money(i.priceMinor)}
-                  {i.saleUnit === 'each' ? ' each' : ` per ${i.saleUnit}`} · {i.onShelf}
+                  {formatUnitPrice(i.priceMinor, currency, i.saleUnit)} · {i.onShelf}
                   {unitWord(i, i.onShelf)} on the shelf
+                  {i.onShelf > 0 && (basket.get(i.id) ?? 0) >= i.onShelf ? ', all in the basket' : ''}
                 </p>
               </div>
               <button

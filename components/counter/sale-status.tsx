@@ -7,6 +7,7 @@ import { callApi, errorText } from '@/components/loans/api';
 import type { SaleView } from '@/lib/sales/read';
 import { formatMoney } from '@/lib/money';
 import { formatDateTimeWithZone } from '@/lib/zoned-time';
+import { settleStoredBasket } from './basket-store';
 
 const PAID = new Set(['paid', 'partially_refunded', 'refunded']);
 
@@ -14,7 +15,7 @@ const PAID = new Set(['paid', 'partially_refunded', 'refunded']);
 // hears it from the signed webhook; this page polls (reads only) until the sale is no longer pending.
 // "Check again" asks the processor directly (a POST), and is sent once by itself when the payment
 // page has run out, so a sale nobody can pay any more ends without waiting for anyone.
-export function SaleStatus({ saleId, cancelled }: { saleId: string; cancelled: boolean }) {
+export function SaleStatus({ saleId, cancelled, me }: { saleId: string; cancelled: boolean; me: string }) {
   const queryClient = useQueryClient();
   const cancel = useMutation({ mutationFn: () => callApi(`/api/sales/${saleId}/cancel`, 'POST') });
   const { mutate: cancelNow } = cancel;
@@ -38,6 +39,12 @@ export function SaleStatus({ saleId, cancelled }: { saleId: string; cancelled: b
   useEffect(() => {
     if (runOut && notCheckedYet) checkNow();
   }, [runOut, notCheckedYet, checkNow]);
+
+  // The basket this sale came from is kept (Back from the card page finds it) until the sale has ended.
+  const ended = q.data !== undefined && q.data.status !== 'pending';
+  useEffect(() => {
+    if (ended) settleStoredBasket(me, saleId);
+  }, [ended, me, saleId]);
 
   if (q.isPending) return <p role="status">Looking up the sale…</p>;
   if (q.isError) return <p role="alert">{errorText(q.error)}</p>;

@@ -4,6 +4,7 @@ import { useRouter } from 'next/navigation';
 import { useId, useState } from 'react';
 import { callApi, type ApiError } from '@/components/loans/api';
 import { ErrorNote } from '@/components/loans/error-note';
+import { CHAIN_ROLE_WORDS } from '@/lib/domain';
 
 type Part = { id: string; name: string; sku: string; category: string; keySpec: string };
 type Line = { partId: string; qty: number; chainRole: 'supply' | 'driver' | 'led' | 'wire' | null };
@@ -122,7 +123,7 @@ export function TemplateForm({
             </div>
             <div>
               <label className="label" htmlFor={`${ids}-role-${i}`}>
-                In the chain as
+                What it does in the build
               </label>
               <select
                 id={`${ids}-role-${i}`}
@@ -130,10 +131,10 @@ export function TemplateForm({
                 value={l.chainRole ?? ''}
                 onChange={(e) => setLine(i, { chainRole: (e.target.value || null) as Line['chainRole'] })}
               >
-                <option value="">not in the chain</option>
+                <option value="">nothing (not part of the build)</option>
                 {ROLES.map((r) => (
                   <option key={r} value={r}>
-                    {r}
+                    {CHAIN_ROLE_WORDS[r]}
                   </option>
                 ))}
               </select>

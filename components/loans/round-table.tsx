@@ -12,6 +12,7 @@ import { useRouter } from 'next/navigation';
 import { useMemo, useState } from 'react';
 import { callApi } from './api';
 import { ErrorNote } from './error-note';
+import { CARD_TABLE, cardCellProps } from '@/components/ui/card-table';
 
 export type RoundItem = {
   id: string;
@@ -143,23 +144,25 @@ export function RoundTable({ items }: { items: RoundItem[] }) {
         <ErrorNote error={send.error} />
       </div>
       <div className="overflow-x-auto">
-        <table className="table-dense">
-          <thead>
+        <table role="table" className={CARD_TABLE}>
+          <thead role="rowgroup">
             {table.getHeaderGroups().map((hg) => (
-              <tr key={hg.id}>
+              <tr role="row" key={hg.id}>
                 {hg.headers.map((h) => (
-                  <th key={h.id} scope="col">
+                  <th role="columnheader" key={h.id} scope="col">
                     {flexRender(h.column.columnDef.header, h.getContext())}
                   </th>
                 ))}
               </tr>
             ))}
           </thead>
-          <tbody>
+          <tbody role="rowgroup">
             {table.getRowModel().rows.map((r) => (
-              <tr key={r.id}>
+              <tr role="row" key={r.id}>
                 {r.getVisibleCells().map((c) => (
-                  <td key={c.id}>{flexRender(c.column.columnDef.cell, c.getContext())}</td>
+                  <td role="cell" key={c.id} {...cardCellProps(c.column)}>
+                    {flexRender(c.column.columnDef.cell, c.getContext())}
+                  </td>
                 ))}
               </tr>
             ))}

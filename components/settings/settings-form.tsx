@@ -7,9 +7,7 @@ import { LAYOUTS } from '@/labels/layouts';
 import {
   AMBIENT_MAX_C,
   AMBIENT_MIN_C,
-  CURRENCIES,
   settingsSchema,
-  TIME_ZONES,
   type Settings,
   type SettingsFormInput,
 } from '@/lib/settings/schema';
@@ -50,8 +48,20 @@ const NUMBERS: { name: NumberField; label: string; hint: string; min: number; ma
   },
 ];
 
-/** The space's rules, checked field by field in the browser and again on the server. */
-export function SettingsForm({ initial }: { initial: Settings }) {
+/**
+ * The space's rules, checked field by field in the browser and again on the server. The lists of time zones
+ * and currencies come from the server as props: the browser's Intl knows a different set than Node's, and a
+ * list computed on both sides rendered differently (a hydration error on every load).
+ */
+export function SettingsForm({
+  initial,
+  timeZones,
+  currencies,
+}: {
+  initial: Settings;
+  timeZones: readonly string[];
+  currencies: readonly string[];
+}) {
   const router = useRouter();
   const [note, setNote] = useState<{ kind: 'ok' | 'error'; text: string } | null>(null);
   const {
@@ -64,7 +74,7 @@ export function SettingsForm({ initial }: { initial: Settings }) {
     resolver: zodResolver(settingsSchema),
     defaultValues: initial,
   });
-  const zones = TIME_ZONES.includes(initial.timeZone) ? TIME_ZONES : [initial.timeZone, ...TIME_ZONES];
+  const zones = timeZones.includes(initial.timeZone) ? timeZones : [initial.timeZone, ...timeZones];
   // register() alone leaves the server-rendered fields empty until hydration; defaultValue fills them.
   const field = (name: keyof Settings, options?: { valueAsNumber: true }) => ({
     ...register(name, options),
@@ -142,7 +152,7 @@ export function SettingsForm({ initial }: { initial: Settings }) {
             autoComplete="off"
           />
           <datalist id="set-currency-codes">
-            {CURRENCIES.map((c) => (
+            {currencies.map((c) => (
               <option key={c} value={c} />
             ))}
           </datalist>

@@ -17,6 +17,7 @@ import { formatMoney } from '@/lib/money';
 import { api } from './api';
 import { partsQueryString } from './query-string';
 import { ScrollRegion } from './scroll-region';
+import { CARD_TABLE, cardCellProps } from '@/components/ui/card-table';
 
 const SORTABLE: Partial<Record<string, PartSort>> = {
   name: 'name',
@@ -26,11 +27,22 @@ const SORTABLE: Partial<Record<string, PartSort>> = {
   reorderPoint: 'reorderPoint',
 };
 
+const PHONE_SORTS: [string, string][] = [
+  ['name:asc', 'Name, A to Z'],
+  ['name:desc', 'Name, Z to A'],
+  ['onHand:asc', 'On hand, fewest first'],
+  ['onHand:desc', 'On hand, most first'],
+  ['category:asc', 'Category'],
+  ['sku:asc', 'SKU'],
+  ['reorderPoint:desc', 'Reorder at, highest first'],
+];
+
 function columns(currency: string): ColumnDef<PartRow>[] {
   return [
     {
       id: 'name',
       header: 'Part',
+      meta: { label: '' },
       cell: ({ row }) => (
         <Link href={`/shelf/parts/${row.original.id}`} className="font-semibold">
           {row.original.name}
@@ -204,6 +216,27 @@ export function PartsTable({ initial, initialQuery }: { initial: PartPage; initi
           />
           Below reorder point
         </label>
+        <div className="sm:hidden">
+          <label htmlFor="parts-sort" className="label">
+            Sort by
+          </label>
+          {/* On a phone the rows are cards and the column headers are hidden: sorting is chosen here. */}
+          <select
+            id="parts-sort"
+            className="field"
+            value={`${query.sort}:${query.dir}`}
+            onChange={(e) => {
+              const [sort, dir] = e.target.value.split(':') as [PartSort, 'asc' | 'desc'];
+              setQuery((q) => ({ ...q, sort, dir, page: 1 }));
+            }}
+          >
+            {PHONE_SORTS.map(([value, words]) => (
+              <option key={value} value={value}>
+                {words}
+              </option>
+            ))}
+          </select>
+        </div>
         <a
           className="btn-quiet"
           href={`/api/parts/export?${partsQueryString(query, ['page', 'pageSize'])}`}
@@ -220,16 +253,17 @@ export function PartsTable({ initial, initialQuery }: { initial: PartPage; initi
       </p>
 
       <ScrollRegion label="Parts">
-        <table className="table-dense">
-          <thead>
+        <table role="table" className={CARD_TABLE}>
+          <thead role="rowgroup">
             {table.getHeaderGroups().map((hg) => (
-              <tr key={hg.id}>
+              <tr role="row" key={hg.id}>
                 {hg.headers.map((h) => {
                   const sortable = Boolean(SORTABLE[h.column.id]);
                   const active = query.sort === SORTABLE[h.column.id];
                   const Icon = !active ? ArrowUpDown : query.dir === 'asc' ? ArrowUp : ArrowDown;
                   return (
                     <th
+                      role="columnheader"
                       key={h.id}
                       scope="col"
                       aria-sort={active ? (query.dir === 'asc' ? 'ascending' : 'descending') : undefined}
@@ -252,17 +286,19 @@ export function PartsTable({ initial, initialQuery }: { initial: PartPage; initi
               </tr>
             ))}
           </thead>
-          <tbody>
+          <tbody role="rowgroup">
             {table.getRowModel().rows.map((row) => (
-              <tr key={row.id}>
+              <tr role="row" key={row.id}>
                 {row.getVisibleCells().map((cell) => (
-                  <td key={cell.id}>{flexRender(cell.column.columnDef.cell, cell.getContext())}</td>
+                  <td role="cell" key={cell.id} {...cardCellProps(cell.column)}>
+                    {flexRender(cell.column.columnDef.cell, cell.getContext())}
+                  </td>
                 ))}
               </tr>
             ))}
             {page.rows.length === 0 ? (
-              <tr>
-                <td colSpan={cols.length} className="muted py-6 text-center">
+              <tr role="row">
+                <td role="cell" colSpan={cols.length} className="muted py-6 text-center">
                   No parts match. Clear a filter, or add a part.
                 </td>
               </tr>

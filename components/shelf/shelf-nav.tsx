@@ -18,9 +18,10 @@ export function ShelfNav({ staff }: { staff: boolean }) {
   const path = usePathname();
   const current = (href: string) =>
     href === '/shelf' ? path === '/shelf' || path.startsWith('/shelf/parts') : path.startsWith(href);
+  // Wraps onto a second line on a phone rather than hiding tabs off the edge.
   return (
-    <nav aria-label="Shelf" className="no-print mb-4 overflow-x-auto">
-      <ul className="flex gap-1 border-b border-stone-200 text-sm dark:border-stone-800">
+    <nav aria-label="Shelf" className="no-print mb-4">
+      <ul className="flex flex-wrap gap-x-1 border-b border-stone-200 text-sm dark:border-stone-800">
         {ITEMS.filter((i) => staff || !i.staff).map((i) => (
           <li key={i.href}>
             <Link

@@ -19,3 +19,24 @@ export const NAV: NavItem[] = [
 export function navFor(roles: Role[]): NavItem[] {
   return NAV.filter((n) => n.roles === 'all' || n.roles.some((r) => roles.includes(r)));
 }
+
+// On a phone the bar at the bottom holds the four sections used most at the bench; "More" lists them all.
+const PHONE_ORDER = [
+  '/today',
+  '/scan',
+  '/loans',
+  '/counter',
+  '/books',
+  '/people',
+  '/shelf',
+  '/kits',
+  '/bench-check',
+  '/settings',
+];
+export const PHONE_BAR_SIZE = 4;
+
+export function phoneBar(items: NavItem[]): NavItem[] {
+  return [...items]
+    .sort((a, b) => PHONE_ORDER.indexOf(a.href) - PHONE_ORDER.indexOf(b.href))
+    .slice(0, PHONE_BAR_SIZE);
+}

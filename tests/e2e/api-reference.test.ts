@@ -1,7 +1,14 @@
 import type { Browser } from 'playwright-core';
 import { afterAll, beforeAll, describe, expect, test } from 'vitest';
 import { closeTestDb, makeSpace, makeUser, TEST_PASSWORD, testDb } from '../helpers/db';
-import { fitsWidth, launchBrowser, newPage, seriousA11yViolations, signInPage, takeCspViolations } from '../helpers/browser';
+import {
+  fitsWidth,
+  launchBrowser,
+  newPage,
+  seriousA11yViolations,
+  signInPage,
+  takeCspViolations,
+} from '../helpers/browser';
 
 // The API reference for admins (app/(app)/settings/api), reached from Settings, in Chromium at phone
 // width and in the dark scheme, under the app's Content-Security-Policy: no violation, no sideways scroll.
@@ -50,7 +57,9 @@ describe('API reference page', () => {
     });
     await page.goto('/signin');
     await expect.poll(() => takeCspViolations().join('\n'), { timeout: 5_000 }).toMatch(/script-src/);
-    expect(await page.evaluate(() => (window as unknown as { __shouldNotRun?: number }).__shouldNotRun)).toBeUndefined();
+    expect(
+      await page.evaluate(() => (window as unknown as { __shouldNotRun?: number }).__shouldNotRun),
+    ).toBeUndefined();
     await page.context().close();
   });
 

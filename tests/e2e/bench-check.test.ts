@@ -44,7 +44,8 @@ describe('bench check at 390 px: a bad value marks its field and keeps the rest'
     await expect.poll(() => errorFor(page, 'supply.volts').textContent()).toMatch(message);
     expect(await input(page, 'supply.volts').getAttribute('aria-invalid')).toBe('true');
     expect(await input(page, 'supply.volts').inputValue()).toBe(typed); // what was typed stays to be fixed
-    for (const [name, value] of Object.entries(KEPT)) expect(await input(page, name).inputValue()).toBe(value);
+    for (const [name, value] of Object.entries(KEPT))
+      expect(await input(page, name).inputValue()).toBe(value);
     expect(await page.locator('[data-error-for]').count()).toBe(1); // only the bad field is marked
     // The page stands: its title, the form, and a results card that says what it waits for.
     expect(await page.getByRole('heading', { name: 'Bench check', level: 1 }).isVisible()).toBe(true);
@@ -71,13 +72,19 @@ describe('bench check at 390 px: a bad value marks its field and keeps the rest'
     const page = await openCheck();
     await input(page, 'buck.inductorMicrohenries').fill('68');
     await input(page, 'buck.switchingKilohertz').fill('300');
-    await expect.poll(() => page.locator('[data-echo-for="buck.switchingKilohertz"]').textContent()).toBe('= 300\u202f000 Hz');
-    expect(await page.locator('[data-echo-for="buck.inductorMicrohenries"]').textContent()).toBe('= 0.000068 H');
+    await expect
+      .poll(() => page.locator('[data-echo-for="buck.switchingKilohertz"]').textContent())
+      .toBe('= 300\u202f000 Hz');
+    expect(await page.locator('[data-echo-for="buck.inductorMicrohenries"]').textContent()).toBe(
+      '= 0.000068 H',
+    );
     // With L and f the ripple peak is drawn on the current strip.
     await page.locator('[data-plot="ripple-peak"]').waitFor();
 
     await input(page, 'buck.switchingKilohertz').fill('300000');
-    await expect.poll(() => errorFor(page, 'buck.switchingKilohertz').textContent()).toMatch(/in kHz: for 300 kHz, type 300/);
+    await expect
+      .poll(() => errorFor(page, 'buck.switchingKilohertz').textContent())
+      .toMatch(/in kHz: for 300 kHz, type 300/);
     expect(await input(page, 'buck.inductorMicrohenries').inputValue()).toBe('68');
     await page.context().close();
   });
@@ -126,32 +133,37 @@ describe('bench check: heat', () => {
 });
 
 describe('bench check fits 390 px with no sideways scroll', () => {
-  test.each(['light', 'dark'] as const)('%s scheme: results, errors, every optional section open', async (scheme) => {
-    const page = await openCheck(scheme);
-    expect(await page.evaluate(() => matchMedia('(prefers-color-scheme: dark)').matches)).toBe(scheme === 'dark');
-    expect(await fitsWidth(page)).toBe(true);
+  test.each(['light', 'dark'] as const)(
+    '%s scheme: results, errors, every optional section open',
+    async (scheme) => {
+      const page = await openCheck(scheme);
+      expect(await page.evaluate(() => matchMedia('(prefers-color-scheme: dark)').matches)).toBe(
+        scheme === 'dark',
+      );
+      expect(await fitsWidth(page)).toBe(true);
 
-    await page.getByLabel('Dimmed with PWM').check();
-    await page.getByLabel('Wire run from the supply to the driver').check();
-    await page.getByLabel('LEDs mounted on heat sinks').check();
-    await input(page, 'buck.inductorMicrohenries').fill('68');
-    await input(page, 'buck.switchingKilohertz').fill('300');
-    await input(page, 'buck.inductorSatAmps').fill('0,5');
-    await page.locator('[data-plot="ripple-peak"]').waitFor();
-    expect(await fitsWidth(page)).toBe(true);
+      await page.getByLabel('Dimmed with PWM').check();
+      await page.getByLabel('Wire run from the supply to the driver').check();
+      await page.getByLabel('LEDs mounted on heat sinks').check();
+      await input(page, 'buck.inductorMicrohenries').fill('68');
+      await input(page, 'buck.switchingKilohertz').fill('300');
+      await input(page, 'buck.inductorSatAmps').fill('0,5');
+      await page.locator('[data-plot="ripple-peak"]').waitFor();
+      expect(await fitsWidth(page)).toBe(true);
 
-    await input(page, 'supply.volts').fill('48'); // near the 60 V limit: the limit is drawn on the scale
-    await page.locator('[data-plot="selv"] line').waitFor({ state: 'attached' }); // a vertical line has no width: attached, not visible
-    expect(await fitsWidth(page)).toBe(true);
+      await input(page, 'supply.volts').fill('48'); // near the 60 V limit: the limit is drawn on the scale
+      await page.locator('[data-plot="selv"] line').waitFor({ state: 'attached' }); // a vertical line has no width: attached, not visible
+      expect(await fitsWidth(page)).toBe(true);
 
-    await input(page, 'supply.volts').fill('1e308');
-    await input(page, 'string.vfTyp').fill('letters');
-    await errorFor(page, 'string.vfTyp').waitFor();
-    expect(await fitsWidth(page)).toBe(true);
+      await input(page, 'supply.volts').fill('1e308');
+      await input(page, 'string.vfTyp').fill('letters');
+      await errorFor(page, 'string.vfTyp').waitFor();
+      expect(await fitsWidth(page)).toBe(true);
 
-    await page.locator('input[name="driverType"][value="linear"]').check();
-    await input(page, 'linear.sinkCPerW').fill('5');
-    expect(await fitsWidth(page)).toBe(true);
-    await page.context().close();
-  });
+      await page.locator('input[name="driverType"][value="linear"]').check();
+      await input(page, 'linear.sinkCPerW').fill('5');
+      expect(await fitsWidth(page)).toBe(true);
+      await page.context().close();
+    },
+  );
 });

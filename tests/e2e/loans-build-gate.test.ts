@@ -92,7 +92,9 @@ describe('kits use what is in the box', () => {
     expect(await heat.innerText()).toMatch(/LED junction about 110 °C, heat sink about 90 °C/);
     expect(await heat.innerText()).toMatch(/a sink of at most 7\.6 °C\/W each/);
     // The caution itself, in the list of what to change.
-    expect((await report.locator('li').allInnerTexts()).some((t) => /junction/i.test(t) && /°C/.test(t))).toBe(true);
+    expect(
+      (await report.locator('li').allInnerTexts()).some((t) => /junction/i.test(t) && /°C/.test(t)),
+    ).toBe(true);
     expect(await fitsWidth(page)).toBe(true);
     expect(await seriousA11yViolations(page)).toEqual([]);
   });

@@ -1,6 +1,6 @@
 import { readFileSync } from 'node:fs';
 import { createRequire } from 'node:module';
-import { chromium, type Browser, type Page } from 'playwright-core';
+import { chromium, type Browser, type BrowserContext, type Page } from 'playwright-core';
 import { afterEach } from 'vitest';
 import { DEMO_PASSWORD } from '@/db/seed/people';
 import { BASE } from './http';
@@ -10,7 +10,15 @@ export async function launchBrowser(): Promise<Browser> {
   return chromium.launch({
     executablePath: '/usr/bin/chromium',
     headless: true,
-    args: ['--no-sandbox', '--disable-gpu', '--disable-background-networking', '--disable-component-update', '--disable-quic', '--no-first-run', '--disable-sync'],
+    args: [
+      '--no-sandbox',
+      '--disable-gpu',
+      '--disable-background-networking',
+      '--disable-component-update',
+      '--disable-quic',
+      '--no-first-run',
+      '--disable-sync',
+    ],
   });
 }
 
@@ -22,16 +30,23 @@ afterEach(() => {
   if (found.length) throw new Error(`Content-Security-Policy violations:\n  ${found.join('\n  ')}`);
 });
 
-/** A fresh context at phone width (390 px) by default. */
-export async function newPage(browser: Browser, width = 390, height = 844): Promise<Page> {
-  const context = await browser.newContext({ viewport: { width, height }, baseURL: BASE });
+/** A fresh context at phone width (390 px) by default; `storageState` carries another context's sign-in. */
+export async function newPage(
+  browser: Browser,
+  width = 390,
+  height = 844,
+  storageState?: Awaited<ReturnType<BrowserContext['storageState']>>,
+): Promise<Page> {
+  const context = await browser.newContext({ viewport: { width, height }, baseURL: BASE, storageState });
   await context.exposeBinding('__ohmCspViolation', (_source, text: string) => {
     cspViolations.push(text);
   });
   await context.addInitScript(() => {
     document.addEventListener('securitypolicyviolation', (e) => {
       const w = window as unknown as { __ohmCspViolation: (t: string) => void };
-      void w.__ohmCspViolation(`${e.violatedDirective} blocked ${e.blockedURI || '(inline)'} on ${location.pathname}`);
+      void w.__ohmCspViolation(
+        `${e.violatedDirective} blocked ${e.blockedURI || '(inline)'} on ${location.pathname}`,
+      );
     });
   });
   return context.newPage();
@@ -63,10 +78,58 @@ export async function seriousA11yViolations(page: Page): Promise<string[]> {
   });
   return violations
     .filter((v) => v.impact === 'serious' || v.impact === 'critical')
-    .map((v) => `${v.id}: ${v.nodes.slice(0, 3).map((n) => n.target.join(' ')).join(', ')}`);
+    .map(
+      (v) =>
+        `${v.id}: ${v.nodes
+          .slice(0, 3)
+          .map((n) => n.target.join(' '))
+          .join(', ')}`,
+    );
 }
 
 /** True when the page does not scroll sideways at its viewport width. */
 export async function fitsWidth(page: Page): Promise<boolean> {
   return page.evaluate(() => document.documentElement.scrollWidth <= window.innerWidth + 1);
+}
+
+/** The WCAG 2.x level A and AA rules (2.2 included) of axe-core. */
+export const WCAG_AA_TAGS = ['wcag2a', 'wcag2aa', 'wcag21a', 'wcag21aa', 'wcag22a', 'wcag22aa'];
+
+/** The rules whose outcome depends on colours alone (what a change of colour scheme can break). */
+export const COLOUR_RULES = ['color-contrast', 'link-in-text-block'];
+
+/** Puts axe-core into every page of the context before the page's own scripts (saves a round trip per page). */
+export async function preloadAxe(context: BrowserContext): Promise<void> {
+  await context.addInitScript({ content: axeSource });
+}
+
+/**
+ * Every axe-core violation of the WCAG A/AA rules (2.2 included), whatever its impact (ids, first targets
+ * and why); `only: 'colours'` runs just the rules a change of colour scheme can affect.
+ */
+export async function wcagViolations(page: Page, only?: 'colours'): Promise<string[]> {
+  if (!(await page.evaluate(() => 'axe' in window))) await page.evaluate(axeSource);
+  const runOnly = only ? { type: 'rule', values: COLOUR_RULES } : { type: 'tag', values: WCAG_AA_TAGS };
+  const violations = await page.evaluate(async (runOnly) => {
+    // @ts-expect-error axe is injected above
+    const r = await window.axe.run(document, { runOnly, resultTypes: ['violations'] });
+    return r.violations as { id: string; nodes: { target: string[]; failureSummary?: string }[] }[];
+  }, runOnly);
+  return violations.map(
+    (v) =>
+      `${v.id}: ${v.nodes
+        .slice(0, 3)
+        .map(
+          (n) =>
+            `${n.target.join(' ')} (${(n.failureSummary ?? '').split('\n').slice(1, 2).join('').trim()})`,
+        )
+        .join(', ')}`,
+  );
+}
+
+/** Waits until CSS transitions and animations have finished (a change of colour scheme fades the buttons). */
+export async function settled(page: Page): Promise<void> {
+  await page.evaluate(() =>
+    Promise.all(document.getAnimations().map((a) => a.finished.catch(() => undefined))),
+  );
 }

@@ -2,6 +2,7 @@ import Link from 'next/link';
 import { db } from '@/db';
 import { requirePageRole } from '@/lib/auth/guard';
 import { getSettings } from '@/lib/settings/settings';
+import { CURRENCIES, TIME_ZONES } from '@/lib/settings/schema';
 import { PageTitle } from '@/components/ui/page-title';
 import { SettingsForm } from '@/components/settings/settings-form';
 import { DeploymentNotes } from '@/components/settings/deployment-notes';
@@ -17,9 +18,11 @@ export default async function SettingsPage() {
   return (
     <div className="mx-auto max-w-3xl">
       <PageTitle title="Settings" lead={`The rules ${ctx.spaceName} runs its bench by.`}>
-        <Link className="btn-quiet" href="/settings/api">API reference</Link>
+        <Link className="btn-quiet" href="/settings/api">
+          API reference
+        </Link>
       </PageTitle>
-      <SettingsForm initial={settings} />
+      <SettingsForm initial={settings} timeZones={TIME_ZONES} currencies={CURRENCIES} />
       <DeploymentNotes baseUrl={env().APP_BASE_URL} version={APP_VERSION} backups={await lastBackups(db)} />
     </div>
   );

@@ -12,13 +12,13 @@ export default async function CounterDonePage({
 }: {
   searchParams: Promise<{ sale?: string; cancelled?: string }>;
 }) {
-  await requirePageUser();
+  const ctx = await requirePageUser();
   const { sale, cancelled } = await searchParams;
   if (!z.uuid().safeParse(sale).success) notFound();
   return (
     <>
       <PageTitle title="Your payment" />
-      <SaleStatus saleId={sale!} cancelled={cancelled === '1'} />
+      <SaleStatus saleId={sale!} cancelled={cancelled === '1'} me={ctx.userId} />
     </>
   );
 }

@@ -11,6 +11,7 @@ import { ReturnForm } from '@/components/loans/return-form';
 import { StatePill } from '@/components/ui/state-pill';
 import { orNotFound, pageId } from '../or-not-found';
 import { displayCode } from '@/labels/code';
+import { chainRoleWords } from '@/lib/domain';
 
 export const metadata = { title: 'Loan' };
 
@@ -123,7 +124,7 @@ export default async function LoanPage({ params }: { params: Promise<{ id: strin
                 {[
                   l.unitCode ? `label ${displayCode(l.unitCode)}` : null,
                   l.locationName ? `from ${l.locationName}` : null,
-                  l.chainRole ? `chain: ${l.chainRole}` : null,
+                  l.chainRole ? chainRoleWords(l.chainRole) : null,
                 ]
                   .filter(Boolean)
                   .join(' · ')}

@@ -16,6 +16,7 @@ import { Alternatives } from '@/components/loans/alternatives';
 import { BorrowPanel } from '@/components/loans/borrow-panel';
 import { StatePill } from '@/components/ui/state-pill';
 import { orNotFound, pageId } from '../../../loans/or-not-found';
+import { chainRoleWords } from '@/lib/domain';
 
 export const metadata = { title: 'Kit box' };
 
@@ -96,7 +97,7 @@ export default async function KitBoxPage({ params }: { params: Promise<{ id: str
                 {c.name}
               </span>
               <span className="muted block text-sm">
-                {[c.chainRole ? `chain: ${c.chainRole}` : null, c.keySpec || null].filter(Boolean).join(' · ')}
+                {[c.chainRole ? chainRoleWords(c.chainRole) : null, c.keySpec || null].filter(Boolean).join(' · ')}
                 {c.unitCode ? (
                   <>
                     {c.chainRole || c.keySpec ? ' · ' : ''}label <CodeText code={c.unitCode} />

@@ -8,6 +8,7 @@ import { CheckReport } from '@/components/kits/check-report';
 import { PageTitle } from '@/components/ui/page-title';
 import { StatePill } from '@/components/ui/state-pill';
 import { orNotFound, pageId } from '../../../loans/or-not-found';
+import { CHAIN_ROLE_WORDS } from '@/lib/domain';
 
 export const metadata = { title: 'Kit' };
 
@@ -33,7 +34,7 @@ export default async function TemplatePage({ params }: { params: Promise<{ id: s
             <tr>
               <th scope="col">Qty</th>
               <th scope="col">Part</th>
-              <th scope="col">Chain</th>
+              <th scope="col">In the build</th>
             </tr>
           </thead>
           <tbody>
@@ -44,7 +45,7 @@ export default async function TemplatePage({ params }: { params: Promise<{ id: s
                   {l.name}
                   <span className="muted block">{[l.sku, l.keySpec].filter(Boolean).join(' · ')}</span>
                 </td>
-                <td>{l.chainRole ?? '—'}</td>
+                <td>{l.chainRole ? CHAIN_ROLE_WORDS[l.chainRole] : '—'}</td>
               </tr>
             ))}
           </tbody>

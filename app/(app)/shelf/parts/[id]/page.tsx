@@ -12,7 +12,7 @@ import { chooseLayout } from '@/lib/inventory/labels';
 import { listLocations } from '@/lib/inventory/locations';
 import { getPartDetail } from '@/lib/inventory/part-detail';
 import { CATEGORY_WORDS } from '@/lib/inventory/words';
-import { formatMoney } from '@/lib/money';
+import { formatUnitPrice } from '@/lib/money';
 import { PageTitle } from '@/components/ui/page-title';
 import { StatePill } from '@/components/ui/state-pill';
 import { AddUnitsForm } from '@/components/shelf/add-units-form';
@@ -116,7 +116,7 @@ export default async function PartPage({
             <dt className="muted">Counter</dt>
             <dd>
               {part.sellable && part.priceMinor !== null
-                ? `${formatMoney(part.priceMinor, d.currency)} per ${part.saleUnit}`
+                ? formatUnitPrice(part.priceMinor, d.currency, part.saleUnit)
                 : 'not sold'}
             </dd>
             {part.notes ? (
