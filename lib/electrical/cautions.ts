@@ -62,9 +62,10 @@ export function safetyCautions(spec: KitSpec, report: KitReport): Caution[] {
       text: `${part} turns up to ${formatWatts(f.lossWatts)} into heat.${junction} Give it a heat sink with thermal paste or airflow, and keep fingers off while it runs.`,
     });
   }
-  if (spec.pwmDuty !== undefined && spec.pwmDuty < 1) {
+  const duty = spec.pwmDuty ?? 1;
+  if (duty < 1) {
     // Each PWM pulse draws the full current from the supply even though the average is lower.
-    const pulse = f.supplyAmps / spec.pwmDuty;
+    const pulse = f.supplyAmps / duty;
     if (isAbove(pulse, spec.supply.maxAmps))
       out.push({
         id: 'pwm-peak',

@@ -77,6 +77,16 @@ describe('the edges of each caution', () => {
     // vfMax 3.2 V × 0.15625 A = 0.5 W (P = V × I); × 0.15 A = 0.48 W. common practice (no source) for the 0.5 W line.
     expect(idsFor(buckSpec({ led: { maxWatts: 0.4 }, driver: { outputAmps: 0.15625 } }))).toContain('eyes');
     expect(idsFor(buckSpec({ led: { maxWatts: 0.4 }, driver: { outputAmps: 0.15 } }))).not.toContain('eyes');
+    // and by the rating alone: a 0.5 W LED run at 0.1 A (3.2 V × 0.1 A = 0.32 W) still gets it
+    expect(idsFor(buckSpec({ led: { maxWatts: 0.5 }, driver: { outputAmps: 0.1 } }))).toContain('eyes');
+  });
+
+  it('the low-voltage scope for every kind of driver', () => {
+    // 61 V at 0 % tolerance is over the 60 V limit of SELV DC (IEC 61140, from memory); 60 V is not
+    for (const make of [buckSpec, linearSpec, resistorSpec]) {
+      expect(idsFor(make({ supply: { volts: 61 } }))).toContain('low-voltage');
+      expect(idsFor(make({ supply: { volts: 60 } }))).not.toContain('low-voltage');
+    }
   });
 
   it('a hot junction is judged against the LED’s own limit, 125 °C when it gives none', () => {
