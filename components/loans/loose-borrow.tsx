@@ -242,6 +242,7 @@ export function LooseBorrow({
             staff={staff}
             members={members}
             userId={userId}
+            inductions={p.inductions}
           />
         </>
       ) : null}

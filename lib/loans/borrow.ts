@@ -7,6 +7,8 @@ import { now } from '@/lib/clock';
 import { ConflictError, ForbiddenError, NotFoundError } from '@/lib/errors';
 import { buildNote, looseOutcome, refusalReasons } from './build';
 import { checkLines, storedReport } from './check';
+import { inductionRefusal, missingInductions, stewardsToAsk } from '@/lib/inductions/gate';
+import { standingRefusal } from '@/lib/rules/standing';
 import { computeDueAt } from './due';
 import { limitReached, openLoanCount } from './lock';
 import { gateFor } from './preview';
@@ -20,9 +22,13 @@ import { loanSettings } from './settings';
 
 export type BorrowResult = {
   id: string;
+  /** 'waiting' (at the bench, for a steward to hand over) or 'out'. */
+  status: 'waiting' | 'out';
   dueAt: Date;
   verdict: 'ok' | 'caution' | 'fail' | null;
   overridden: boolean;
+  /** Inductions the borrower lacked, lent anyway on a steward's override with a reason. */
+  inductionsOverridden: string[];
   /** What was checked as the borrower's whole build, or what it still lacks; null when not a build. */
   note: string | null;
 };
@@ -38,8 +44,8 @@ export async function borrow(db: Db, ctx: Ctx, input: BorrowInput): Promise<Borr
   const borrowerId = input.borrowerId ?? ctx.userId;
   if (borrowerId !== ctx.userId && !staff)
     throw new ForbiddenError("Only a steward can lend on someone else's behalf.");
-  if (input.override && !staff)
-    throw new ForbiddenError('Only a steward or an admin can override the check.');
+  if ((input.overrides.check || input.overrides.inductions) && !staff)
+    throw new ForbiddenError('Only a steward or an admin can override the check or the induction rule.');
   const settings = await loanSettings(db, ctx.spaceId);
   const sel = input.selection;
 
@@ -54,10 +60,18 @@ export async function borrow(db: Db, ctx: Ctx, input: BorrowInput): Promise<Borr
       .executeTakeFirst();
     if (!member) throw new NotFoundError('That person is not a member of this space.');
 
+    // Standing first: a member with kit overdue starts nothing new, whoever asks and however.
+    const refusal = await standingRefusal(trx, ctx.spaceId, borrowerId, settings.rules, now(), {
+      self: borrowerId === ctx.userId,
+      timeZone: settings.timeZone,
+    });
+    if (refusal) throw new ConflictError(refusal.message, refusal.fields);
+
     // Take the items first: a guarded update (box) or row locks in id order (units), so that of many
     // borrows of the same thing exactly one gets it and the rest see it gone.
     let lines: SelectionLine[];
     let boxId: string | null = null;
+    let templateId: string | null = null;
     if ('kitBoxId' in sel) {
       const taken = await trx
         .updateTable('kit_boxes')
@@ -65,7 +79,7 @@ export async function borrow(db: Db, ctx: Ctx, input: BorrowInput): Promise<Borr
         .where('id', '=', sel.kitBoxId)
         .where('space_id', '=', ctx.spaceId)
         .where(takeable('kit_boxes', borrowerId))
-        .returning('id')
+        .returning(['id', 'template_id'])
         .executeTakeFirst();
       if (!taken) {
         const box = await loadBox(trx, ctx.spaceId, sel.kitBoxId);
@@ -74,6 +88,7 @@ export async function borrow(db: Db, ctx: Ctx, input: BorrowInput): Promise<Borr
         });
       }
       boxId = taken.id;
+      templateId = taken.template_id;
       lines = await boxLines(trx, boxId);
       await trx
         .updateTable('units')
@@ -115,7 +130,7 @@ export async function borrow(db: Db, ctx: Ctx, input: BorrowInput): Promise<Borr
     const gate = gateFor(outcome);
     const reasons = refusalReasons(outcome);
     const said = reasons.length ? ` ${reasons.join('. ')}.` : '';
-    if (gate === 'blocked' && !input.override)
+    if (gate === 'blocked' && !input.overrides.check)
       throw new ConflictError(
         `The compatibility check failed:${said} This cannot be lent as it is. A steward may override it with a written reason.`,
         {
@@ -132,14 +147,34 @@ export async function borrow(db: Db, ctx: Ctx, input: BorrowInput): Promise<Borr
         },
       );
 
+    // The induction gate: what these things need, against the borrower's current sign-offs.
+    const at = now();
+    const missing = await missingInductions(
+      trx,
+      ctx.spaceId,
+      borrowerId,
+      { templateId, categories: lines.map((l) => l.category) },
+      at,
+    );
+    if (missing.length && !input.overrides.inductions) {
+      const refusal = inductionRefusal(missing, await stewardsToAsk(trx, ctx.spaceId), {
+        self: borrowerId === ctx.userId,
+        timeZone: settings.timeZone,
+      });
+      throw new ConflictError(refusal.message, refusal.fields);
+    }
+    const inductionOverride = missing.length ? input.overrides.inductions!.reason : null;
+
     const open = await openLoanCount(trx, ctx.spaceId, borrowerId);
     if (open >= settings.maxOpenLoans)
       throw new ConflictError(limitReached(settings.maxOpenLoans), {
         borrowerId: [`already has ${open} loans out`],
       });
 
-    const at = now();
     const dueAt = computeDueAt(at, settings);
+    // Bench hand-over: a member's own borrow waits at the bench (kept for them) until a steward hands it
+    // over; its due date is set again then. A steward lending at the bench is the hand-over.
+    const status = settings.rules.presence === 'bench_handover' && !staff ? ('waiting' as const) : ('out' as const);
     const overridden = gate === 'blocked';
     const loan = await trx
       .insertInto('loans')
@@ -148,13 +183,18 @@ export async function borrow(db: Db, ctx: Ctx, input: BorrowInput): Promise<Borr
         borrower_id: borrowerId,
         lent_by_id: ctx.userId,
         kit_box_id: boxId,
+        status,
         out_at: at,
+        handed_over_by: status === 'out' && staff ? ctx.userId : null,
+        handed_over_at: status === 'out' && staff ? at : null,
         due_at: dueAt,
         check_verdict: outcome.verdict,
         check_report: JSON.stringify(storedReport(outcome)),
         caution_acknowledged: gate === 'acknowledge',
-        override_reason: overridden ? input.override!.reason : null,
+        override_reason: overridden ? input.overrides.check!.reason : null,
         override_by: overridden ? ctx.userId : null,
+        induction_override_reason: inductionOverride,
+        induction_override_by: inductionOverride ? ctx.userId : null,
         own_parts: input.ownParts ? JSON.stringify(input.ownParts) : null,
         created_at: at,
       })
@@ -241,6 +281,7 @@ export async function borrow(db: Db, ctx: Ctx, input: BorrowInput): Promise<Borr
       verdict: outcome.verdict,
       cautionAcknowledged: gate === 'acknowledge',
       dueAt: dueAt.toISOString(),
+      status,
     };
     await audit(trx, {
       spaceId: ctx.spaceId,
@@ -258,12 +299,30 @@ export async function borrow(db: Db, ctx: Ctx, input: BorrowInput): Promise<Borr
         targetType: 'loan',
         targetId: loan.id,
         detail: {
-          reason: input.override!.reason,
+          gate: 'check',
+          reason: input.overrides.check!.reason,
           verdict: outcome.verdict,
           kind: outcome.kind,
           ...(outcome.build ? { build: reasons } : {}),
         },
       });
-    return { id: loan.id, dueAt, verdict: outcome.verdict, overridden, note: buildNote(outcome) };
+    if (inductionOverride)
+      await audit(trx, {
+        spaceId: ctx.spaceId,
+        actorId: ctx.userId,
+        action: 'loan.override',
+        targetType: 'loan',
+        targetId: loan.id,
+        detail: { gate: 'inductions', reason: inductionOverride, missing: missing.map((m) => m.name) },
+      });
+    return {
+      id: loan.id,
+      status,
+      dueAt,
+      verdict: outcome.verdict,
+      overridden,
+      inductionsOverridden: missing.map((m) => m.name).filter(() => inductionOverride !== null),
+      note: buildNote(outcome),
+    };
   });
 }

@@ -7,7 +7,7 @@ import { closeTestDb, testDb } from '../helpers/db';
 // Quillmere's (demo seed).
 
 type Probe = { method: string; path: (ids: Ids) => string; body?: unknown };
-type Ids = Record<'part' | 'location' | 'loan' | 'box' | 'template' | 'sale' | 'code' | 'unit' | 'person', string>;
+type Ids = Record<'part' | 'location' | 'loan' | 'box' | 'template' | 'sale' | 'code' | 'unit' | 'person' | 'induction' | 'signoff', string>;
 
 const PROBES: Probe[] = [
   { method: 'GET', path: (i) => `/api/parts/${i.part}` },
@@ -23,6 +23,11 @@ const PROBES: Probe[] = [
   { method: 'GET', path: (i) => `/api/scan/${i.code}` },
   { method: 'PATCH', path: (i) => `/api/stock/units/${i.unit}`, body: { state: 'retired', reason: 'taken over' } },
   { method: 'PATCH', path: (i) => `/api/people/${i.person}`, body: { disabled: true } },
+  // Borrowing rules (issue 16)
+  { method: 'PATCH', path: (i) => `/api/inductions/${i.induction}`, body: { name: 'Taken over' } },
+  { method: 'POST', path: (i) => `/api/inductions/${i.induction}/signoffs`, body: { userId: '00000000-0000-4000-8000-000000000000' } },
+  { method: 'DELETE', path: (i) => `/api/signoffs/${i.signoff}` },
+  { method: 'POST', path: (i) => `/api/loans/${i.loan}/hand-over` },
 ];
 
 describe('another space’s records answer 404', () => {
@@ -32,7 +37,7 @@ describe('another space’s records answer 404', () => {
   beforeAll(async () => {
     const db = testDb();
     const q = await db.selectFrom('spaces').select('id').where('slug', '=', 'quillmere').executeTakeFirstOrThrow();
-    const one = async (table: 'parts' | 'locations' | 'loans' | 'kit_boxes' | 'kit_templates' | 'units') =>
+    const one = async (table: 'parts' | 'locations' | 'loans' | 'kit_boxes' | 'kit_templates' | 'units' | 'inductions' | 'induction_signoffs') =>
       (await db.selectFrom(table).select('id').where('space_id', '=', q.id).limit(1).executeTakeFirstOrThrow()).id;
     const code = await db.selectFrom('label_codes').select('code').where('space_id', '=', q.id).limit(1).executeTakeFirstOrThrow();
     const person = await db
@@ -50,6 +55,8 @@ describe('another space’s records answer 404', () => {
       sale: '',
       code: code.code,
       person: person.id,
+      induction: await one('inductions'),
+      signoff: await one('induction_signoffs'),
     };
     for (const email of ['greta@fernwick.example', 'lorcan@fernwick.example', 'aurelio@fernwick.example']) {
       callers[email] = await signedIn(email);
@@ -58,7 +65,7 @@ describe('another space’s records answer 404', () => {
   afterAll(closeTestDb);
 
   for (const probe of PROBES) {
-    it(`${probe.method} ${probe.path({ part: ':part', location: ':location', loan: ':loan', box: ':box', template: ':template', sale: ':sale', code: ':code', unit: ':unit', person: ':person' })}`, async () => {
+    it(`${probe.method} ${probe.path({ part: ':part', location: ':location', loan: ':loan', box: ':box', template: ':template', sale: ':sale', code: ':code', unit: ':unit', person: ':person', induction: ':induction', signoff: ':signoff' })}`, async () => {
       for (const [email, s] of Object.entries(callers)) {
         const res = await s.fetch(probe.path(ids), {
           method: probe.method,

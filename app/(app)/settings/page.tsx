@@ -4,18 +4,22 @@ import { requirePageRole } from '@/lib/auth/guard';
 import { getSettings } from '@/lib/settings/settings';
 import { PageTitle } from '@/components/ui/page-title';
 import { SettingsForm } from '@/components/settings/settings-form';
+import { BorrowingRulesForm } from '@/components/settings/borrowing-rules-form';
+import { borrowingRules } from '@/lib/rules/settings';
 
 export const metadata = { title: 'Settings' };
 
 export default async function SettingsPage() {
   const ctx = await requirePageRole('admin');
-  const settings = await getSettings(db, ctx);
+  const [settings, rules] = await Promise.all([getSettings(db, ctx), borrowingRules(db, ctx.spaceId)]);
   return (
     <div className="mx-auto max-w-3xl">
       <PageTitle title="Settings" lead={`The rules ${ctx.spaceName} runs its bench by.`}>
         <Link className="btn-quiet" href="/settings/api">API reference</Link>
       </PageTitle>
       <SettingsForm initial={settings} />
+      <h2 className="mt-10 mb-3 text-xl font-bold">Borrowing rules</h2>
+      <BorrowingRulesForm initial={rules} closingTime={settings.closingTime} />
     </div>
   );
 }
