@@ -243,15 +243,15 @@ export async function seedDemo(db: Db, clock: Date = new Date()): Promise<{ seed
         }
       }
 
-      // Inductions in each space's own words. Quillmere asks for its 36 V induction before the bench
-      // flood kit goes out, and Juniper has been signed off for a year; Fernwick keeps a walk-through.
+      // Inductions in each space's own words. Quillmere asks for its heat-sink induction before the shelf
+      // light kit (the hot one) goes out, and Juniper has been signed off for a year; Fernwick keeps a walk-through.
       const inductionPlan =
         key === 'quillmere'
           ? [
               {
-                name: 'Supplies above 24 V',
-                description: 'Switching a bench supply above 24 V off and letting it settle before touching the output; checking polarity twice.',
-                template: 'Bench flood, eight whites',
+                name: 'Hot heat sinks',
+                description: 'Where a running lamp gets hot, holding it by the bracket only, and letting the sink cool before packing the box.',
+                template: 'Shelf light, four warm whites',
                 signed: 'juniper@quillmere.example',
               },
               { name: 'Soldering at the bench', description: 'Iron stand, fume fan on, tip cleaned and tinned, iron off when you leave.', template: null, signed: 'cassius@quillmere.example' },

@@ -60,13 +60,6 @@ export async function borrow(db: Db, ctx: Ctx, input: BorrowInput): Promise<Borr
       .executeTakeFirst();
     if (!member) throw new NotFoundError('That person is not a member of this space.');
 
-    // Standing first: a member with kit overdue starts nothing new, whoever asks and however.
-    const refusal = await standingRefusal(trx, ctx.spaceId, borrowerId, settings.rules, now(), {
-      self: borrowerId === ctx.userId,
-      timeZone: settings.timeZone,
-    });
-    if (refusal) throw new ConflictError(refusal.message, refusal.fields);
-
     // Take the items first: a guarded update (box) or row locks in id order (units), so that of many
     // borrows of the same thing exactly one gets it and the rest see it gone.
     let lines: SelectionLine[];
@@ -121,6 +114,15 @@ export async function borrow(db: Db, ctx: Ctx, input: BorrowInput): Promise<Borr
           .execute();
       }
     }
+
+    // Standing: a member with kit overdue starts nothing new, whoever asks and however. Read under the
+    // borrower's lock, after the take (a borrow that loses the race answers at once, as before); a refusal
+    // rolls the take back with the rest of the transaction.
+    const refusal = await standingRefusal(trx, ctx.spaceId, borrowerId, settings.rules, now(), {
+      self: borrowerId === ctx.userId,
+      timeZone: settings.timeZone,
+    });
+    if (refusal) throw new ConflictError(refusal.message, refusal.fields);
 
     // The check, on the server, on exactly these parts: a box on its contents, loose parts together
     // with the rest of the borrower's build (read under the borrower's lock taken above).
