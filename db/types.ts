@@ -211,6 +211,14 @@ export interface LoansTable {
   created_at: TimestampDefault;
   /** What the steward wrote when checking it back in (migration 0007_box_upkeep). */
   return_note: Generated<string>;
+  /** A steward lending although a required sign-off is missing, and why (migration 0006). */
+  induction_override_reason: ColumnType<string | null, string | null | undefined, string | null>;
+  induction_override_by: ColumnType<string | null, string | null | undefined, string | null>;
+  /** Bench hand-over (migration 0006): who handed it over and when; when the member said it was back. */
+  handed_over_by: ColumnType<string | null, string | null | undefined, string | null>;
+  handed_over_at: TimestampNullable;
+  back_reported_at: TimestampNullable;
+  back_note: ColumnType<string | null, string | null | undefined, string | null>;
 }
 
 export interface LoanLinesTable {
@@ -413,6 +421,47 @@ export interface Database {
   audit_log: AuditLogTable;
   recon_resolutions: ReconResolutionsTable;
   backup_runs: BackupRunsTable;
+  // Borrowing rules (migration 0006)
+  inductions: InductionsTable;
+  kit_template_inductions: KitTemplateInductionsTable;
+  category_inductions: CategoryInductionsTable;
+  induction_signoffs: InductionSignoffsTable;
+}
+
+/** What a space shows a member before they may borrow certain things (migration 0006). */
+export interface InductionsTable {
+  id: Generated<string>;
+  space_id: string;
+  name: string;
+  description: Generated<string>;
+  archived_at: TimestampNullable;
+  created_at: TimestampDefault;
+}
+
+export interface KitTemplateInductionsTable {
+  space_id: string;
+  template_id: string;
+  induction_id: string;
+}
+
+export interface CategoryInductionsTable {
+  space_id: string;
+  category: PartCategory;
+  induction_id: string;
+}
+
+/** A steward's word that a member was shown an induction; revoked, never deleted. */
+export interface InductionSignoffsTable {
+  id: Generated<string>;
+  space_id: string;
+  induction_id: string;
+  user_id: string;
+  signed_by: string | null;
+  signed_at: TimestampDefault;
+  expires_at: TimestampNullable;
+  note: Generated<string>;
+  revoked_at: TimestampNullable;
+  revoked_by: ColumnType<string | null, string | null | undefined, string | null>;
 }
 
 export type Space = Selectable<SpacesTable>;

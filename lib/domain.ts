@@ -6,7 +6,8 @@ export type PartCategory =
   | 'driver' | 'led' | 'supply' | 'heat_sink' | 'wire' | 'kit_box' | 'tool' | 'meter' | 'consumable' | 'other';
 export type ChainRole = 'supply' | 'driver' | 'led' | 'wire';
 export type LabelKind = 'unit' | 'part' | 'location' | 'kit_box';
-export type LoanStatus = 'out' | 'returned' | 'returned_short';
+/** waiting: at the bench until a steward hands it over; back_unchecked: returned by the member, not yet checked (bench hand-over, issue 16). */
+export type LoanStatus = 'waiting' | 'out' | 'back_unchecked' | 'returned' | 'returned_short';
 export type SaleStatus = 'pending' | 'paid' | 'failed' | 'expired' | 'refunded' | 'partially_refunded' | 'reversed';
 export type MovementReason =
   | 'receive' | 'move_in' | 'move_out' | 'adjust' | 'count' | 'loan_out' | 'loan_return' | 'lost' | 'damaged'

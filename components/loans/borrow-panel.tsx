@@ -28,6 +28,7 @@ export function BorrowPanel({
   members = [],
   userId,
   lendTo,
+  inductions = null,
 }: {
   selection: Selection;
   gate: 'ok' | 'acknowledge' | 'blocked';
@@ -39,11 +40,25 @@ export function BorrowPanel({
   userId: string;
   /** The borrower chosen before the check (loose parts: the check covers their build); no choice here then. */
   lendTo?: string;
+  /** What the induction gate would say for this borrower (preview), or null. */
+  inductions?: { missing: string[]; message: string } | null;
 }) {
   const router = useRouter();
   const ids = useId();
   const [ack, setAck] = useState(false);
   const [reason, setReason] = useState('');
+  const [inductionReason, setInductionReason] = useState('');
+  // Set when the server's answer names a missing sign-off (the preview was for someone else, say).
+  const [serverNamedGap, setServerNamedGap] = useState(false);
+  // A steward sees the induction override when the preview or the server's last answer names a gap.
+  const inductionGap = staff && (inductions !== null || serverNamedGap);
+  function overridesToSend(): { override?: unknown } {
+    const list = [
+      ...(gate === 'blocked' && staff ? [{ gate: 'check', reason }] : []),
+      ...(inductionGap && inductionReason.trim() ? [{ gate: 'inductions', reason: inductionReason }] : []),
+    ];
+    return list.length === 0 ? {} : { override: list.length === 1 ? list[0] : list };
+  }
   const [chosen, setBorrowerId] = useState(userId);
   const borrowerId = lendTo ?? chosen;
   const m = useMutation({
@@ -51,10 +66,13 @@ export function BorrowPanel({
       callApi<{ loan: { id: string } }>('/api/loans', 'POST', {
         ...selection,
         ...(gate === 'acknowledge' ? { acknowledgeCaution: ack } : {}),
-        ...(gate === 'blocked' && staff ? { override: { reason } } : {}),
+        ...overridesToSend(),
         ...(borrowerId !== userId ? { borrowerId } : {}),
       }),
     onSuccess: ({ loan }) => router.push(`/loans/${loan.id}`),
+    onError: (e) => {
+      if ((e as ApiError).fields?.inductions) setServerNamedGap(true);
+    },
   });
   const fields = (m.error as ApiError | null)?.fields ?? {};
 
@@ -69,6 +87,13 @@ export function BorrowPanel({
         </ul>
       </div>
     );
+  if (inductions && !staff)
+    return (
+      <div className="card" role="status">
+        <p className="font-semibold">A sign-off is needed first</p>
+        <p className="mt-1">{inductions.message}</p>
+      </div>
+    );
   if (gate === 'blocked' && !staff)
     return (
       <div className="card" role="status">
@@ -81,7 +106,10 @@ export function BorrowPanel({
 
   // The button names whom it lends to once a steward has chosen someone else.
   const lendee = borrowerId !== userId ? shortName(members.find((p) => p.id === borrowerId)?.name ?? '') : null;
-  const ready = (gate !== 'acknowledge' || ack) && (gate !== 'blocked' || reason.trim().length > 0);
+  const ready =
+    (gate !== 'acknowledge' || ack) &&
+    (gate !== 'blocked' || reason.trim().length > 0) &&
+    (!inductionGap || inductionReason.trim().length > 0);
   return (
     <form
       className="card space-y-4"
@@ -141,16 +169,31 @@ export function BorrowPanel({
           ) : null}
         </div>
       ) : null}
+      {inductionGap ? (
+        <div>
+          {inductions ? <p className="mb-2">{inductions.message}</p> : null}
+          <label className="label" htmlFor={`${ids}-ind-reason`}>
+            Why lend it without the sign-off? (recorded with your name)
+          </label>
+          <textarea
+            id={`${ids}-ind-reason`}
+            className="field"
+            rows={3}
+            value={inductionReason}
+            onChange={(e) => setInductionReason(e.target.value)}
+          />
+        </div>
+      ) : null}
       <button
         type="submit"
-        className={gate === 'blocked' ? 'btn-danger w-full text-lg' : 'btn-primary w-full text-lg'}
+        className={gate === 'blocked' || inductionGap ? 'btn-danger w-full text-lg' : 'btn-primary w-full text-lg'}
         disabled={!ready || m.isPending}
       >
         {m.isPending
           ? lendee
             ? `Lending to ${lendee}…`
             : 'Borrowing…'
-          : gate === 'blocked'
+          : gate === 'blocked' || inductionGap
             ? lendee
               ? `Override and lend to ${lendee}`
               : 'Override and lend'

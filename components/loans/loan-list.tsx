@@ -29,7 +29,11 @@ export function LoanList({
               {showBorrower ? `${l.borrowerName} · ` : ''}
               {l.status === 'out'
                 ? `due ${formatDateTime(l.dueAt, timeZone)}`
-                : `returned ${l.returnedAt ? formatDateTime(l.returnedAt, timeZone) : ''}`}
+                : l.status === 'waiting'
+                  ? 'for a steward to hand over'
+                  : l.status === 'back_unchecked'
+                    ? 'for a steward to check'
+                    : `returned ${l.returnedAt ? formatDateTime(l.returnedAt, timeZone) : ''}`}
               {l.overridden ? ' · check overridden' : ''}
             </span>
           </span>

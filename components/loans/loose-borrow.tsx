@@ -303,6 +303,7 @@ export function LooseBorrow({
             members={members}
             userId={userId}
             lendTo={borrowerId}
+            inductions={p.inductions}
           />
         </>
       ) : null}

@@ -10,6 +10,7 @@ export const NAV: NavItem[] = [
   { href: '/shelf', label: 'Shelf', roles: 'all' },
   { href: '/kits', label: 'Kits', roles: 'all' },
   { href: '/loans', label: 'Loans', roles: 'all' },
+  { href: '/signoffs', label: 'Sign-offs', roles: 'all' },
   { href: '/counter', label: 'Counter', roles: ['member', 'steward'] },
   { href: '/books', label: 'Books', roles: ['treasurer'] },
   { href: '/people', label: 'People', roles: ['admin'] },

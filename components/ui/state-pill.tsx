@@ -10,6 +10,8 @@ const WORDS: Record<string, string> = {
   overdue: 'overdue',
   returned: 'returned',
   returned_short: 'returned short',
+  waiting: 'waiting at the bench',
+  back_unchecked: 'back, not yet checked',
   pending: 'pending',
   paid: 'paid',
   failed: 'failed',
@@ -26,6 +28,8 @@ const TONE: Record<string, string> = {
   failed: 'border-red-700 text-red-900 dark:text-red-200',
   in_repair: 'border-amber-700 text-amber-950 dark:text-amber-200',
   returned_short: 'border-amber-700 text-amber-950 dark:text-amber-200',
+  waiting: 'border-sky-700 text-sky-900 dark:text-sky-200',
+  back_unchecked: 'border-amber-700 text-amber-950 dark:text-amber-200',
 };
 
 export function StatePill({ state }: { state: string }) {

@@ -107,6 +107,19 @@ export async function seedDemo(db: Db, clock: Date = new Date()): Promise<{ seed
         .executeTakeFirstOrThrow(),
     };
 
+    // How things change hands (lib/rules): Quillmere lets members help themselves; at Fernwick a steward
+    // hands every borrow over at the bench and checks every return.
+    await trx
+      .updateTable('spaces')
+      .set({ settings: JSON.stringify({ borrowing: { presence: 'bench_handover' } }) })
+      .where('id', '=', spaces.fernwick.id)
+      .execute();
+    await trx
+      .updateTable('spaces')
+      .set({ settings: JSON.stringify({ borrowing: { presence: 'self_service' } }) })
+      .where('id', '=', spaces.quillmere.id)
+      .execute();
+
     const userIds: Record<string, string> = {};
     for (const p of DEMO_PEOPLE) {
       const first = Object.keys(p.roles)[0] as SpaceKey;
@@ -228,6 +241,32 @@ export async function seedDemo(db: Db, clock: Date = new Date()): Promise<{ seed
           }
           boxes.push({ id: boxId, name, template: t.name });
         }
+      }
+
+      // Inductions in each space's own words. Quillmere asks for its heat-sink induction before the shelf
+      // light kit (the hot one) goes out, and Juniper has been signed off for a year; Fernwick keeps a walk-through.
+      const inductionPlan =
+        key === 'quillmere'
+          ? [
+              {
+                name: 'Hot heat sinks',
+                description: 'Where a running lamp gets hot, holding it by the bracket only, and letting the sink cool before packing the box.',
+                template: 'Shelf light, four warm whites',
+                signed: 'juniper@quillmere.example',
+              },
+              { name: 'Soldering at the bench', description: 'Iron stand, fume fan on, tip cleaned and tinned, iron off when you leave.', template: null, signed: 'cassius@quillmere.example' },
+            ]
+          : [{ name: 'Lab walk-through', description: 'Where the isolator switch, the first-aid kit and the spill tray are.', template: null, signed: 'mirela@fernwick.example' }];
+      for (const ind of inductionPlan) {
+        const row = await trx.insertInto('inductions').values({ space_id: spaceId, name: ind.name, description: ind.description }).returning('id').executeTakeFirstOrThrow();
+        if (ind.template) {
+          const tpl = await trx.selectFrom('kit_templates').select('id').where('space_id', '=', spaceId).where('name', '=', ind.template).executeTakeFirstOrThrow();
+          await trx.insertInto('kit_template_inductions').values({ space_id: spaceId, template_id: tpl.id, induction_id: row.id }).execute();
+        }
+        await trx
+          .insertInto('induction_signoffs')
+          .values({ space_id: spaceId, induction_id: row.id, user_id: userIds[ind.signed], signed_by: steward, signed_at: new Date(clock.getTime() - 30 * DAY), expires_at: new Date(clock.getTime() + 335 * DAY), note: 'Shown at the bench.' })
+          .execute();
       }
 
       // Loans: one out and due soon, one overdue (Quillmere); one out in Fernwick.

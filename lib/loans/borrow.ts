@@ -8,6 +8,8 @@ import { now } from '@/lib/clock';
 import { ConflictError, ForbiddenError, NotFoundError } from '@/lib/errors';
 import { buildNote, looseOutcome, refusalReasons } from './build';
 import { checkLines, storedReport } from './check';
+import { inductionRefusal, missingInductions, stewardsToAsk } from '@/lib/inductions/gate';
+import { standingRefusal } from '@/lib/rules/standing';
 import { computeDueAt } from './due';
 import { limitReached, openLoanCount } from './lock';
 import { gateFor } from './preview';
@@ -21,9 +23,13 @@ import { LOAN_SETTING_COLUMNS, toLoanSettings } from './settings';
 
 export type BorrowResult = {
   id: string;
+  /** 'waiting' (at the bench, for a steward to hand over) or 'out'. */
+  status: 'waiting' | 'out';
   dueAt: Date;
   verdict: 'ok' | 'caution' | 'fail' | null;
   overridden: boolean;
+  /** Inductions the borrower lacked, lent anyway on a steward's override with a reason. */
+  inductionsOverridden: string[];
   /** What was checked as the borrower's whole build, or what it still lacks; null when not a build. */
   note: string | null;
 };
@@ -39,8 +45,8 @@ export async function borrow(db: Db, ctx: Ctx, input: BorrowInput): Promise<Borr
   const borrowerId = input.borrowerId ?? ctx.userId;
   if (borrowerId !== ctx.userId && !staff)
     throw new ForbiddenError("Only a steward can lend on someone else's behalf.");
-  if (input.override && !staff)
-    throw new ForbiddenError('Only a steward or an admin can override the check.');
+  if ((input.overrides.check || input.overrides.inductions) && !staff)
+    throw new ForbiddenError('Only a steward or an admin can override the check or the induction rule.');
   const sel = input.selection;
 
   return db.transaction().execute(async (trx) => {
@@ -61,6 +67,7 @@ export async function borrow(db: Db, ctx: Ctx, input: BorrowInput): Promise<Borr
     // borrows of the same thing exactly one gets it and the rest see it gone.
     let lines: SelectionLine[];
     let boxId: string | null = null;
+    let templateId: string | null = null;
     if ('kitBoxId' in sel) {
       const taken = await scoped(trx, ctx)
         .updateTable('kit_boxes')
@@ -68,7 +75,7 @@ export async function borrow(db: Db, ctx: Ctx, input: BorrowInput): Promise<Borr
         .where('id', '=', sel.kitBoxId)
         .where('space_id', '=', ctx.spaceId)
         .where(takeable('kit_boxes', borrowerId))
-        .returning('id')
+        .returning(['id', 'template_id'])
         .executeTakeFirst();
       if (!taken) {
         const box = await loadBox(trx, ctx.spaceId, sel.kitBoxId);
@@ -77,6 +84,7 @@ export async function borrow(db: Db, ctx: Ctx, input: BorrowInput): Promise<Borr
         });
       }
       boxId = taken.id;
+      templateId = taken.template_id;
       lines = await boxLines(trx, ctx.spaceId, boxId);
       await scoped(trx, ctx)
         .updateTable('units')
@@ -110,6 +118,15 @@ export async function borrow(db: Db, ctx: Ctx, input: BorrowInput): Promise<Borr
       }
     }
 
+    // Standing: a member with kit overdue starts nothing new, whoever asks and however. Read under the
+    // borrower's lock, after the take (a borrow that loses the race answers at once, as before); a refusal
+    // rolls the take back with the rest of the transaction.
+    const refusal = await standingRefusal(trx, ctx.spaceId, borrowerId, settings.rules, now(), {
+      self: borrowerId === ctx.userId,
+      timeZone: settings.timeZone,
+    });
+    if (refusal) throw new ConflictError(refusal.message, refusal.fields);
+
     // The check, on the server, on exactly these parts: a box on its contents, loose parts together
     // with the rest of the borrower's build (read under the borrower's lock taken above).
     const outcome = boxId
@@ -118,7 +135,7 @@ export async function borrow(db: Db, ctx: Ctx, input: BorrowInput): Promise<Borr
     const gate = gateFor(outcome);
     const reasons = refusalReasons(outcome);
     const said = reasons.length ? ` ${reasons.join('. ')}.` : '';
-    if (gate === 'blocked' && !input.override)
+    if (gate === 'blocked' && !input.overrides.check)
       throw new ConflictError(
         `The compatibility check failed:${said} This cannot be lent as it is. A steward may override it with a written reason.`,
         {
@@ -135,14 +152,34 @@ export async function borrow(db: Db, ctx: Ctx, input: BorrowInput): Promise<Borr
         },
       );
 
+    // The induction gate: what these things need, against the borrower's current sign-offs.
+    const at = now();
+    const missing = await missingInductions(
+      trx,
+      ctx.spaceId,
+      borrowerId,
+      { templateId, categories: lines.map((l) => l.category) },
+      at,
+    );
+    if (missing.length && !input.overrides.inductions) {
+      const refusal = inductionRefusal(missing, await stewardsToAsk(trx, ctx.spaceId), {
+        self: borrowerId === ctx.userId,
+        timeZone: settings.timeZone,
+      });
+      throw new ConflictError(refusal.message, refusal.fields);
+    }
+    const inductionOverride = missing.length ? input.overrides.inductions!.reason : null;
+
     const open = await openLoanCount(trx, ctx.spaceId, borrowerId);
     if (open >= settings.maxOpenLoans)
       throw new ConflictError(limitReached(settings.maxOpenLoans), {
         borrowerId: [`already has ${open} loans out`],
       });
 
-    const at = now();
     const dueAt = computeDueAt(at, settings);
+    // Bench hand-over: a member's own borrow waits at the bench (kept for them) until a steward hands it
+    // over; its due date is set again then. A steward lending at the bench is the hand-over.
+    const status = settings.rules.presence === 'bench_handover' && !staff ? ('waiting' as const) : ('out' as const);
     const overridden = gate === 'blocked';
     const loan = await scoped(trx, ctx)
       .insertInto('loans')
@@ -151,13 +188,18 @@ export async function borrow(db: Db, ctx: Ctx, input: BorrowInput): Promise<Borr
         borrower_id: borrowerId,
         lent_by_id: ctx.userId,
         kit_box_id: boxId,
+        status,
         out_at: at,
+        handed_over_by: status === 'out' && staff ? ctx.userId : null,
+        handed_over_at: status === 'out' && staff ? at : null,
         due_at: dueAt,
         check_verdict: outcome.verdict,
         check_report: JSON.stringify(storedReport(outcome)),
         caution_acknowledged: gate === 'acknowledge',
-        override_reason: overridden ? input.override!.reason : null,
+        override_reason: overridden ? input.overrides.check!.reason : null,
         override_by: overridden ? ctx.userId : null,
+        induction_override_reason: inductionOverride,
+        induction_override_by: inductionOverride ? ctx.userId : null,
         own_parts: input.ownParts ? JSON.stringify(input.ownParts) : null,
         created_at: at,
       })
@@ -194,6 +236,7 @@ export async function borrow(db: Db, ctx: Ctx, input: BorrowInput): Promise<Borr
       verdict: outcome.verdict,
       cautionAcknowledged: gate === 'acknowledge',
       dueAt: dueAt.toISOString(),
+      status,
     };
     const withLines = scoped(trx, ctx).with('written_lines', (q) =>
       q
@@ -273,12 +316,30 @@ export async function borrow(db: Db, ctx: Ctx, input: BorrowInput): Promise<Borr
         targetType: 'loan',
         targetId: loan.id,
         detail: {
-          reason: input.override!.reason,
+          gate: 'check',
+          reason: input.overrides.check!.reason,
           verdict: outcome.verdict,
           kind: outcome.kind,
           ...(outcome.build ? { build: reasons } : {}),
         },
       });
-    return { id: loan.id, dueAt, verdict: outcome.verdict, overridden, note: buildNote(outcome) };
+    if (inductionOverride)
+      await audit(trx, {
+        spaceId: ctx.spaceId,
+        actorId: ctx.userId,
+        action: 'loan.override',
+        targetType: 'loan',
+        targetId: loan.id,
+        detail: { gate: 'inductions', reason: inductionOverride, missing: missing.map((m) => m.name) },
+      });
+    return {
+      id: loan.id,
+      status,
+      dueAt,
+      verdict: outcome.verdict,
+      overridden,
+      inductionsOverridden: missing.map((m) => m.name).filter(() => inductionOverride !== null),
+      note: buildNote(outcome),
+    };
   });
 }

@@ -1,5 +1,6 @@
 import { TZDate } from '@date-fns/tz';
 import { addDays, differenceInCalendarDays, format } from 'date-fns';
+import { atLocal, nextOpening, type OpeningCalendar } from '@/lib/rules/calendar';
 
 // Due dates and calendar days in the space's own time zone. Pure: no database, no clock.
 
@@ -10,6 +11,8 @@ export type DueRule = {
   closingTime: string;
   /** IANA zone, e.g. 'America/Chicago'. */
   timeZone: string;
+  /** Opening days and closed dates (lib/rules); without one, every day closes at `closingTime`. */
+  calendar?: OpeningCalendar;
 };
 
 function closingParts(closingTime: string): [number, number] {
@@ -21,22 +24,15 @@ function closingParts(closingTime: string): [number, number] {
 /**
  * Due at closing time, local, on the last day of the loan: the calendar day `loanDays` after `from`
  * in the space's zone. Counting calendar days (not 24-hour blocks) keeps the due time at the same wall
- * clock across a daylight-saving change, so a week's loan may be 167 or 169 hours long.
+ * clock across a daylight-saving change, so a week's loan may be 167 or 169 hours long. With an opening
+ * calendar, a last day the space is shut moves to the next day it opens, due at that day's closing time.
  */
 export function computeDueAt(from: Date, rule: DueRule): Date {
-  const [hours, minutes] = closingParts(rule.closingTime);
-  const lastDay = addDays(new TZDate(from.getTime(), rule.timeZone), rule.loanDays);
-  const due = new TZDate(
-    lastDay.getFullYear(),
-    lastDay.getMonth(),
-    lastDay.getDate(),
-    hours,
-    minutes,
-    0,
-    0,
-    rule.timeZone,
-  );
-  return new Date(due.getTime());
+  closingParts(rule.closingTime);
+  const lastDay = localDay(addDays(new TZDate(from.getTime(), rule.timeZone), rule.loanDays), rule.timeZone);
+  // The next opening on or after the last day, at its closing time: never a night the space is shut.
+  const opening = rule.calendar ? nextOpening(lastDay, rule.calendar, rule.closingTime) : null;
+  return atLocal(opening?.day ?? lastDay, opening?.closes ?? rule.closingTime, rule.timeZone);
 }
 
 /** A renewal runs a fresh loan period from the later of now and the old due date, so renewing early never shortens it. */

@@ -1,6 +1,7 @@
 import 'server-only';
 import type { Db } from '@/db/connect';
 import { scoped } from '@/db/scoped';
+import type { LoanStatus } from '@/db/types';
 import { isStaff, type Ctx } from '@/lib/auth/roles';
 import { ConflictError, NotFoundError } from '@/lib/errors';
 
@@ -10,7 +11,13 @@ import { ConflictError, NotFoundError } from '@/lib/errors';
  * Locks a loan that is still out, for a change by its borrower or a steward. Someone else's loan, or
  * another space's, answers as if it did not exist.
  */
-export async function lockOpenLoan(trx: Db, ctx: Ctx, loanId: string, notOut: string) {
+export async function lockOpenLoan(
+  trx: Db,
+  ctx: Ctx,
+  loanId: string,
+  notOut: string,
+  allowed: LoanStatus[] = ['out'],
+) {
   const loan = await scoped(trx, ctx)
     .selectFrom('loans')
     .select(['id', 'borrower_id', 'status', 'kit_box_id', 'due_at', 'renewals'])
@@ -19,7 +26,15 @@ export async function lockOpenLoan(trx: Db, ctx: Ctx, loanId: string, notOut: st
     .forUpdate()
     .executeTakeFirst();
   if (!loan || (loan.borrower_id !== ctx.userId && !isStaff(ctx))) throw new NotFoundError('No such loan.');
-  if (loan.status !== 'out') throw new ConflictError(notOut, { loanId: [loan.status] });
+  if (!allowed.includes(loan.status)) {
+    const why =
+      loan.status === 'waiting'
+        ? 'This is still waiting at the bench: a steward hands it over first.'
+        : loan.status === 'back_unchecked'
+          ? 'This is back already; a steward checks it and confirms what came back.'
+          : notOut;
+    throw new ConflictError(why, { loanId: [loan.status] });
+  }
   return loan;
 }
 
@@ -29,7 +44,8 @@ export async function openLoanCount(db: Db, spaceId: string, borrowerId: string)
     .select((eb) => eb.fn.countAll<number>().as('n'))
     .where('space_id', '=', spaceId)
     .where('borrower_id', '=', borrowerId)
-    .where('status', '=', 'out')
+    // Waiting at the bench and back-but-unchecked still hold the member's place under the limit.
+    .where('status', 'in', ['waiting', 'out', 'back_unchecked'])
     .executeTakeFirstOrThrow();
   return open.n;
 }

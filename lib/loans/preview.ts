@@ -8,6 +8,8 @@ import { ForbiddenError, NotFoundError } from '@/lib/errors';
 import { whatWorksWith, type Alternative } from './alternatives';
 import { buildNote, looseOutcome } from './build';
 import { checkLines, type CheckOutcome } from './check';
+import { inductionRefusal, missingInductions, stewardsToAsk } from '@/lib/inductions/gate';
+import { standingRefusal } from '@/lib/rules/standing';
 import { computeDueAt } from './due';
 import { limitReached, openLoanCount } from './lock';
 import type { OwnParts, Selection } from './schemas';
@@ -34,6 +36,8 @@ export type Preview = {
   maxOpenLoans: number;
   /** What was checked as the borrower's whole build, or what it still lacks. */
   note: string | null;
+  /** Inductions the borrower has no current sign-off for, and what the answer would say; null when none. */
+  inductions: { missing: string[]; message: string } | null;
 };
 
 /** ok → lend; caution → lend once the borrower says they read the reasons; fail → only a steward's override. */
@@ -63,6 +67,22 @@ export async function previewLoan(
   }
   const settings = await loanSettings(db, ctx.spaceId);
   const { box, lines } = await resolveSelection(db, ctx.spaceId, sel);
+  const missing = await missingInductions(
+    db,
+    ctx.spaceId,
+    borrowerId,
+    { templateId: box?.templateId ?? null, categories: lines.map((l) => l.category) },
+    now(),
+  );
+  const inductions = missing.length
+    ? {
+        missing: missing.map((m) => m.name),
+        message: inductionRefusal(missing, await stewardsToAsk(db, ctx.spaceId), {
+          self: borrowerId === ctx.userId,
+          timeZone: settings.timeZone,
+        }).message,
+      }
+    : null;
   const outcome = box
     ? checkLines(lines, { fromKitBox: true, ambientC: settings.ambientC })
     : await looseOutcome(db, ctx.spaceId, borrowerId, lines, opts.ownParts, settings.ambientC);
@@ -97,6 +117,12 @@ export async function previewLoan(
     }),
   );
 
+  const standing = await standingRefusal(db, ctx.spaceId, borrowerId, settings.rules, now(), {
+    self: borrowerId === ctx.userId,
+    timeZone: settings.timeZone,
+  });
+  if (standing) unavailable.push(standing.message);
+
   const openLoans = await openLoanCount(db, ctx.spaceId, borrowerId);
   if (openLoans >= settings.maxOpenLoans) unavailable.push(limitReached(settings.maxOpenLoans));
 
@@ -123,6 +149,7 @@ export async function previewLoan(
     openLoans,
     maxOpenLoans: settings.maxOpenLoans,
     note: buildNote(outcome),
+    inductions,
   };
 }
 

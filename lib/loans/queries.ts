@@ -2,6 +2,7 @@ import 'server-only';
 import { sql } from 'kysely';
 import type { Db } from '@/db/connect';
 import { scoped } from '@/db/scoped';
+import type { LoanStatus } from '@/db/types';
 import { isStaff, type Ctx } from '@/lib/auth/roles';
 import { now } from '@/lib/clock';
 import { ForbiddenError, NotFoundError } from '@/lib/errors';
@@ -19,7 +20,7 @@ export type LoanRow = {
   title: string;
   borrowerName: string;
   borrowerId: string;
-  status: 'out' | 'returned' | 'returned_short';
+  status: LoanStatus;
   overdue: boolean;
   dueAt: Date;
   outAt: Date;
@@ -61,11 +62,13 @@ export async function listLoans(
     'loans.override_reason',
   ]);
   if (!isStaff(ctx) || opts.mine) q = q.where('loans.borrower_id', '=', ctx.userId);
-  if (filter === 'out') q = q.where('loans.status', '=', 'out').orderBy('loans.due_at');
+  // "Out" includes what waits at the bench for a hand-over and what is back but not yet checked
+  // (bench hand-over): both still need someone to act.
+  if (filter === 'out') q = q.where('loans.status', 'in', ['waiting', 'out', 'back_unchecked']).orderBy('loans.due_at');
   else if (filter === 'overdue')
     q = q.where('loans.status', '=', 'out').where('loans.due_at', '<', at).orderBy('loans.due_at');
   else if (filter === 'returned')
-    q = q.where('loans.status', '<>', 'out').orderBy('loans.returned_at', 'desc');
+    q = q.where('loans.status', 'in', ['returned', 'returned_short']).orderBy('loans.returned_at', 'desc');
   else q = q.orderBy('loans.out_at', 'desc');
   const rows = await q.limit(opts.limit ?? 200).execute();
   return rows.map(({ override_reason, ...r }) => ({
@@ -78,7 +81,7 @@ export async function listLoans(
 export type LoanDetail = {
   id: string;
   title: string;
-  status: 'out' | 'returned' | 'returned_short';
+  status: LoanStatus;
   overdue: boolean;
   daysLate: number;
   borrower: { id: string; name: string; email: string };

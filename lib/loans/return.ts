@@ -2,11 +2,13 @@ import 'server-only';
 import type { Db } from '@/db/connect';
 import { scoped } from '@/db/scoped';
 import { audit } from '@/lib/audit/log';
-import type { Ctx } from '@/lib/auth/roles';
+import { isStaff, type Ctx } from '@/lib/auth/roles';
 import { now } from '@/lib/clock';
 import { InvalidError } from '@/lib/errors';
 import { releaseItem } from './holds';
+import { reportBack } from './handover';
 import { lockOpenLoan } from './lock';
+import { loanSettings } from './settings';
 import type { ReturnInput } from './schemas';
 
 // Returning, in one transaction: each line checked off as back in good order, missing or damaged.
@@ -17,7 +19,7 @@ import type { ReturnInput } from './schemas';
 // Movements: location_id set means that bin's stock row changed by qty_delta; location_id null means
 // no stock row changed and the movement records parts written off from a box or a loan.
 
-export type ReturnResult = { status: 'returned' | 'returned_short'; readyHoldIds: string[]; short: number };
+export type ReturnResult = { status: 'returned' | 'returned_short' | 'back_unchecked'; readyHoldIds: string[]; short: number };
 
 type Condition = 'ok' | 'missing' | 'damaged';
 
@@ -27,8 +29,16 @@ export async function returnLoan(
   loanId: string,
   input: ReturnInput,
 ): Promise<ReturnResult> {
+  const staff = isStaff(ctx);
+  const { rules } = await loanSettings(db, ctx.spaceId);
   return db.transaction().execute(async (trx) => {
-    const loan = await lockOpenLoan(trx, ctx, loanId, 'This loan is already returned.');
+    // A steward confirms a return the member reported (bench hand-over) like any other return.
+    const loan = await lockOpenLoan(trx, ctx, loanId, 'This loan is already returned.', staff ? ['out', 'back_unchecked'] : ['out']);
+    if (!staff && rules.presence === 'bench_handover') {
+      // Bench hand-over: the member's word that it is back; nothing moves until a steward has checked it.
+      await reportBack(trx, ctx, loan, input.note);
+      return { status: 'back_unchecked', readyHoldIds: [], short: 0 };
+    }
 
     const lines = await scoped(trx, ctx)
       .selectFrom('loan_lines')

@@ -78,22 +78,53 @@ export const previewSchema = z
     borrowerId: b.borrowerId,
   }));
 
+export const OVERRIDE_GATES = ['check', 'inductions'] as const;
+export type OverrideGate = (typeof OVERRIDE_GATES)[number];
+const overrideSchema = z
+  .object({
+    gate: z.enum(OVERRIDE_GATES, { error: 'override.gate must be check or inductions' }).default('check'),
+    reason: z
+      .string({ error: 'override.reason must be text' })
+      .trim()
+      .min(1, { error: 'write why the check is overridden' })
+      .max(1000),
+  })
+  .strict();
+
+/** The overrides a borrow carries, by gate; errors keep the field's path (override.reason, override.1.gate). */
+function overridesOf(o: unknown, ctx: z.RefinementCtx): Partial<Record<OverrideGate, { reason: string }>> {
+  if (o === undefined) return {};
+  const list: [unknown, (string | number)[]][] = Array.isArray(o)
+    ? o.map((x, i) => [x, ['override', i]])
+    : [[o, ['override']]];
+  if (Array.isArray(o) && (o.length < 1 || o.length > OVERRIDE_GATES.length))
+    ctx.addIssue({ code: 'custom', path: ['override'], message: `override: one or ${OVERRIDE_GATES.length} overrides` });
+  const out: Partial<Record<OverrideGate, { reason: string }>> = {};
+  for (const [x, path] of list) {
+    const parsed = overrideSchema.safeParse(x);
+    if (!parsed.success) {
+      for (const issue of parsed.error.issues)
+        ctx.addIssue({ code: 'custom', path: [...path, ...(issue.path as (string | number)[])], message: issue.message });
+      continue;
+    }
+    if (out[parsed.data.gate])
+      ctx.addIssue({ code: 'custom', path: [...path, 'gate'], message: `${parsed.data.gate} is overridden twice` });
+    out[parsed.data.gate] = { reason: parsed.data.reason };
+  }
+  return out;
+}
+
 export const borrowSchema = z
   .object({
     kitBoxId: id('kitBoxId').optional(),
     unitIds: z.array(id('unitIds entry')).max(50).optional(),
     counted: z.array(countedPickSchema).max(50).optional(),
     acknowledgeCaution: z.boolean({ error: 'acknowledgeCaution must be true or false' }).optional(),
-    override: z
-      .object({
-        reason: z
-          .string({ error: 'override.reason must be text' })
-          .trim()
-          .min(1, { error: 'write why the check is overridden' })
-          .max(1000),
-      })
-      .strict()
-      .optional(),
+    /**
+     * A steward lending although a gate refused: which gate ('check', the compatibility check — the
+     * default; or 'inductions', a missing sign-off) and why. One override, or a list of them.
+     */
+    override: z.unknown().optional().meta({ description: '{ gate?: "check" | "inductions", reason } or a list of two' }),
     ownParts: ownPartsSchema.optional(),
     borrowerId: id('borrowerId').optional(),
   })
@@ -102,7 +133,7 @@ export const borrowSchema = z
   .transform((b, ctx) => ({
     selection: toSelection(b, ctx),
     acknowledgeCaution: b.acknowledgeCaution ?? false,
-    override: b.override,
+    overrides: overridesOf(b.override, ctx),
     ownParts: b.ownParts,
     borrowerId: b.borrowerId,
   }));

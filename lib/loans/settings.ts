@@ -2,6 +2,7 @@ import 'server-only';
 import { z } from 'zod';
 import type { Db } from '@/db/connect';
 import { NotFoundError } from '@/lib/errors';
+import { readRules, type BorrowingRules } from '@/lib/rules/schema';
 import type { DueRule } from './due';
 
 // The lending rules of a space. Loan period, closing time, zone, open-loan limit and the reminder
@@ -22,6 +23,8 @@ export type LoanSettings = DueRule & {
   spaceName: string;
   /** Air temperature at the bench, °C: the heat check starts from it. */
   ambientC: number;
+  /** Standing, opening calendar, presence, reminder pause (spaces.settings.borrowing, lib/rules). */
+  rules: BorrowingRules;
 };
 
 /** The columns of `spaces` the lending rules come from (a caller may read them with other rows). */
@@ -51,6 +54,7 @@ type SettingsRow = {
 
 export function toLoanSettings(s: SettingsRow): LoanSettings {
   const loans = (s.settings as Record<string, unknown> | null)?.loans;
+  const rules = readRules((s.settings as Record<string, unknown> | null)?.borrowing);
   const extra = extraSchema.parse(typeof loans === 'object' && loans !== null ? loans : {});
   return {
     spaceName: s.name,
@@ -61,6 +65,8 @@ export function toLoanSettings(s: SettingsRow): LoanSettings {
     reminderDaysBefore: s.reminder_days_before,
     reminderEveryDays: Math.max(1, s.reminder_every_days),
     ambientC: s.ambient_c,
+    rules,
+    calendar: { week: rules.week, closedDates: rules.closedDates },
     ...extra,
   };
 }

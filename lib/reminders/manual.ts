@@ -9,7 +9,8 @@ import type { SendFn } from '@/lib/loans/notify';
 import { sendMail } from '@/lib/mail/send';
 import { formatDateTime } from '@/lib/format';
 import { deliverReminder } from './deliver';
-import { pausedUntil, REMINDER_PAUSE_HOURS } from './pause';
+import { readRules } from '@/lib/rules/schema';
+import { pausedUntil } from './pause';
 
 // "Send a reminder now" from the steward's round, for one loan or many. Each is recorded as a 'manual'
 // reminder first (committed, pending), then sent the same way the sweep sends: if mail is down the
@@ -45,16 +46,17 @@ export async function sendManualReminders(
     });
     const space = await trx
       .selectFrom('spaces')
-      .select('time_zone')
+      .select(['time_zone', 'settings'])
       .where('id', '=', ctx.spaceId)
       .executeTakeFirstOrThrow();
-    const paused = await pausedUntil(trx, ids, at);
+    const pauseHours = readRules((space.settings as Record<string, unknown> | null)?.borrowing).reminderPauseHours;
+    const paused = await pausedUntil(trx, ids, at, pauseHours);
     ids.forEach((id) => {
       const until = paused.get(id);
       if (!until) return;
       const who = loans.find((x) => x.id === id)?.borrower ?? 'The borrower';
       throw new ConflictError(
-        `${who} was reminded of this loan less than ${REMINDER_PAUSE_HOURS} hours ago; the next reminder can go at ${formatDateTime(until, space.time_zone)}.`,
+        `${who} was reminded of this loan less than ${pauseHours} hours ago; the next reminder can go at ${formatDateTime(until, space.time_zone)}.`,
         { [`loanIds.${loanIds.indexOf(id)}`]: [`reminded recently; next from ${formatDateTime(until, space.time_zone)}`] },
       );
     });

@@ -6,7 +6,9 @@ import { localDay } from '@/lib/loans/due';
 import { notifyReadyHolds, type SendFn } from '@/lib/loans/notify';
 import { sendMail } from '@/lib/mail/send';
 import { deliverReminder } from './deliver';
-import { pausedUntil } from './pause';
+import { opensOn } from '@/lib/rules/calendar';
+import { readRules } from '@/lib/rules/schema';
+import { remindedPeople, REMINDER_PAUSE_HOURS } from './pause';
 import { reminderOwed } from './schedule';
 
 // The scheduled reminder run. Idempotent: run it as often as you like, from as many processes as you
@@ -36,6 +38,9 @@ export async function runReminderSweep(
       'spaces.time_zone',
       'spaces.reminder_days_before',
       'spaces.reminder_every_days',
+      'spaces.closing_time',
+      'spaces.settings',
+      'loans.borrower_id',
     ])
     .where('loans.status', '=', 'out')
     // Only loans close enough to their due day to be owed anything.
@@ -45,12 +50,19 @@ export async function runReminderSweep(
   if (deps.spaceId) due = due.where('loans.space_id', '=', deps.spaceId);
   const loans = await due.execute();
 
-  // A loan reminded within the pause (by hand, or still waiting to go) is not reminded again yet; its
-  // owed reminder is recorded by the first run after the pause, if it is still owed then.
-  const paused = await pausedUntil(db, loans.map((l) => l.id), at);
+  // A member reminded of any loan within the space's pause (by hand or by schedule, or with a reminder
+  // still waiting to go) is not reminded again yet; an owed reminder is recorded by the first run after
+  // the pause, if it is still owed then. One reminder per member per run.
+  const rulesOf = new Map(loans.map((l) => [l.space_id, readRules((l.settings as Record<string, unknown> | null)?.borrowing)]));
+  const hoursOf = (spaceId: string) => rulesOf.get(spaceId)?.reminderPauseHours ?? REMINDER_PAUSE_HOURS;
+  const reminded = await remindedPeople(db, loans.map((l) => ({ spaceId: l.space_id, userId: l.borrower_id })), at, hoursOf);
   let queued = 0;
   for (const l of loans) {
-    if (paused.has(l.id)) continue;
+    const person = `${l.space_id}:${l.borrower_id}`;
+    if (reminded.has(person)) continue;
+    // On a day the space is shut nobody can bring anything back: the reminder waits for an open day.
+    const rules = rulesOf.get(l.space_id)!;
+    if (!opensOn(localDay(at, l.time_zone), { week: rules.week, closedDates: rules.closedDates }, l.closing_time)) continue;
     const slot = reminderOwed(
       { dueDay: localDay(l.due_at, l.time_zone), outDay: localDay(l.out_at, l.time_zone) },
       localDay(at, l.time_zone),
@@ -72,7 +84,10 @@ export async function runReminderSweep(
       )
       .returning('id')
       .executeTakeFirst();
-    if (row) queued++;
+    if (row) {
+      queued++;
+      reminded.add(person);
+    }
   }
 
   // across spaces: as above, every space's reminders waiting to go.

@@ -6,7 +6,7 @@ import { fitsWidth, launchBrowser, newPage, seriousA11yViolations, signInPage } 
 // lands on its own Today, sees only its own sections. Each person signs in once in this file, since
 // sign-in attempts per e-mail are rate limited.
 
-const EVERYONE = ['Today', 'Scan', 'Bench check', 'Shelf', 'Kits', 'Loans'];
+const EVERYONE = ['Today', 'Scan', 'Bench check', 'Shelf', 'Kits', 'Loans', 'Sign-offs'];
 const ROLES = [
   {
     role: 'admin',

@@ -109,6 +109,16 @@ export const MATRIX: Record<string, Row> = {
   'GET /api/stock/repairs': { who: 'user', ok: 200 },
   'PATCH /api/stock/units/[id]': { who: W, ok: [400, 404], body: EMPTY },
   'POST /api/test/clock': { who: 'public', ok: 400, body: EMPTY },
+  // Borrowing rules (issue 16)
+  'GET /api/settings/borrowing': { who: A, ok: 200 },
+  'PATCH /api/settings/borrowing': { who: A, ok: 400, body: { reminderPauseHours: 0 } },
+  'GET /api/inductions': { who: 'user', ok: 200 },
+  'POST /api/inductions': { who: W, ok: 400, body: EMPTY },
+  'PATCH /api/inductions/[id]': { who: W, ok: [400, 404], body: EMPTY },
+  'POST /api/inductions/[id]/signoffs': { who: W, ok: [400, 404], body: EMPTY },
+  'GET /api/signoffs': { who: 'user', ok: 200 },
+  'DELETE /api/signoffs/[id]': { who: W, ok: 404 },
+  'POST /api/loans/[id]/hand-over': { who: W, ok: 404 },
 };
 
 const ROLES: Role[] = ['member', 'steward', 'treasurer', 'admin'];

@@ -22,8 +22,8 @@ import { apiRoutes, concrete } from '../helpers/routes';
 const ROLES: Role[] = ['member', 'steward', 'treasurer', 'admin'];
 
 /** Record kind (a declaration's `notFound`) → which of the other space's records to name. */
-type Kind = 'attachment' | 'hold' | 'invitation' | 'kit box' | 'kit' | 'loan' | 'location' | 'part' | 'person' | 'sale' | 'label' | 'count' | 'unit';
-const KINDS: readonly Kind[] = ['attachment', 'hold', 'invitation', 'kit box', 'kit', 'loan', 'location', 'part', 'person', 'sale', 'label', 'count', 'unit'];
+type Kind = 'attachment' | 'hold' | 'invitation' | 'kit box' | 'kit' | 'loan' | 'location' | 'part' | 'person' | 'sale' | 'label' | 'count' | 'unit' | 'induction' | 'sign-off';
+const KINDS: readonly Kind[] = ['attachment', 'hold', 'invitation', 'kit box', 'kit', 'loan', 'location', 'part', 'person', 'sale', 'label', 'count', 'unit', 'induction', 'sign-off'];
 
 /** Bodies that pass each route's schema, so the call reaches the service (which must answer 404). */
 const BODIES: Record<string, unknown> = {
@@ -37,6 +37,11 @@ const BODIES: Record<string, unknown> = {
   'POST /api/sales/[id]/refunds': {},
   'PATCH /api/stock/counts/[id]': { lines: [] },
   'PATCH /api/stock/units/[id]': { state: 'retired', reason: 'taken over' },
+  'POST /api/kits/boxes/[id]/contents': { partId: randomUUID(), qty: 1 },
+  'POST /api/kits/boxes/[id]/take-apart': {},
+  'POST /api/people/[id]/erase': { confirmEmail: 'nobody@tests.example' },
+  'PATCH /api/inductions/[id]': { name: 'Taken over' },
+  'POST /api/inductions/[id]/signoffs': { userId: randomUUID() },
 };
 
 type Call = { method: string; pattern: string; param: 'id' | 'code'; kind: string; body: boolean };
@@ -126,6 +131,12 @@ async function otherSpace() {
     .values({ space_id: s, part_id: part.id, filename: 'probed.txt', mime: 'text/plain', size_bytes: data.length, sha256: createHash('sha256').update(data).digest('hex'), data })
     .returning('id')
     .executeTakeFirstOrThrow();
+  const induction = await db.insertInto('inductions').values({ space_id: s, name: 'Probed induction' }).returning('id').executeTakeFirstOrThrow();
+  const signoff = await db
+    .insertInto('induction_signoffs')
+    .values({ space_id: s, induction_id: induction.id, user_id: person.id, signed_by: admin.id })
+    .returning('id')
+    .executeTakeFirstOrThrow();
   return {
     spaceId: s,
     name: space.name,
@@ -143,6 +154,8 @@ async function otherSpace() {
       label: part.code!,
       count: count.id,
       unit: unit.id,
+      induction: induction.id,
+      'sign-off': signoff.id,
     } satisfies Record<Kind, string>,
     admin: await signIn(admin.email, admin.password),
   };

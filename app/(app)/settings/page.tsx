@@ -9,12 +9,14 @@ import { DeploymentNotes } from '@/components/settings/deployment-notes';
 import { env } from '@/lib/env';
 import { APP_VERSION } from '@/lib/version';
 import { lastBackups } from '@/lib/backup/run';
+import { BorrowingRulesForm } from '@/components/settings/borrowing-rules-form';
+import { borrowingRules } from '@/lib/rules/settings';
 
 export const metadata = { title: 'Settings' };
 
 export default async function SettingsPage() {
   const ctx = await requirePageRole('admin');
-  const settings = await getSettings(db, ctx);
+  const [settings, rules] = await Promise.all([getSettings(db, ctx), borrowingRules(db, ctx.spaceId)]);
   return (
     <div className="mx-auto max-w-3xl">
       <PageTitle title="Settings" lead={`The rules ${ctx.spaceName} runs its bench by.`}>
@@ -24,6 +26,8 @@ export default async function SettingsPage() {
       </PageTitle>
       <SettingsForm initial={settings} timeZones={TIME_ZONES} currencies={CURRENCIES} />
       <DeploymentNotes baseUrl={env().APP_BASE_URL} version={APP_VERSION} backups={await lastBackups(db)} />
+      <h2 className="mt-10 mb-3 text-xl font-bold">Borrowing rules</h2>
+      <BorrowingRulesForm initial={rules} closingTime={settings.closingTime} />
     </div>
   );
 }

@@ -70,6 +70,15 @@ import * as kitsBoxesIdTakeApart from '../kits/boxes/[id]/take-apart/route';
 // Every route file of the production build, by its path in the API document. A test compares this list
 // with app/api on disk (and the test, bench and dev doors, which are not in the production build, are
 // left out on purpose), so a route cannot exist without being declared and documented.
+// Borrowing rules (issue 16): standing, inductions, opening calendar, presence.
+import * as settingsBorrowing from '../settings/borrowing/route';
+import * as inductions from '../inductions/route';
+import * as inductionsId from '../inductions/[id]/route';
+import * as inductionsIdSignoffs from '../inductions/[id]/signoffs/route';
+import * as signoffs from '../signoffs/route';
+import * as signoffsId from '../signoffs/[id]/route';
+import * as loansIdHandOver from '../loans/[id]/hand-over/route';
+
 export const ROUTES: RouteModules = {
   '/api/attachments/{id}': attachmentsId,
   '/api/attachments': attachments,
@@ -139,4 +148,12 @@ export const ROUTES: RouteModules = {
   // Steward: box upkeep (issue 12)
   '/api/kits/boxes/{id}/contents': kitsBoxesIdContents,
   '/api/kits/boxes/{id}/take-apart': kitsBoxesIdTakeApart,
+  // Borrowing rules (issue 16)
+  '/api/settings/borrowing': settingsBorrowing,
+  '/api/inductions': inductions,
+  '/api/inductions/{id}': inductionsId,
+  '/api/inductions/{id}/signoffs': inductionsIdSignoffs,
+  '/api/signoffs': signoffs,
+  '/api/signoffs/{id}': signoffsId,
+  '/api/loans/{id}/hand-over': loansIdHandOver,
 };

@@ -54,7 +54,27 @@ export default async function LoanPage({ params }: { params: Promise<{ id: strin
       </header>
 
       <section aria-label="Due date" className="card">
-        {loan.status === 'out' ? (
+        {loan.status === 'waiting' ? (
+          <>
+            <p className="text-lg">Waiting at the bench: kept for {loan.isMine ? 'you' : loan.borrower.name} until a steward hands it over.</p>
+            <p className="muted text-sm">The loan, and its due date, start at the hand-over.</p>
+            {staff ? (
+              <div className="mt-2">
+                <ActionButton
+                  url={`/api/loans/${loan.id}/hand-over`}
+                  label="Hand it over"
+                  busyLabel="Handing over…"
+                  done="Handed over."
+                  variant="primary"
+                />
+              </div>
+            ) : null}
+          </>
+        ) : loan.status === 'back_unchecked' ? (
+          <p className="text-lg">
+            Back, not yet checked: {staff ? 'check what came back below and confirm.' : 'a steward checks what came back and confirms.'}
+          </p>
+        ) : loan.status === 'out' ? (
           <>
             <p className="text-lg">
               Due back <strong>{formatDateTime(loan.dueAt, tz)}</strong>
@@ -137,7 +157,7 @@ export default async function LoanPage({ params }: { params: Promise<{ id: strin
         </ul>
       </section>
 
-      {loan.status === 'out' && (staff || loan.isMine) ? (
+      {(loan.status === 'out' && (staff || loan.isMine)) || (loan.status === 'back_unchecked' && staff) ? (
         <ReturnForm
           loanId={loan.id}
           lines={loan.lines.map((l) => ({ id: l.id, name: l.name, qty: l.qty, unitCode: l.unitCode }))}

@@ -80,6 +80,7 @@ export default async function KitBoxPage({ params }: { params: Promise<{ id: str
           staff={staff}
           members={members}
           userId={ctx.userId}
+          inductions={preview.inductions}
         />
       ) : (
         <HoldSection box={box} />

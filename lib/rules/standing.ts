@@ -1,0 +1,49 @@
+import 'server-only';
+import { sql } from 'kysely';
+import type { Db } from '@/db/connect';
+import type { BorrowingRules } from './schema';
+
+// A member's standing: whether the space's rules let them start a new loan now. Read inside the borrow's
+// transaction (under the borrower's lock), so the answer is the one the loan is written against.
+
+export type StandingRefusal = { message: string; fields: Record<string, string[]> };
+
+/** Why this person may not borrow now, or null. `self`: the person asking is the borrower. */
+export async function standingRefusal(
+  db: Db,
+  spaceId: string,
+  borrowerId: string,
+  rules: BorrowingRules,
+  at: Date,
+  opts: { self: boolean; timeZone: string },
+): Promise<StandingRefusal | null> {
+  if (!rules.refuseWhileOverdue) return null;
+  const late = await db
+    .selectFrom('loans')
+    .leftJoin('kit_boxes', 'kit_boxes.id', 'loans.kit_box_id')
+    .select([
+      'loans.id',
+      'loans.due_at',
+      'kit_boxes.name as box',
+      sql<string | null>`(select string_agg(p.name, ', ' order by p.name) from loan_lines ll
+        join parts p on p.id = ll.part_id where ll.loan_id = loans.id)`.as('parts'),
+    ])
+    .where('loans.space_id', '=', spaceId)
+    .where('loans.borrower_id', '=', borrowerId)
+    .where('loans.status', '=', 'out')
+    .where('loans.due_at', '<', at)
+    .orderBy('loans.due_at')
+    .execute();
+  if (!late.length) return null;
+  const when = new Intl.DateTimeFormat('en-GB', { timeZone: opts.timeZone, dateStyle: 'medium', timeStyle: 'short' });
+  const items = late.map((l) => `${l.box ?? l.parts ?? 'a loan'} (due ${when.format(new Date(l.due_at))})`);
+  const subject = opts.self ? 'You have' : 'This member has';
+  const them = opts.self ? 'you' : 'they';
+  const count = late.length === 1 ? 'a loan' : `${late.length} loans`;
+  return {
+    message:
+      `${subject} ${count} past the due date: ${items.join('; ')}. ` +
+      `No new loan until ${late.length === 1 ? 'it is' : 'they are'} back, or a steward renews ${late.length === 1 ? 'it' : 'them'}; then ${them} can borrow again.`,
+    fields: { borrowerId: [`${late.length} overdue ${late.length === 1 ? 'loan' : 'loans'}`] },
+  };
+}
