@@ -1,4 +1,5 @@
 import 'server-only';
+import { scoped } from '@/db/scoped';
 import { sql } from 'kysely';
 import type { Db } from '@/db/connect';
 import type { PartCategory } from '@/db/types';
@@ -26,7 +27,7 @@ export async function missingInductions(
 ): Promise<MissingInduction[]> {
   const categories = [...new Set(need.categories)];
   const byTemplate = need.templateId
-    ? await db
+    ? await scoped(db, { spaceId })
         .selectFrom('kit_template_inductions as k')
         .innerJoin('inductions as i', (j) => j.onRef('i.id', '=', 'k.induction_id').onRef('i.space_id', '=', 'k.space_id'))
         .innerJoin('kit_templates as t', (j) => j.onRef('t.id', '=', 'k.template_id').onRef('t.space_id', '=', 'k.space_id'))
@@ -76,7 +77,7 @@ export async function missingInductions(
 
 /** The people who can sign someone off here: the space's stewards with access switched on. */
 export async function stewardsToAsk(db: Db, spaceId: string): Promise<string[]> {
-  const rows = await db
+  const rows = await scoped(db, { spaceId })
     .selectFrom('memberships as m')
     .innerJoin('users as u', 'u.id', 'm.user_id')
     .select('u.name')

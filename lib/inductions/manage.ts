@@ -1,4 +1,5 @@
 import 'server-only';
+import { scoped } from '@/db/scoped';
 import type { Db } from '@/db/connect';
 import type { PartCategory } from '@/db/types';
 import { audit } from '@/lib/audit/log';
@@ -29,7 +30,7 @@ export async function listInductions(db: Db, ctx: Pick<Ctx, 'spaceId'>, opts: { 
   if (!rows.length) return [];
   const ids = rows.map((r) => r.id);
   const [templates, categories] = await Promise.all([
-    db
+    scoped(db, ctx)
       .selectFrom('kit_template_inductions as k')
       .innerJoin('kit_templates as t', (j) => j.onRef('t.id', '=', 'k.template_id').onRef('t.space_id', '=', 'k.space_id'))
       .select(['k.induction_id', 't.id', 't.name'])
@@ -70,7 +71,7 @@ async function refuseDuplicateName(trx: Db, spaceId: string, name: string, excep
 async function setRequirements(trx: Db, spaceId: string, inductionId: string, templateIds?: string[], categories?: PartCategory[]) {
   if (templateIds) {
     if (templateIds.length) {
-      const found = await trx
+      const found = await scoped(trx, { spaceId })
         .selectFrom('kit_templates')
         .select('id')
         .where('space_id', '=', spaceId)

@@ -46,7 +46,8 @@ export const inductionPatchSchema = z
     archived: z.boolean({ error: 'archived: true or false' }).optional(),
   })
   .strict()
-  .refine((v) => Object.values(v).some((x) => x !== undefined), { error: 'send at least one field', path: ['(body)'] });
+  .refine((v) => Object.values(v).some((x) => x !== undefined), { error: 'send at least one field', path: ['(body)'] })
+  .describe('Send at least one field.');
 export type InductionPatch = z.output<typeof inductionPatchSchema>;
 
 export const signoffSchema = z
@@ -57,6 +58,7 @@ export const signoffSchema = z
       .string({ error: 'expiresOn: a date as YYYY-MM-DD' })
       .regex(/^\d{4}-\d{2}-\d{2}$/, 'expiresOn: a date as YYYY-MM-DD')
       .refine(isRealDay, 'expiresOn: no such date')
+      .meta({ format: 'date' })
       .nullish(),
     note: z.string({ error: 'note: text' }).trim().max(1000, 'note: at most 1000 characters').default(''),
   })

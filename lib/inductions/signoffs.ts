@@ -1,4 +1,5 @@
 import 'server-only';
+import { scoped } from '@/db/scoped';
 import { TZDate } from '@date-fns/tz';
 import type { Db } from '@/db/connect';
 import { audit } from '@/lib/audit/log';
@@ -49,7 +50,7 @@ export async function signOff(db: Db, ctx: Ctx, inductionId: string, input: Sign
       throw new ConflictError(`“${induction.name}” is archived; bring it back before signing anyone off.`, {
         inductionId: ['archived'],
       });
-    const member = await trx
+    const member = await scoped(trx, ctx)
       .selectFrom('memberships')
       .select('user_id')
       .where('space_id', '=', ctx.spaceId)

@@ -98,7 +98,8 @@ export const takeOutSchema = z
       ctx.addIssue({ code: 'custom', path: ['unitId'], message: 'give either unitId (a labelled unit) or partId (a counted part)' });
     if (b.replacementUnitId && !b.unitId)
       ctx.addIssue({ code: 'custom', path: ['replacementUnitId'], message: 'a swap replaces a labelled unit: give unitId too' });
-  });
+  })
+  .describe('Give either unitId (a labelled unit) or partId (a counted part); a swap replaces a labelled unit: give unitId too.');
 export type TakeOutInput = z.infer<typeof takeOutSchema>;
 
 /** Empties a box back onto the shelf and retires the box. */

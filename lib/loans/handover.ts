@@ -1,4 +1,5 @@
 import 'server-only';
+import { scoped } from '@/db/scoped';
 import type { Db } from '@/db/connect';
 import { audit } from '@/lib/audit/log';
 import { isStaff, type Ctx } from '@/lib/auth/roles';
@@ -20,7 +21,7 @@ export async function handOver(db: Db, ctx: Ctx, loanId: string): Promise<HandOv
   return db.transaction().execute(async (trx) => {
     const at = now();
     const dueAt = computeDueAt(at, settings);
-    const done = await trx
+    const done = await scoped(trx, ctx)
       .updateTable('loans')
       .set({ status: 'out', out_at: at, due_at: dueAt, handed_over_by: ctx.userId, handed_over_at: at })
       .where('id', '=', loanId)
@@ -29,7 +30,7 @@ export async function handOver(db: Db, ctx: Ctx, loanId: string): Promise<HandOv
       .returning(['id', 'borrower_id'])
       .executeTakeFirst();
     if (!done) {
-      const loan = await trx
+      const loan = await scoped(trx, ctx)
         .selectFrom('loans')
         .leftJoin('users', 'users.id', 'loans.handed_over_by')
         .select(['loans.status', 'users.name as by'])
@@ -60,7 +61,7 @@ export async function handOver(db: Db, ctx: Ctx, loanId: string): Promise<HandOv
  */
 export async function reportBack(trx: Db, ctx: Ctx, loan: { id: string; borrower_id: string }, note?: string) {
   const at = now();
-  await trx
+  await scoped(trx, ctx)
     .updateTable('loans')
     .set({ status: 'back_unchecked', back_reported_at: at, back_note: note ?? null })
     .where('id', '=', loan.id)

@@ -91,6 +91,12 @@ const overrideSchema = z
   })
   .strict();
 
+/** What the API document says `override` takes (the body reads it with overridesOf, which keeps precise paths). */
+const { $schema: _schema, ...overrideJsonSchema } = z.toJSONSchema(
+  z.union([overrideSchema, z.array(overrideSchema).min(1).max(OVERRIDE_GATES.length)]),
+  { io: 'input' },
+);
+
 /** The overrides a borrow carries, by gate; errors keep the field's path (override.reason, override.1.gate). */
 function overridesOf(o: unknown, ctx: z.RefinementCtx): Partial<Record<OverrideGate, { reason: string }>> {
   if (o === undefined) return {};
@@ -124,7 +130,13 @@ export const borrowSchema = z
      * A steward lending although a gate refused: which gate ('check', the compatibility check — the
      * default; or 'inductions', a missing sign-off) and why. One override, or a list of them.
      */
-    override: z.unknown().optional().meta({ description: '{ gate?: "check" | "inductions", reason } or a list of two' }),
+    override: z
+      .unknown()
+      .optional()
+      .meta({
+        ...overrideJsonSchema,
+        description: `{ gate?: "check" | "inductions", reason } or a list of them; refused when a gate is overridden twice`,
+      }),
     ownParts: ownPartsSchema.optional(),
     borrowerId: id('borrowerId').optional(),
   })

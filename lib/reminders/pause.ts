@@ -20,8 +20,8 @@ export async function pausedUntil(
   hours: number = REMINDER_PAUSE_HOURS,
 ): Promise<Map<string, Date>> {
   if (!loanIds.length) return new Map();
-  // across spaces: the loan ids come from a scoped read, or from the sweep over every space.
   const PAUSE_MS = hours * 3_600_000;
+  // across spaces: the loan ids come from a scoped read, or from the sweep over every space.
   const rows = await db
     .selectFrom('reminders')
     .select(['loan_id', sql<Date>`max(coalesce(sent_at, created_at))`.as('last')])
@@ -49,6 +49,7 @@ export async function remindedPeople(
   hoursOf: (spaceId: string) => number,
 ): Promise<Set<string>> {
   if (!people.length) return new Set();
+  // across spaces: the sweep runs over every space; each row keeps its own space_id in the answer.
   const rows = await db
     .selectFrom('reminders as r')
     .innerJoin('loans as l', 'l.id', 'r.loan_id')

@@ -25,13 +25,15 @@ const hhmm = (field: string) =>
 export const openingSchema = z
   .object({ opens: hhmm('opens'), closes: hhmm('closes') })
   .strict()
-  .refine((o) => o.opens < o.closes, { error: 'closes must be later than opens', path: ['closes'] });
+  .refine((o) => o.opens < o.closes, { error: 'closes must be later than opens', path: ['closes'] })
+  .describe('Opening hours of one weekday: closes must be later than opens.');
 export type Opening = z.infer<typeof openingSchema>;
 
 const day = z
   .string({ error: 'a date as YYYY-MM-DD' })
   .regex(/^\d{4}-(0[1-9]|1[0-2])-(0[1-9]|[12]\d|3[01])$/, 'a date as YYYY-MM-DD')
-  .refine(isRealDay, 'no such date');
+  .refine(isRealDay, 'no such date')
+  .meta({ format: 'date' });
 
 /** Per weekday: its opening hours, or null when the space is shut that day. */
 export const weekSchema = z
@@ -84,7 +86,8 @@ export const DEFAULT_RULES: BorrowingRules = {
 export const borrowingRulesPatchSchema = borrowingRulesSchema
   .partial()
   .strict()
-  .refine((v) => Object.values(v).some((x) => x !== undefined), { error: 'send at least one rule', path: ['(body)'] });
+  .refine((v) => Object.values(v).some((x) => x !== undefined), { error: 'send at least one rule', path: ['(body)'] })
+  .describe('Send at least one rule.');
 export type BorrowingRulesPatch = z.output<typeof borrowingRulesPatchSchema>;
 
 /** Stored rules, each field falling back to its default when missing or unreadable. */

@@ -1,4 +1,5 @@
 import 'server-only';
+import { scoped } from '@/db/scoped';
 import { sql } from 'kysely';
 import type { Db } from '@/db/connect';
 import type { BorrowingRules } from './schema';
@@ -18,7 +19,7 @@ export async function standingRefusal(
   opts: { self: boolean; timeZone: string },
 ): Promise<StandingRefusal | null> {
   if (!rules.refuseWhileOverdue) return null;
-  const late = await db
+  const late = await scoped(db, { spaceId })
     .selectFrom('loans')
     .leftJoin('kit_boxes', 'kit_boxes.id', 'loans.kit_box_id')
     .select([
