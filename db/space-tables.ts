@@ -29,6 +29,11 @@ export const SPACE_TABLES = [
   'stock_counts',
   'attachments',
   'audit_log',
+  'recon_resolutions',
+  'inductions',
+  'kit_template_inductions',
+  'category_inductions',
+  'induction_signoffs',
 ] as const satisfies readonly (keyof Database)[];
 
 export type SpaceTable = (typeof SPACE_TABLES)[number];

@@ -38,7 +38,7 @@ export async function missingInductions(
         .execute()
     : [];
   const byCategory = categories.length
-    ? await db
+    ? await scoped(db, { spaceId })
         .selectFrom('category_inductions as c')
         .innerJoin('inductions as i', (j) => j.onRef('i.id', '=', 'c.induction_id').onRef('i.space_id', '=', 'c.space_id'))
         .select(['i.id', 'i.name', 'c.category'])
@@ -58,7 +58,7 @@ export async function missingInductions(
   for (const r of byTemplate) need1(r.id, r.name, `the kit “${r.why}”`);
   for (const r of byCategory) need1(r.id, r.name, `${CATEGORY_WORDS[r.category]} parts`);
 
-  const signoffs = await db
+  const signoffs = await scoped(db, { spaceId })
     .selectFrom('induction_signoffs')
     .select(['induction_id', 'expires_at'])
     .where('space_id', '=', spaceId)

@@ -20,7 +20,7 @@ export type Induction = {
 };
 
 export async function listInductions(db: Db, ctx: Pick<Ctx, 'spaceId'>, opts: { withArchived?: boolean } = {}): Promise<Induction[]> {
-  let q = db
+  let q = scoped(db, ctx)
     .selectFrom('inductions')
     .select(['id', 'name', 'description', 'archived_at'])
     .where('space_id', '=', ctx.spaceId)
@@ -38,7 +38,7 @@ export async function listInductions(db: Db, ctx: Pick<Ctx, 'spaceId'>, opts: { 
       .where('k.induction_id', 'in', ids)
       .orderBy('t.name')
       .execute(),
-    db
+    scoped(db, ctx)
       .selectFrom('category_inductions')
       .select(['induction_id', 'category'])
       .where('space_id', '=', ctx.spaceId)
@@ -57,7 +57,7 @@ export async function listInductions(db: Db, ctx: Pick<Ctx, 'spaceId'>, opts: { 
 }
 
 async function refuseDuplicateName(trx: Db, spaceId: string, name: string, exceptId?: string) {
-  let q = trx
+  let q = scoped(trx, { spaceId })
     .selectFrom('inductions')
     .select('id')
     .where('space_id', '=', spaceId)
@@ -82,17 +82,17 @@ async function setRequirements(trx: Db, spaceId: string, inductionId: string, te
       if (unknown >= 0)
         throw new InvalidError('A kit template named here does not exist.', { [`templateIds.${unknown}`]: ['no such kit template'] });
     }
-    await trx.deleteFrom('kit_template_inductions').where('induction_id', '=', inductionId).where('space_id', '=', spaceId).execute();
+    await scoped(trx, { spaceId }).deleteFrom('kit_template_inductions').where('induction_id', '=', inductionId).where('space_id', '=', spaceId).execute();
     if (templateIds.length)
-      await trx
+      await scoped(trx, { spaceId })
         .insertInto('kit_template_inductions')
         .values(templateIds.map((t) => ({ space_id: spaceId, template_id: t, induction_id: inductionId })))
         .execute();
   }
   if (categories) {
-    await trx.deleteFrom('category_inductions').where('induction_id', '=', inductionId).where('space_id', '=', spaceId).execute();
+    await scoped(trx, { spaceId }).deleteFrom('category_inductions').where('induction_id', '=', inductionId).where('space_id', '=', spaceId).execute();
     if (categories.length)
-      await trx
+      await scoped(trx, { spaceId })
         .insertInto('category_inductions')
         .values(categories.map((c) => ({ space_id: spaceId, category: c, induction_id: inductionId })))
         .execute();
@@ -102,7 +102,7 @@ async function setRequirements(trx: Db, spaceId: string, inductionId: string, te
 export async function createInduction(db: Db, ctx: Ctx, input: InductionInput): Promise<Induction> {
   const id = await db.transaction().execute(async (trx) => {
     await refuseDuplicateName(trx, ctx.spaceId, input.name);
-    const row = await trx
+    const row = await scoped(trx, ctx)
       .insertInto('inductions')
       .values({ space_id: ctx.spaceId, name: input.name, description: input.description, created_at: now() })
       .returning('id')
@@ -123,7 +123,7 @@ export async function createInduction(db: Db, ctx: Ctx, input: InductionInput): 
 
 export async function updateInduction(db: Db, ctx: Ctx, inductionId: string, patch: InductionPatch): Promise<Induction> {
   await db.transaction().execute(async (trx) => {
-    const before = await trx
+    const before = await scoped(trx, ctx)
       .selectFrom('inductions')
       .select(['id', 'name', 'description', 'archived_at'])
       .where('id', '=', inductionId)
@@ -136,7 +136,7 @@ export async function updateInduction(db: Db, ctx: Ctx, inductionId: string, pat
     if (patch.name !== undefined) set.name = patch.name;
     if (patch.description !== undefined) set.description = patch.description;
     if (patch.archived !== undefined) set.archived_at = patch.archived ? (before.archived_at ?? now()) : null;
-    if (Object.keys(set).length) await trx.updateTable('inductions').set(set).where('id', '=', inductionId).execute();
+    if (Object.keys(set).length) await scoped(trx, ctx).updateTable('inductions').set(set).where('id', '=', inductionId).execute();
     await setRequirements(trx, ctx.spaceId, inductionId, patch.templateIds, patch.categories);
     await audit(trx, {
       spaceId: ctx.spaceId,

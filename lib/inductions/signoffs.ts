@@ -39,7 +39,7 @@ async function spaceZone(db: Db, spaceId: string): Promise<string> {
 
 export async function signOff(db: Db, ctx: Ctx, inductionId: string, input: SignoffInput): Promise<Signoff> {
   const id = await db.transaction().execute(async (trx) => {
-    const induction = await trx
+    const induction = await scoped(trx, ctx)
       .selectFrom('inductions')
       .select(['id', 'name', 'archived_at'])
       .where('id', '=', inductionId)
@@ -62,7 +62,7 @@ export async function signOff(db: Db, ctx: Ctx, inductionId: string, input: Sign
     const expiresAt = input.expiresOn ? endOfLocalDay(input.expiresOn, await spaceZone(trx, ctx.spaceId)) : null;
     if (expiresAt && expiresAt <= at)
       throw new InvalidError('The expiry date has already passed.', { expiresOn: ['must be today or later'] });
-    const row = await trx
+    const row = await scoped(trx, ctx)
       .insertInto('induction_signoffs')
       .values({
         space_id: ctx.spaceId,
@@ -91,7 +91,7 @@ export async function signOff(db: Db, ctx: Ctx, inductionId: string, input: Sign
 
 export async function revokeSignoff(db: Db, ctx: Ctx, signoffId: string): Promise<Signoff> {
   await db.transaction().execute(async (trx) => {
-    const row = await trx
+    const row = await scoped(trx, ctx)
       .selectFrom('induction_signoffs')
       .select(['id', 'revoked_at', 'user_id', 'induction_id'])
       .where('id', '=', signoffId)
@@ -100,7 +100,7 @@ export async function revokeSignoff(db: Db, ctx: Ctx, signoffId: string): Promis
       .executeTakeFirst();
     if (!row) throw new NotFoundError('No such sign-off.');
     if (row.revoked_at) throw new ConflictError('This sign-off was already withdrawn.', { id: ['already withdrawn'] });
-    await trx
+    await scoped(trx, ctx)
       .updateTable('induction_signoffs')
       .set({ revoked_at: now(), revoked_by: ctx.userId })
       .where('id', '=', signoffId)
@@ -124,7 +124,7 @@ export async function revokeSignoff(db: Db, ctx: Ctx, signoffId: string): Promis
  */
 export async function listSignoffs(db: Db, ctx: Ctx, opts: { userId?: string; id?: string } = {}): Promise<Signoff[]> {
   const at = now();
-  let q = db
+  let q = scoped(db, ctx)
     .selectFrom('induction_signoffs as s')
     .innerJoin('inductions as i', (j) => j.onRef('i.id', '=', 's.induction_id').onRef('i.space_id', '=', 's.space_id'))
     .innerJoin('users as u', 'u.id', 's.user_id')

@@ -1,4 +1,5 @@
 import 'server-only';
+import { scoped } from '@/db/scoped';
 import type { Db } from '@/db/connect';
 import { hasRole, type Ctx } from '@/lib/auth/roles';
 import { audit } from '@/lib/audit/log';
@@ -20,7 +21,7 @@ export async function resolutionsOf(
   rowKeys: string[],
 ): Promise<Map<string, Resolution>> {
   if (!rowKeys.length) return new Map();
-  const rows = await db
+  const rows = await scoped(db, { spaceId })
     .selectFrom('recon_resolutions')
     .leftJoin('users', 'users.id', 'recon_resolutions.written_by')
     .select([
@@ -57,7 +58,7 @@ export async function writeResolution(
   const note = input.note.trim();
   return db.transaction().execute(async (trx) => {
     const at = now();
-    const saved = await trx
+    const saved = await scoped(trx, ctx)
       .insertInto('recon_resolutions')
       .values({
         space_id: ctx.spaceId,

@@ -27,7 +27,8 @@ export async function standingRefusal(
       'loans.due_at',
       'kit_boxes.name as box',
       sql<string | null>`(select string_agg(p.name, ', ' order by p.name) from loan_lines ll
-        join parts p on p.id = ll.part_id where ll.loan_id = loans.id)`.as('parts'),
+        join parts p on p.space_id = ll.space_id and p.id = ll.part_id
+        where ll.space_id = loans.space_id and ll.loan_id = loans.id)`.as('parts'),
     ])
     .where('loans.space_id', '=', spaceId)
     .where('loans.borrower_id', '=', borrowerId)

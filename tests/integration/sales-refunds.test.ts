@@ -144,7 +144,15 @@ describe('a closed month', () => {
       })
       .where('id', '=', sale.id)
       .execute();
-    const close = await t.treasurer.post('/api/books/periods', { month: lastMonth });
+    let close = await t.treasurer.post('/api/books/periods', { month: lastMonth });
+    if (close.status === 409) {
+      // The moved sale's money shows at the processor this month: a row nobody has explained yet, so the
+      // close names how many and takes a confirmation of exactly that many.
+      const asked = (await errorOf(close)).fields?.confirmUnresolved?.[0] ?? '';
+      const n = Number(/Send (\d+)/.exec(asked)?.[1]);
+      expect(n).toBeGreaterThan(0);
+      close = await t.treasurer.post('/api/books/periods', { month: lastMonth, confirmUnresolved: n });
+    }
     expect(close.status).toBe(201);
     expect((await t.treasurer.post('/api/books/periods', { month: lastMonth })).status).toBe(409);
 
