@@ -51,6 +51,8 @@ async function exportFiles(who: HttpSession): Promise<Record<string, string>> {
 
 beforeAll(async () => {
   shop = await counterSpace(db);
+  // The invented month sells more than the counter fixture shelves; top the bins up before it.
+  await db.updateTable('stock').set((eb) => ({ qty: eb('qty', '+', 500) })).where('space_id', '=', shop.space.id).execute();
   await db.updateTable('users').set({ name: memberName }).where('id', '=', shop.people.member.id).execute();
   member = { ...shop.people.member, name: memberName };
   const own = await ownFake({ webhooks: false });
