@@ -114,10 +114,13 @@ export function isValidCode(input: string): boolean {
 }
 
 /** For display and print: `K7F2-QX9` (a group of four, then three). Throws on a code that does not verify. */
+/** The grouping people read: four symbols, a hyphen, the rest. */
+const dashed = (code: string) => `${code.slice(0, 4)}-${code.slice(4)}`;
+
 export function formatCode(code: string): string {
   const result = verifyCode(code);
   if (!result.ok) throw new RangeError(`formatCode: ${result.message}`);
-  return `${result.code.slice(0, 4)}-${result.code.slice(4)}`;
+  return dashed(result.code);
 }
 
 /**
@@ -147,5 +150,5 @@ export function suggestCodes(input: string, limit = 13): string[] {
 /** The one displayed form of a code (`K7F2-QX9`) for any screen; a code that does not verify shows as stored. */
 export function displayCode(code: string): string {
   const result = verifyCode(code);
-  return result.ok ? `${result.code.slice(0, 4)}-${result.code.slice(4)}` : code;
+  return result.ok ? dashed(result.code) : code;
 }

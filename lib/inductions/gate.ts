@@ -4,6 +4,7 @@ import { sql } from 'kysely';
 import type { Db } from '@/db/connect';
 import type { PartCategory } from '@/db/types';
 import { CATEGORY_WORDS } from '@/lib/inventory/words';
+import { formatDate } from '@/lib/format';
 
 // The induction gate of a borrow: which inductions the things taken need (their kit template, their
 // parts' categories), and which of those the borrower has no current sign-off for. Read inside the
@@ -97,9 +98,8 @@ export function inductionRefusal(
   stewards: string[],
   opts: { self: boolean; timeZone: string },
 ): { message: string; fields: Record<string, string[]> } {
-  const day = new Intl.DateTimeFormat('en-GB', { timeZone: opts.timeZone, dateStyle: 'medium' });
   const items = missing.map((m) => {
-    const state = m.expiredAt ? `sign-off ran out on ${day.format(m.expiredAt)}` : 'no sign-off yet';
+    const state = m.expiredAt ? `sign-off ran out on ${formatDate(m.expiredAt, opts.timeZone)}` : 'no sign-off yet';
     return `“${m.name}” (needed for ${m.neededBy.join(' and ')}; ${state})`;
   });
   const whom = stewards.length

@@ -3,6 +3,7 @@ import { scoped } from '@/db/scoped';
 import { sql } from 'kysely';
 import type { Db } from '@/db/connect';
 import type { BorrowingRules } from './schema';
+import { formatDateTime } from '@/lib/format';
 
 // A member's standing: whether the space's rules let them start a new loan now. Read inside the borrow's
 // transaction (under the borrower's lock), so the answer is the one the loan is written against.
@@ -37,8 +38,7 @@ export async function standingRefusal(
     .orderBy('loans.due_at')
     .execute();
   if (!late.length) return null;
-  const when = new Intl.DateTimeFormat('en-GB', { timeZone: opts.timeZone, dateStyle: 'medium', timeStyle: 'short' });
-  const items = late.map((l) => `${l.box ?? l.parts ?? 'a loan'} (due ${when.format(new Date(l.due_at))})`);
+  const items = late.map((l) => `${l.box ?? l.parts ?? 'a loan'} (due ${formatDateTime(l.due_at, opts.timeZone)})`);
   const subject = opts.self ? 'You have' : 'This member has';
   const them = opts.self ? 'you' : 'they';
   const count = late.length === 1 ? 'a loan' : `${late.length} loans`;
