@@ -35,11 +35,22 @@ trap cleanup EXIT
 
 status=0
 step() { log "$1"; shift; "$@" || { log "FAILED: $*"; status=1; }; }
+# A check that needs no services runs beside the next steps (two cores: lint beside PostgreSQL, the seed and
+# the build; the type check beside vitest); `finish` waits for it and prints its output then.
+BACKGROUND=()
+behind() { local name="$1"; shift; log "$name (alongside)"; ("$@" >"$RUN/$name.out" 2>&1) & BACKGROUND+=("$!:$name"); }
+finish() {
+  local job pid name
+  for job in "${BACKGROUND[@]}"; do
+    pid="${job%%:*}"; name="${job#*:}"
+    if wait "$pid"; then log "$name: passed"; else cat "$RUN/$name.out" >&2; log "FAILED: $name"; status=1; fi
+  done
+}
 
 # `npm test -- <vitest filters>` runs only those test files (no lint or type check): for working on one
 # piece. Plain `npm test` (and CI) runs everything.
 FILTERS=("$@")
-[ ${#FILTERS[@]} -eq 0 ] && step "lint" node node_modules/eslint/bin/eslint.js . --max-warnings=0
+[ ${#FILTERS[@]} -eq 0 ] && behind "lint" node node_modules/eslint/bin/eslint.js . --max-warnings=0
 
 log "throwaway PostgreSQL on port $PG_PORT"
 pg_start "$RUN/pg" "$PG_PORT" throwaway
@@ -51,7 +62,7 @@ node node_modules/tsx/dist/cli.mjs scripts/seed.ts
 log "building the app for the tests"
 node node_modules/next/dist/bin/next build >"$RUN/build.log" 2>&1 || { tail -60 "$RUN/build.log"; exit 1; }
 # After the build, so the route types Next generates in .next-test are fresh.
-[ ${#FILTERS[@]} -eq 0 ] && step "type check" node node_modules/typescript/bin/tsc --noEmit
+[ ${#FILTERS[@]} -eq 0 ] && behind "type-check" node node_modules/typescript/bin/tsc --noEmit
 node node_modules/next/dist/bin/next start -p "$APP_PORT" -H 127.0.0.1 >"$RUN/app.log" 2>&1 &
 APP_PID=$!
 wait_http "$APP_BASE_URL/signin" 120 || { tail -50 "$RUN/app.log"; exit 1; }
@@ -63,6 +74,7 @@ node -e '
   console.log(`vitest: ${r.numPassedTests} passed, ${r.numFailedTests} failed`);
   if (r.numTotalTests === 0) process.exit(1);
 ' "$RUN/vitest.json" || status=1
+finish
 if [ "$status" != 0 ]; then
   log "app log tail:"; tail -40 "$RUN/app.log" >&2
 fi
