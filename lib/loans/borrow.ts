@@ -133,7 +133,7 @@ export async function borrow(db: Db, ctx: Ctx, input: BorrowInput): Promise<Borr
       ? checkLines(lines, { fromKitBox: true, ambientC: settings.ambientC })
       : await looseOutcome(trx, ctx.spaceId, borrowerId, lines, input.ownParts, settings.ambientC);
     const gate = gateFor(outcome);
-    const reasons = refusalReasons(outcome);
+    const reasons = refusalReasons(outcome, { self: borrowerId === ctx.userId });
     const said = reasons.length ? ` ${reasons.join('. ')}.` : '';
     if (gate === 'blocked' && !input.overrides.check)
       throw new ConflictError(
@@ -339,7 +339,7 @@ export async function borrow(db: Db, ctx: Ctx, input: BorrowInput): Promise<Borr
       verdict: outcome.verdict,
       overridden,
       inductionsOverridden: missing.map((m) => m.name).filter(() => inductionOverride !== null),
-      note: buildNote(outcome),
+      note: buildNote(outcome, { self: borrowerId === ctx.userId }),
     };
   });
 }

@@ -41,12 +41,13 @@ export function ownPartLines(own: OwnParts | null | undefined, tag: string, fres
     fresh,
     own: true,
   });
-  if (own.supply) lines.push(line('supply', `your own ${own.supply.volts} V supply`, own.supply));
-  if (own.driver) lines.push(line('driver', `your own ${own.driver.type} driver`, own.driver));
-  if (own.string) lines.push(line('led', 'your own LEDs', own.string.led, own.string.count));
+  // Named for whoever reads the loan later (a steward reads other people's loans), never "your".
+  if (own.supply) lines.push(line('supply', `the borrower's own ${own.supply.volts} V supply`, own.supply));
+  if (own.driver) lines.push(line('driver', `the borrower's own ${own.driver.type} driver`, own.driver));
+  if (own.string) lines.push(line('led', "the borrower's own LEDs", own.string.led, own.string.count));
   if (own.heatSink)
     lines.push({
-      ...line('wire', `your own heat sinks (${own.heatSink.cPerW} °C/W)`, { celsiusPerWatt: own.heatSink.cPerW }, own.heatSink.count),
+      ...line('wire', `the borrower's own heat sinks (${own.heatSink.cPerW} °C/W)`, { celsiusPerWatt: own.heatSink.cPerW }, own.heatSink.count),
       partId: `own:${tag}:heat_sink`,
       category: 'heat_sink',
       chainRole: null,
@@ -167,19 +168,27 @@ export function checkBuild(held: BuildLine[], fresh: BuildLine[], ambientC?: num
   return { ...worst, build: { ...info, chains, present: [] } };
 }
 
+/** Who reads the words: the borrower (`self`), or a steward lending for them. */
+type Audience = { self: boolean };
+const voice = ({ self }: Audience) =>
+  self
+    ? { Whose: 'Your', whose: 'your', who: 'you' }
+    : { Whose: 'Their', whose: 'their', who: 'they' };
+
 /** The build outcome in plain words for the borrow's answer: what was checked, or what is still missing. */
-export function buildNote(outcome: CheckOutcome): string | null {
+export function buildNote(outcome: CheckOutcome, audience: Audience = { self: true }): string | null {
   const b = outcome.build;
   if (!b) return null;
+  const v = voice(audience);
   if (outcome.kind === 'incomplete')
     return (
-      `Your build is not complete yet: it still needs ${outcome.missing.join(', ')}. ` +
-      `When you borrow ${outcome.missing.length > 1 ? 'them' : 'it'}, or describe your own, the whole build is checked against ` +
+      `${v.Whose} build is not complete yet: it still needs ${outcome.missing.join(', ')}. ` +
+      `When ${v.who} borrow ${outcome.missing.length > 1 ? 'them' : 'it'}, or describe ${v.whose} own, the whole build is checked against ` +
       `${b.present.join(', ')}.`
     );
   if (outcome.kind === 'checked') {
     const c = outcome.chain;
-    const with_ = b.held.length ? ` together with what you already have out (${b.held.join(', ')})` : '';
+    const with_ = b.held.length ? ` together with what ${v.who} already have out (${b.held.join(', ')})` : '';
     return `Checked as one build${with_}: ${c.supply} → ${c.driver} → ${c.ledCount} × ${c.led}: ${outcome.verdict}.`;
   }
   return null;
@@ -206,11 +215,11 @@ export async function looseOutcome(
 }
 
 /** Why a borrow is refused, in words: the chain, its verdict and what to change. */
-export function refusalReasons(outcome: CheckOutcome): string[] {
+export function refusalReasons(outcome: CheckOutcome, audience: Audience = { self: true }): string[] {
   const chain =
     outcome.kind === 'checked'
       ? [
-          `${outcome.build?.held.length ? 'Your whole build' : 'The chain'} ${outcome.chain.supply} → ${outcome.chain.driver} → ${outcome.chain.ledCount} × ${outcome.chain.led} gives ${outcome.verdict}`,
+          `${outcome.build?.held.length ? `${voice(audience).Whose} whole build` : 'The chain'} ${outcome.chain.supply} → ${outcome.chain.driver} → ${outcome.chain.ledCount} × ${outcome.chain.led} gives ${outcome.verdict}`,
         ]
       : [];
   const why =

@@ -148,7 +148,7 @@ export async function previewLoan(
     alternatives,
     openLoans,
     maxOpenLoans: settings.maxOpenLoans,
-    note: buildNote(outcome),
+    note: buildNote(outcome, { self: borrowerId === ctx.userId }),
     inductions,
   };
 }

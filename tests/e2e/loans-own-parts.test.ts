@@ -58,7 +58,7 @@ describe('own supply and driver on the loose-borrow screen', () => {
     await page.getByRole('button', { name: 'Check these parts' }).click();
     const report = page.getByRole('region', { name: 'Compatibility check' });
     await report.locator('[data-verdict="ok"]').first().waitFor();
-    expect(await report.innerText()).toContain('your own 24 V supply → your own buck driver → 3 × 3 W cool white LED on 20 mm star');
+    expect(await report.innerText()).toContain("the borrower's own 24 V supply → the borrower's own buck driver → 3 × 3 W cool white LED on 20 mm star");
     await page.getByRole('button', { name: 'Borrow it' }).waitFor();
     expect(await fitsWidth(page)).toBe(true);
     expect(await seriousA11yViolations(page)).toEqual([]);

@@ -227,14 +227,14 @@ describe('own parts: "bring your own LEDs? say which"', () => {
       acknowledgeCaution: true,
     });
     expect(tooMany.status).toBe(409);
-    expect((await json<ErrorBody>(tooMany)).error.message).toContain('your own LEDs');
+    expect((await json<ErrorBody>(tooMany)).error.message).toContain("the borrower's own LEDs");
     expect(await stateOf(supply.id)).toBe('on_shelf');
 
     const pv = await json<{ preview: { outcome: { verdict: string; chain: { led: string; ledCount: number } } } }>(
       await member.post('/api/loans/preview', { unitIds: [supply.id, driver.id], ownParts: ownLeds(3) }),
     );
     expect(pv.preview.outcome.verdict).toBe('ok');
-    expect(pv.preview.outcome.chain).toMatchObject({ led: 'your own LEDs', ledCount: 3 });
+    expect(pv.preview.outcome.chain).toMatchObject({ led: "the borrower's own LEDs", ledCount: 3 });
 
     const ok = await member.post('/api/loans', { unitIds: [supply.id, driver.id], ownParts: ownLeds(3) });
     expect(ok.status).toBe(201);
@@ -247,7 +247,7 @@ describe('own parts: "bring your own LEDs? say which"', () => {
     const later = await unitOf(supply48.id);
     const res = await member.post('/api/loans', { unitIds: [later.id] });
     expect(res.status).toBe(409);
-    expect((await json<ErrorBody>(res)).error.fields?.build?.[0]).toMatch(/48 V 1.5 A test supply.*your own LEDs/);
+    expect((await json<ErrorBody>(res)).error.fields?.build?.[0]).toMatch(/48 V 1.5 A test supply.*the borrower's own LEDs/);
   });
 
   test('own parts are validated with the check\'s own fields, the bad one named', async () => {
@@ -266,7 +266,7 @@ describe('own parts: "bring your own LEDs? say which"', () => {
     expect(driverOnly.status).toBe(200);
     const pv = await json<{ preview: { outcome: { kind: string; missing: string[] }; note: string } }>(driverOnly);
     expect(pv.preview.outcome).toMatchObject({ kind: 'incomplete', missing: ['LEDs for the string'] });
-    expect(pv.preview.note).toContain('your own buck driver');
+    expect(pv.preview.note).toContain("the borrower's own buck driver");
     expect(await stateOf(supply.id)).toBe('on_shelf');
   });
 

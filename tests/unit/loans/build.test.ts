@@ -53,6 +53,20 @@ describe('the whole build', () => {
     );
   });
 
+  it('a steward lending for someone reads about their build, not "your" build', () => {
+    const incomplete = checkBuild([], [supply(48, true), driver(true)]);
+    expect(buildNote(incomplete, { self: false })).toBe(
+      'Their build is not complete yet: it still needs LEDs for the string. When they borrow it, or describe ' +
+        'their own, the whole build is checked against 48 V supply, 350 mA buck.',
+    );
+    const failing = checkBuild([supply(48), driver()], [leds(3, true)]);
+    expect(refusalReasons(failing, { self: false })[0]).toBe(
+      'Their whole build 48 V supply → 350 mA buck → 3 × white LED gives fail',
+    );
+    const held = checkBuild([supply(24), driver()], [leds(3, true)]);
+    expect(buildNote(held, { self: false })).toMatch(/^Checked as one build together with what they already have out \(/);
+  });
+
   it('every chain through a fresh part is checked; the worst decides', () => {
     // 24 V with this driver and three LEDs passes; 48 V does not. A fresh LED bag meets both supplies.
     const out = checkBuild([supply(24), supply(48), driver()], [leds(3, true)]);
@@ -79,7 +93,26 @@ describe('the whole build', () => {
     const own = ownPartLines({ string: { count: 3, led: { vfMin: 2.9, vfTyp: 3.2, vfMax: 3.6, maxAmps: 0.7, maxWatts: 3 } } } as never, 'new', true);
     const out = checkBuild([supply(48), driver()], own);
     expect(out.verdict).toBe('fail');
-    expect(out.build?.own).toEqual(['3 × your own LEDs']);
+    expect(out.build?.own).toEqual(["3 × the borrower's own LEDs"]);
+  });
+
+  it('own parts are named for whoever reads the loan later, not as "your" (a steward reads other people\'s loans)', () => {
+    const own = ownPartLines(
+      {
+        supply: { volts: 24, maxAmps: 2 },
+        driver: { type: 'buck' },
+        string: { count: 3, led: { vfMin: 2.9, vfTyp: 3.2, vfMax: 3.6, maxAmps: 0.7, maxWatts: 3 } },
+        heatSink: { count: 3, cPerW: 8 },
+      } as never,
+      'new',
+      true,
+    );
+    expect(own.map((l) => l.name)).toEqual([
+      "the borrower's own 24 V supply",
+      "the borrower's own buck driver",
+      "the borrower's own LEDs",
+      "the borrower's own heat sinks (8 °C/W)",
+    ]);
   });
 });
 
