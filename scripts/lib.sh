@@ -41,6 +41,14 @@ ensure_chromium() {
   fi
 }
 
+ensure_tls_front() {
+  # The TLS front a real space runs (deploy/Caddyfile) and the NSS tool that makes a test browser trust its CA.
+  if ! command -v caddy >/dev/null || ! command -v certutil >/dev/null; then
+    log "installing Debian's caddy and libnss3-tools (for the TLS front's browser test)"
+    apt_install caddy libnss3-tools
+  fi
+}
+
 as_pg() { (cd / && runuser -u postgres -- "$@"); }
 
 # A folder the postgres OS user can reach: under the project when every parent is traversable,

@@ -8,6 +8,7 @@ cd "$ROOT"
 ensure_node_modules
 ensure_postgres
 ensure_chromium
+ensure_tls_front
 
 RUN="$(mktemp -d /var/tmp/ohm-test.XXXXXX)"
 chmod 755 "$RUN"

@@ -6,7 +6,7 @@ import { LAYOUTS, getLayout, labelsPerPage, type Layout } from '@/labels/layouts
 import { renderLabelsPdf } from '@/labels/pdf';
 import type { LabelItem } from '@/labels/schema';
 import { labelUrl } from '@/labels/url';
-import { bounds, decodeRects, pageContent, readLabels, toMm, type LabelGroup } from './read-back';
+import { bounds, decodeRects, pageContent, readLabels, toMm, type LabelGroup } from '../../helpers/label-read-back';
 
 // Positions are read back from the PDF itself: page size through pdf-lib's page.getSize(), label
 // origins from the `re W n` clip rectangle that opens each label in the page's content stream.
