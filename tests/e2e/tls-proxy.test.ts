@@ -160,6 +160,9 @@ describe('through the TLS proxy', () => {
     expect((await first!.securityDetails())?.issuer).toMatch(/Caddy Local Authority/);
     expect(first!.headers()['strict-transport-security']).toBe('max-age=31536000');
     await signInPage(page, 'juniper@quillmere.example');
+    // Pages and API answers alike carry exactly one HSTS header (the app's, or Caddy's where it lacks one).
+    const apiHsts = await page.evaluate(async () => (await fetch('/api/health')).headers.get('strict-transport-security'));
+    expect(apiHsts).toBe('max-age=31536000');
     const cookie = (await context.cookies()).find((c) => c.name.endsWith('next-auth.session-token'));
     expect(cookie).toMatchObject({ name: '__Secure-next-auth.session-token', secure: true, httpOnly: true });
 
@@ -181,7 +184,7 @@ describe('through the TLS proxy', () => {
     const part = await testDb()
       .selectFrom('parts')
       .innerJoin('spaces', 'spaces.id', 'parts.space_id')
-      .select(['parts.id', 'parts.code'])
+      .select(['parts.code'])
       .where('spaces.slug', '=', 'quillmere')
       .where('parts.code', 'is not', null)
       .orderBy('parts.created_at')
@@ -190,18 +193,18 @@ describe('through the TLS proxy', () => {
     const page = await context.newPage();
     await signInPage(page, 'tobiah@quillmere.example');
     // From the page itself, so the request carries the browser's Origin and cookie through Caddy.
-    const pdfBase64 = await page.evaluate(async (partId) => {
+    const pdfBase64 = await page.evaluate(async (code) => {
       const res = await fetch('/api/labels', {
         method: 'POST',
         headers: { 'content-type': 'application/json' },
-        body: JSON.stringify({ selection: { kind: 'part', partId } }),
+        body: JSON.stringify({ selection: { kind: 'codes', codes: [code] } }),
       });
       if (!res.ok) throw new Error(`${res.status} ${await res.text()}`);
       const bytes = new Uint8Array(await res.arrayBuffer());
       let s = '';
       for (const b of bytes) s += String.fromCharCode(b);
       return btoa(s);
-    }, part.id);
+    }, part.code!);
     const doc = await PDFDocument.load(Buffer.from(pdfBase64, 'base64'));
     const [label] = readLabels(pageContent(doc, doc.getPage(0)));
     const symbol = bounds(label.filled);

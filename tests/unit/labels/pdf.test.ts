@@ -114,7 +114,7 @@ describe.each(LAYOUTS.map((l) => [l.id, l] as const))('layout %s', (_id, layout:
       expect(bl.y - tl.y).toBeGreaterThan(0);
       expect(Math.abs(tr.y - tl.y) + Math.abs(bl.x - tl.x)).toBeLessThan(4);
     });
-  });
+  }, 60_000); // jsQR over every label of a sheet: seconds of CPU, more on a shared machine
 
   it('keeps a quiet zone of 4 modules around each QR, text included', () => {
     for (const g of rendered.pages.flatMap((p) => p.labels)) {
