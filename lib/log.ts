@@ -34,6 +34,11 @@ export function withRequestId<T>(requestId: string, fn: () => T): T {
   return scope.run({ requestId }, fn);
 }
 
+/** Runs one scheduled job's run with its own id (`job-<uuid>`) on every line it writes. */
+export function withJobRunId<T>(fn: () => T): T {
+  return withRequestId(`job-${randomUUID()}`, fn);
+}
+
 /** The current request id, if any (for answers that should name it). */
 export function currentRequestId(): string | undefined {
   return scope.getStore()?.requestId;

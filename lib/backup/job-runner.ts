@@ -3,9 +3,8 @@ import PgBoss from 'pg-boss';
 import { createDb } from '@/db/connect';
 import { now } from '@/lib/clock';
 import { env } from '@/lib/env';
-import { log, withRequestId } from '@/lib/log';
+import { log, withJobRunId } from '@/lib/log';
 import { runNightlyBackup } from './run';
-import { randomUUID } from 'node:crypto';
 
 // The nightly backup on pg-boss, in the app process, like the other scheduled jobs (lib/sales/job-runner.ts):
 // the schedule lives in PostgreSQL, so with several app processes one backup runs per night. Only where
@@ -25,7 +24,7 @@ function startBackupJobs(connectionString: string, dir: string): Promise<PgBoss>
     await boss.start();
     await boss.createQueue(BACKUP_QUEUE, { name: BACKUP_QUEUE, policy: 'stately', retryLimit: 0 });
     await boss.schedule(BACKUP_QUEUE, BACKUP_CRON, {}, { tz: 'UTC' });
-    await boss.work(BACKUP_QUEUE, () => withRequestId(`job-${randomUUID()}`, () => runNightlyBackup(db, { dir, databaseUrl: connectionString }, now())));
+    await boss.work(BACKUP_QUEUE, () => withJobRunId(() => runNightlyBackup(db, { dir, databaseUrl: connectionString }, now())));
     return boss;
   })().catch((err) => {
     g.ohmBackupRunner = undefined;

@@ -3,7 +3,7 @@ import PgBoss from 'pg-boss';
 import { createDb, type Db } from '@/db/connect';
 import { now } from '@/lib/clock';
 import { runReminderSweep } from './sweep';
-import { log } from '@/lib/log';
+import { log, withJobRunId } from '@/lib/log';
 
 // The durable job runner: pg-boss keeps its queue and schedule in PostgreSQL (schema `pgboss`), so a
 // schedule survives restarts and several app processes share one timetable (each cron slot runs once).
@@ -31,11 +31,13 @@ export function startReminderJobs(connectionString: string): Promise<Runner> {
       retryBackoff: true,
     });
     await boss.schedule(SWEEP_QUEUE, SWEEP_CRON, {}, { tz: 'UTC' });
-    await boss.work(SWEEP_QUEUE, async () => {
-      const result = await runReminderSweep(db, now());
-      if (result.queued || result.sent || result.failed || result.holdNotices)
-        log.info({ job: 'reminder-sweep', ...result }, 'reminder sweep');
-    });
+    await boss.work(SWEEP_QUEUE, () =>
+      withJobRunId(async () => {
+        const result = await runReminderSweep(db, now());
+        if (result.queued || result.sent || result.failed || result.holdNotices)
+          log.info({ job: 'reminder-sweep', ...result }, 'reminder sweep');
+      }),
+    );
     // Catch up at start: whatever came due while the app was down goes out now, not at the next slot.
     await boss.send(SWEEP_QUEUE, {});
     return { boss, db };

@@ -6,7 +6,7 @@ import { env } from '@/lib/env';
 import { sendReceipts } from '@/lib/mail/sales';
 import { paymentsClient } from '@/lib/payments/client';
 import { runSaleSweep, SALE_SWEEP_CRON, SALE_SWEEP_QUEUE } from './jobs';
-import { log } from '@/lib/log';
+import { log, withJobRunId } from '@/lib/log';
 
 // Runs the scheduled sale sweep (./jobs.ts) on pg-boss, in the app process, the same way the reminder
 // sweep runs (lib/reminders/jobs.ts): the schedule lives in PostgreSQL, so several app processes share
@@ -23,12 +23,14 @@ function startSaleJobs(connectionString: string): Promise<PgBoss> {
     // 'stately': at most one sweep queued and one running at any time.
     await boss.createQueue(SALE_SWEEP_QUEUE, { name: SALE_SWEEP_QUEUE, policy: 'stately', retryLimit: 3 });
     await boss.schedule(SALE_SWEEP_QUEUE, SALE_SWEEP_CRON, {}, { tz: 'UTC' });
-    await boss.work(SALE_SWEEP_QUEUE, async () => {
-      const run = await runSaleSweep(db, paymentsClient, { now: now() });
-      await sendReceipts(db, run.receipts);
-      if (run.checked || run.spacesNotReached)
-        log.info({ job: 'sale-sweep', ...run, receipts: run.receipts.length }, 'sale sweep');
-    });
+    await boss.work(SALE_SWEEP_QUEUE, () =>
+      withJobRunId(async () => {
+        const run = await runSaleSweep(db, paymentsClient, { now: now() });
+        await sendReceipts(db, run.receipts);
+        if (run.checked || run.spacesNotReached)
+          log.info({ job: 'sale-sweep', ...run, receipts: run.receipts.length }, 'sale sweep');
+      }),
+    );
     return boss;
   })().catch((err) => {
     g.ohmSaleSweepRunner = undefined;
