@@ -119,6 +119,8 @@ export const MATRIX: Record<string, Row> = {
   'GET /api/signoffs': { who: 'user', ok: 200 },
   'DELETE /api/signoffs/[id]': { who: W, ok: 404 },
   'POST /api/loans/[id]/hand-over': { who: W, ok: 404 },
+  // Deposits and charges (issue 16)
+  'POST /api/loans/[id]/cancel': { who: 'user', ok: 404 },
 };
 
 const ROLES: Role[] = ['member', 'steward', 'treasurer', 'admin'];
