@@ -36,7 +36,8 @@ beforeAll(async () => {
   fx = await loanSpace(db, { members: 2, timeZone: 'UTC' });
   await db.updateTable('spaces').set({ max_open_loans: 50 }).where('id', '=', fx.space.id).execute();
   parts = await chainParts(db, fx.space.id);
-  for (let i = 0; i < 4; i++) {
+  // Enough for every box this file builds (each takes a supply and a driver; a charged damaged driver is retired).
+  for (let i = 0; i < 10; i++) {
     await makeUnit(db, fx.space.id, parts.supply24.id, fx.bin.id);
     await makeUnit(db, fx.space.id, parts.driver.id, fx.bin.id);
   }
