@@ -3,6 +3,8 @@ import type Stripe from 'stripe';
 import type { Db } from '@/db/connect';
 import { scoped } from '@/db/scoped';
 import { audit } from '@/lib/audit/log';
+import { isStaff, type Ctx } from '@/lib/auth/roles';
+import { ConflictError, ForbiddenError, NotFoundError, UnavailableError } from '@/lib/errors';
 import { now } from '@/lib/clock';
 import { log } from '@/lib/log';
 import { depositReleaseKey, splitDeposit } from './checkout';
@@ -110,4 +112,36 @@ export async function sendRelease(db: Db, stripe: Stripe, spaceId: string, depos
     log.error({ depositId, err: err instanceof Error ? err.message : String(err) }, 'deposit release failed; it stays releasing');
     return false;
   }
+}
+
+/**
+ * A steward's "send it again" for a deposit left `releasing` (the processor did not answer): the same
+ * refund, with the same key, so it can never be two.
+ */
+export async function retryRelease(db: Db, ctx: Ctx, loanId: string, stripe: Stripe): Promise<{ released: boolean }> {
+  if (!isStaff(ctx)) throw new ForbiddenError('Only a steward sends a deposit back.');
+  const d = await scoped(db, ctx)
+    .selectFrom('deposits')
+    .innerJoin('loans', 'loans.id', 'deposits.loan_id')
+    .select(['deposits.id', 'deposits.status'])
+    .where('deposits.loan_id', '=', loanId)
+    .executeTakeFirst();
+  if (!d) {
+    const loan = await scoped(db, ctx).selectFrom('loans').select('id').where('id', '=', loanId).executeTakeFirst();
+    if (!loan) throw new NotFoundError('No such loan.');
+    throw new ConflictError('This loan has no deposit.', { loanId: ['no deposit'] });
+  }
+  if (d.status !== 'releasing')
+    throw new ConflictError(
+      d.status === 'released' ? 'The deposit is settled already.' : 'Nothing of this deposit is waiting to go back.',
+      { loanId: [`deposit ${d.status}`] },
+    );
+  const released = await sendRelease(db, stripe, ctx.spaceId, d.id);
+  // Not booked by us: perhaps the refund's event (or a second steward) booked it a moment earlier.
+  const now = released
+    ? 'released'
+    : (await scoped(db, ctx).selectFrom('deposits').select('status').where('id', '=', d.id).executeTakeFirstOrThrow()).status;
+  if (now !== 'released')
+    throw new UnavailableError('The card processor did not take the refund; the deposit still waits to go back. Try again shortly.');
+  return { released: true };
 }

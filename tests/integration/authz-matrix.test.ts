@@ -121,6 +121,7 @@ export const MATRIX: Record<string, Row> = {
   'POST /api/loans/[id]/hand-over': { who: W, ok: 404 },
   // Deposits and charges (issue 16)
   'POST /api/loans/[id]/cancel': { who: 'user', ok: 404 },
+  'POST /api/loans/[id]/deposit-release': { who: W, ok: 404 },
 };
 
 const ROLES: Role[] = ['member', 'steward', 'treasurer', 'admin'];

@@ -4,7 +4,8 @@ import type { PaymentsFake } from '@/fakes/payments/server';
 import { closeTestDb, makeLocation, makeUser, testDb } from '../helpers/db';
 import type { HttpSession } from '../helpers/http';
 import { chainParts, json, loanSpace, login, makeStock, makeUnit, type ErrorBody } from './loans-fixtures';
-import { ownFake, payOnFake, pointSpaceAt, waitFor } from './sales-fixtures';
+import { closedPort, ownFake, payOnFake, pointSpaceAt, waitFor } from './sales-fixtures';
+import { waitForMessage } from '@/lib/mail/mailbox';
 
 // Deposits and charges through real HTTP, real PostgreSQL and the payments fake (the processor's SDK
 // pointed at it, webhooks signed and — chaos — each delivered three times). A kit that asks for a deposit
@@ -187,6 +188,16 @@ describe('a confirmed return', () => {
       currency: 'USD',
       user_id: fx.members[1].id,
     });
+    // The member is told, in our words: what was charged, what the deposit covered, what goes back.
+    const notice = await waitForMessage({
+      to: fx.members[1].email,
+      timeoutMs: 15_000,
+      match: (m) => m.subject.startsWith('Charged at'),
+    });
+    expect(notice.subject).toMatch(/: \$12\.00$/);
+    expect(notice.text).toContain(`${parts.led.name}: $12.00 ($12.00 kept from your deposit)`);
+    expect(notice.text).toContain('Your deposit was $50.00; $38.00 of it goes back to your card.');
+    expect(notice.text).toContain('Nothing more is owed.');
   });
 
   test('damaged: a charge beyond the deposit stays owed; the damaged part is written off once and the count stays right', async () => {
@@ -218,6 +229,12 @@ describe('a confirmed return', () => {
     expect((await stripe.refunds.list({ payment_intent: d.payment_intent_id!, limit: 10 })).data).toHaveLength(0);
     const charges = await db.selectFrom('charges').select(['amount_minor', 'from_deposit_minor']).where('loan_id', '=', loanId).orderBy('created_at').execute();
     expect(charges.reduce((s, c) => s + c.amount_minor - c.from_deposit_minor, 0)).toBe(6000 - DEPOSIT);
+    const notice = await waitForMessage({
+      to: fx.members[0].email,
+      timeoutMs: 15_000,
+      match: (m) => m.subject.startsWith('Charged at') && m.text.includes('Still owed'),
+    });
+    expect(notice.text).toContain('Still owed: $10.00. Settle it with a steward at the bench.');
 
     // The damaged LED: exactly one written off from the box, the shelf's count untouched, no counter sale.
     const moves = await db
@@ -259,6 +276,35 @@ describe('a confirmed return', () => {
     const d = await depositOf(loanId);
     expect(d).toMatchObject({ kept_minor: 0, released_minor: DEPOSIT });
     expect((await stripe.refunds.list({ payment_intent: d.payment_intent_id!, limit: 10 })).data.map((r) => r.amount)).toEqual([DEPOSIT]);
+  });
+});
+
+describe('when the processor does not answer', () => {
+  test('the deposit waits to go back; sending it again gives back one refund, however many press', async () => {
+    const { loanId, pi } = await paidLoan(bruno);
+    await pointSpaceAt(fx.space.id, await closedPort());
+    try {
+      const res = await steward.post(`/api/loans/${loanId}/return`, {});
+      expect(res.status).toBe(200);
+      expect((await json<{ return: { depositReleased: boolean } }>(res)).return.depositReleased).toBe(false);
+      expect((await depositOf(loanId)).status).toBe('releasing');
+      const down = await steward.post(`/api/loans/${loanId}/deposit-release`);
+      expect(down.status).toBe(503);
+      expect((await json<ErrorBody>(down)).error.message).toMatch(/still waits to go back/);
+    } finally {
+      await pointSpaceAt(fx.space.id, fake.port);
+    }
+    expect((await bruno.post(`/api/loans/${loanId}/deposit-release`)).status).toBe(403);
+    const again = await Promise.all([steward, steward2, steward].map((s) => s.post(`/api/loans/${loanId}/deposit-release`)));
+    const statuses = again.map((r) => r.status);
+    expect(statuses.every((st) => st === 200 || st === 409)).toBe(true);
+    expect(statuses).toContain(200);
+    await waitFor('the deposit to be released', async () => (await depositOf(loanId)).status === 'released');
+    await waitFor('every delivery', () => fake.deliveries().every((x) => x.status === 'delivered'));
+    expect((await stripe.refunds.list({ payment_intent: pi, limit: 10 })).data.map((r) => r.amount)).toEqual([DEPOSIT]);
+    const settled = await steward.post(`/api/loans/${loanId}/deposit-release`);
+    expect(settled.status).toBe(409);
+    expect((await json<ErrorBody>(settled)).error.message).toBe('The deposit is settled already.');
   });
 });
 

@@ -143,6 +143,14 @@ export default async function LoanPage({ params }: { params: Promise<{ id: strin
       </section>
 
       <LoanMoneyCard deposit={loan.deposit} charges={loan.charges} isMine={loan.isMine} />
+      {staff && loan.deposit?.status === 'releasing' ? (
+        <ActionButton
+          url={`/api/loans/${loan.id}/deposit-release`}
+          label="Send the deposit back again"
+          busyLabel="Sending…"
+          done="Sent back to the card."
+        />
+      ) : null}
 
       {loan.override ? (
         <section aria-label="Override" className="card border-red-300 dark:border-red-800">

@@ -2,6 +2,7 @@ import { z } from 'zod';
 import { db } from '@/db';
 import { idParams, json, route } from '@/lib/http/route';
 import { sendRelease } from '@/lib/deposits/release';
+import { sendChargeNotice } from '@/lib/mail/charges';
 import { notifyReadyHolds } from '@/lib/loans/notify';
 import { returnLoan } from '@/lib/loans/return';
 import { returnSchema } from '@/lib/loans/schemas';
@@ -30,6 +31,7 @@ export const POST = route({
       ? await sendRelease(db, paymentsClient(ctx.spaceId), ctx.spaceId, result.depositToSend)
       : false;
     await notifyReadyHolds(db, result.readyHoldIds);
+    if (result.charged) await sendChargeNotice(db, ctx.spaceId, params.id, result.charged);
     return { return: { status: result.status, short: result.short, charged: result.charged, depositReleased } };
   },
 });
