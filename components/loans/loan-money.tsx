@@ -14,7 +14,7 @@ const DEPOSIT_WORDS: Record<string, string> = {
 
 export function LoanMoneyCard({ deposit, charges, isMine }: LoanMoney & { isMine: boolean }) {
   if (!deposit && !charges.length) return null;
-  const owed = charges.reduce((s, c) => s + c.amountMinor - c.fromDepositMinor, 0);
+  const owed = charges.reduce((s, c) => s + c.amountMinor - c.fromDepositMinor - c.settledMinor, 0);
   const cur = deposit?.currency ?? charges[0]?.currency ?? 'USD';
   return (
     <section aria-labelledby="money-heading" className="card space-y-2">
@@ -42,6 +42,7 @@ export function LoanMoneyCard({ deposit, charges, isMine }: LoanMoney & { isMine
               </span>
               <span className="muted block text-sm">
                 {c.fromDepositMinor ? `${formatMoney(c.fromDepositMinor, c.currency)} from the deposit` : 'not covered by a deposit'}
+                {c.settledMinor ? ` · ${formatMoney(c.settledMinor, c.currency)} paid` : ''}
                 {c.note ? ` · “${c.note}”` : ''}
               </span>
             </li>

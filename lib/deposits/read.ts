@@ -14,7 +14,7 @@ export type LoanMoney = {
     releasedMinor: number | null;
     payUrl: string | null;
   } | null;
-  charges: { id: string; item: string; kind: 'missing' | 'damaged'; note: string; amountMinor: number; fromDepositMinor: number; currency: string }[];
+  charges: { id: string; item: string; kind: 'missing' | 'damaged'; note: string; amountMinor: number; fromDepositMinor: number; settledMinor: number; currency: string }[];
 };
 
 export async function loanMoney(db: Db, spaceId: string, loanId: string): Promise<LoanMoney> {
@@ -25,7 +25,7 @@ export async function loanMoney(db: Db, spaceId: string, loanId: string): Promis
     .executeTakeFirst();
   const charges = await scoped(db, { spaceId })
     .selectFrom('charges')
-    .select(['id', 'item', 'kind', 'note', 'amount_minor', 'from_deposit_minor', 'currency'])
+    .select(['id', 'item', 'kind', 'note', 'amount_minor', 'from_deposit_minor', 'settled_minor', 'currency'])
     .where('loan_id', '=', loanId)
     .orderBy('created_at')
     .orderBy('id')
@@ -48,6 +48,7 @@ export async function loanMoney(db: Db, spaceId: string, loanId: string): Promis
       note: c.note,
       amountMinor: c.amount_minor,
       fromDepositMinor: c.from_deposit_minor,
+      settledMinor: c.settled_minor,
       currency: c.currency,
     })),
   };

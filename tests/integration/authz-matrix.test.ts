@@ -122,6 +122,7 @@ export const MATRIX: Record<string, Row> = {
   // Deposits and charges (issue 16)
   'POST /api/loans/[id]/cancel': { who: 'user', ok: 404 },
   'POST /api/loans/[id]/deposit-release': { who: W, ok: 404 },
+  'POST /api/people/[id]/settle-charges': { who: W, ok: [400, 404], body: EMPTY },
 };
 
 const ROLES: Role[] = ['member', 'steward', 'treasurer', 'admin'];

@@ -327,7 +327,20 @@ describe('owes more than', () => {
     // Bruno owes nothing beyond his deposits: he may borrow.
     expect((await bruno.post('/api/loans', { unitIds: [meter.id] })).status).toBe(201);
 
-    expect((await admin.post('/api/settings/borrowing', { refuseWhenOwingOverMinor: 1000 }, 'PATCH')).status).toBe(200);
+    // Cash paid to a steward settles it: never more than is owed, never twice under two stewards at once.
+    const settle = (who: HttpSession, amountMinor: number) =>
+      who.post(`/api/people/${fx.members[0].id}/settle-charges`, { amountMinor });
+    const tooMuch = await settle(steward, 1001);
+    expect(tooMuch.status).toBe(400);
+    expect((await json<ErrorBody>(tooMuch)).error.fields).toEqual({ amountMinor: ['at most 1000'] });
+    expect((await settle(alice, 1)).status).toBe(403);
+    const both = await Promise.all([settle(steward, 600), settle(steward2, 600)]);
+    expect(both.map((r) => r.status).sort()).toEqual([200, 400]);
+    const paid = await json<{ settled: { owedMinor: number } }>(both.find((r) => r.status === 200)!);
+    expect(paid.settled.owedMinor).toBe(400);
+    const settledAudit = await db.selectFrom('audit_log').select('detail').where('action', '=', 'charge.settled').where('target_id', '=', fx.members[0].id).execute();
+    expect(settledAudit).toHaveLength(1);
+    // Now under the limit: she may borrow again.
     const meter2 = await makeUnit(db, fx.space.id, parts.meter.id, fx.bin.id);
     expect((await alice.post('/api/loans', { unitIds: [meter2.id] })).status).toBe(201);
     const bad = await admin.post('/api/settings/borrowing', { refuseWhenOwingOverMinor: 1.5 }, 'PATCH');

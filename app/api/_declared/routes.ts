@@ -79,6 +79,7 @@ import * as signoffs from '../signoffs/route';
 import * as signoffsId from '../signoffs/[id]/route';
 import * as loansIdHandOver from '../loans/[id]/hand-over/route';
 import * as loansIdCancel from '../loans/[id]/cancel/route';
+import * as peopleIdSettleCharges from '../people/[id]/settle-charges/route';
 import * as loansIdDepositRelease from '../loans/[id]/deposit-release/route';
 
 export const ROUTES: RouteModules = {
@@ -159,5 +160,6 @@ export const ROUTES: RouteModules = {
   '/api/signoffs/{id}': signoffsId,
   '/api/loans/{id}/hand-over': loansIdHandOver,
   '/api/loans/{id}/cancel': loansIdCancel,
+  '/api/people/{id}/settle-charges': peopleIdSettleCharges,
   '/api/loans/{id}/deposit-release': loansIdDepositRelease,
 };

@@ -4,6 +4,7 @@ import { requirePageUser } from '@/lib/auth/guard';
 import { isStaff } from '@/lib/auth/roles';
 import { formatDateTime } from '@/lib/format';
 import { getLoan } from '@/lib/loans/queries';
+import { formatMoney } from '@/lib/money';
 import { spaceClock } from '@/lib/sales/periods';
 import { Cautions } from '@/components/kits/cautions';
 import { CheckReport } from '@/components/kits/check-report';
@@ -27,6 +28,8 @@ export default async function LoanPage({ params }: { params: Promise<{ id: strin
   const depositDue = loan.status === 'waiting' && loan.deposit?.status === 'pending';
   const state = loan.status === 'out' && loan.overdue ? 'overdue' : depositDue ? 'deposit_due' : loan.status;
   const canGiveUp = loan.status === 'waiting' && (staff || loan.isMine);
+  const { currency } = await spaceClock(db, ctx.spaceId);
+  const owedHere = loan.charges.reduce((sum, c) => sum + c.amountMinor - c.fromDepositMinor - c.settledMinor, 0);
   const canRenew = loan.status === 'out' && loan.renewals < loan.maxRenewals && loan.waitingHolds === 0;
   return (
     <div className="mx-auto max-w-xl space-y-4">
@@ -143,6 +146,15 @@ export default async function LoanPage({ params }: { params: Promise<{ id: strin
       </section>
 
       <LoanMoneyCard deposit={loan.deposit} charges={loan.charges} isMine={loan.isMine} />
+      {staff && owedHere > 0 ? (
+        <ActionButton
+          url={`/api/people/${loan.borrower.id}/settle-charges`}
+          body={{ amountMinor: owedHere }}
+          label={`Record ${formatMoney(owedHere, currency)} paid in cash`}
+          busyLabel="Recording…"
+          done="Recorded."
+        />
+      ) : null}
       {staff && loan.deposit?.status === 'releasing' ? (
         <ActionButton
           url={`/api/loans/${loan.id}/deposit-release`}
@@ -205,7 +217,7 @@ export default async function LoanPage({ params }: { params: Promise<{ id: strin
           loanId={loan.id}
           lines={loan.lines.map((l) => ({ id: l.id, name: l.name, qty: l.qty, unitCode: l.unitCode }))}
           canCharge={staff}
-          currency={(await spaceClock(db, ctx.spaceId)).currency}
+          currency={currency}
         />
       ) : null}
 
