@@ -34,6 +34,8 @@ export const SPACE_TABLES = [
   'kit_template_inductions',
   'category_inductions',
   'induction_signoffs',
+  'deposits',
+  'charges',
 ] as const satisfies readonly (keyof Database)[];
 
 export type SpaceTable = (typeof SPACE_TABLES)[number];

@@ -155,6 +155,8 @@ export interface KitTemplatesTable {
   cautions: Generated<string>;
   archived_at: TimestampNullable;
   created_at: TimestampDefault;
+  /** A costly kit's deposit in the space's currency, minor units (migration 0011), or null for none. */
+  deposit_minor: ColumnType<number | null, number | null | undefined, number | null>;
 }
 
 export interface KitTemplateLinesTable {
@@ -219,6 +221,8 @@ export interface LoansTable {
   handed_over_at: TimestampNullable;
   back_reported_at: TimestampNullable;
   back_note: ColumnType<string | null, string | null | undefined, string | null>;
+  /** A borrow given up before it became a loan (migration 0011). */
+  cancelled_at: TimestampNullable;
 }
 
 export interface LoanLinesTable {
@@ -426,6 +430,52 @@ export interface Database {
   kit_template_inductions: KitTemplateInductionsTable;
   category_inductions: CategoryInductionsTable;
   induction_signoffs: InductionSignoffsTable;
+  // Deposits and charges (migration 0011)
+  deposits: DepositsTable;
+  charges: ChargesTable;
+}
+
+export type DepositStatus = 'pending' | 'held' | 'releasing' | 'released' | 'ended';
+
+/** A loan's deposit (migration 0011): pending → held → releasing → released, or pending → ended. */
+export interface DepositsTable {
+  id: Generated<string>;
+  space_id: string;
+  loan_id: string;
+  amount_minor: number;
+  currency: string;
+  status: Generated<DepositStatus>;
+  /** What the loan becomes once the deposit is paid. */
+  starts_as: 'out' | 'waiting';
+  checkout_session_id: string | null;
+  checkout_url: string | null;
+  payment_intent_id: string | null;
+  paid_at: TimestampNullable;
+  kept_minor: Generated<number>;
+  released_minor: number | null;
+  refund_id: string | null;
+  release_started_at: TimestampNullable;
+  released_at: TimestampNullable;
+  ended_at: TimestampNullable;
+  created_at: TimestampDefault;
+}
+
+/** What a member owes for a missing or damaged part (migration 0011). */
+export interface ChargesTable {
+  id: Generated<string>;
+  space_id: string;
+  user_id: string;
+  loan_id: string | null;
+  loan_line_id: string | null;
+  kind: 'missing' | 'damaged';
+  item: string;
+  note: Generated<string>;
+  amount_minor: number;
+  currency: string;
+  from_deposit_minor: Generated<number>;
+  settled_minor: Generated<number>;
+  created_by: string | null;
+  created_at: TimestampDefault;
 }
 
 /** What a space shows a member before they may borrow certain things (migration 0006). */

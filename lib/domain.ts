@@ -7,7 +7,7 @@ export type PartCategory =
 export type ChainRole = 'supply' | 'driver' | 'led' | 'wire';
 export type LabelKind = 'unit' | 'part' | 'location' | 'kit_box';
 /** waiting: at the bench until a steward hands it over; back_unchecked: returned by the member, not yet checked (bench hand-over, issue 16). */
-export type LoanStatus = 'waiting' | 'out' | 'back_unchecked' | 'returned' | 'returned_short';
+export type LoanStatus = 'waiting' | 'out' | 'back_unchecked' | 'returned' | 'returned_short' | 'cancelled';
 export type SaleStatus = 'pending' | 'paid' | 'failed' | 'expired' | 'refunded' | 'partially_refunded' | 'reversed';
 export type MovementReason =
   | 'receive' | 'move_in' | 'move_out' | 'adjust' | 'count' | 'loan_out' | 'loan_return' | 'lost' | 'damaged'

@@ -46,6 +46,10 @@ export function Totals({
           {item('Card refunds', m(o.cardRefundsMinor))}
           {item('Cash (honour box)', m(o.cashMinor))}
           {item('Cash refunds', m(o.cashRefundsMinor))}
+          {item('Deposits taken', m(o.depositsMinor), 'deposits-taken')}
+          {item('Deposits given back', m(o.depositReleasesMinor), 'deposits-released')}
+          {item('Charges', m(o.chargesMinor), 'charges')}
+          {item('Charges kept from deposits', m(o.chargesFromDepositsMinor), 'charges-from-deposits')}
         </dl>
       </section>
       <section aria-labelledby="totals-match">

@@ -5,6 +5,7 @@ import { useId, useState } from 'react';
 import { callApi, type ApiError } from '@/components/loans/api';
 import { ErrorNote } from '@/components/loans/error-note';
 import { CHAIN_ROLE_WORDS } from '@/lib/domain';
+import { minorUnitExponent, parseMoney } from '@/lib/money';
 
 type Part = { id: string; name: string; sku: string; category: string; keySpec: string };
 type Line = { partId: string; qty: number; chainRole: 'supply' | 'driver' | 'led' | 'wire' | null };
@@ -13,6 +14,7 @@ export type TemplateValues = {
   description: string;
   teachingNotes: string;
   cautions: string;
+  depositMinor: number | null;
   lines: Line[];
 };
 
@@ -23,21 +25,31 @@ export function TemplateForm({
   parts,
   initial,
   templateId,
+  currency,
 }: {
   parts: Part[];
   initial?: TemplateValues;
   templateId?: string;
+  /** The space's currency (ISO 4217): the deposit is typed in it. */
+  currency: string;
 }) {
   const router = useRouter();
   const ids = useId();
   const [v, setV] = useState<TemplateValues>(
-    initial ?? { name: '', description: '', teachingNotes: '', cautions: '', lines: [] },
+    initial ?? { name: '', description: '', teachingNotes: '', cautions: '', depositMinor: null, lines: [] },
   );
+  const exp = minorUnitExponent(currency);
+  const [depositText, setDepositText] = useState(
+    v.depositMinor === null ? '' : (v.depositMinor / 10 ** exp).toFixed(exp),
+  );
+  // An amount that does not parse is sent as typed, so the server names the field.
+  const depositMinor = depositText.trim() === '' ? null : (parseMoney(depositText, currency) ?? Number.NaN);
+  const body = { ...v, depositMinor: Number.isNaN(depositMinor) ? depositText : depositMinor };
   const m = useMutation({
     mutationFn: () =>
       templateId
-        ? callApi<{ template: { id: string } }>(`/api/kits/templates/${templateId}`, 'PUT', v)
-        : callApi<{ template: { id: string } }>('/api/kits/templates', 'POST', v),
+        ? callApi<{ template: { id: string } }>(`/api/kits/templates/${templateId}`, 'PUT', body)
+        : callApi<{ template: { id: string } }>('/api/kits/templates', 'POST', body),
     onSuccess: ({ template }) => router.push(`/kits/templates/${template.id}`),
   });
   const fields = (m.error as ApiError | null)?.fields ?? {};
@@ -159,6 +171,21 @@ export function TemplateForm({
       </fieldset>
       {text('teachingNotes', 'Teaching notes (how to build it, what to measure)', 5)}
       {text('cautions', 'Safety cautions for this kit', 3)}
+      <div>
+        <label className="label" htmlFor={`${ids}-deposit`}>
+          Deposit before a box is lent ({currency}; empty: none)
+        </label>
+        <input
+          id={`${ids}-deposit`}
+          inputMode="decimal"
+          className="field max-w-40"
+          value={depositText}
+          onChange={(e) => setDepositText(e.target.value)}
+          aria-invalid={fields.depositMinor ? true : undefined}
+          aria-describedby={fields.depositMinor ? `${ids}-depositMinor-err` : undefined}
+        />
+        {err('depositMinor')}
+      </div>
       <button type="submit" className="btn-primary" disabled={m.isPending}>
         {m.isPending ? 'Saving…' : 'Save kit'}
       </button>

@@ -29,6 +29,7 @@ export function BorrowPanel({
   userId,
   lendTo,
   inductions = null,
+  deposit = null,
 }: {
   selection: Selection;
   gate: 'ok' | 'acknowledge' | 'blocked';
@@ -42,6 +43,8 @@ export function BorrowPanel({
   lendTo?: string;
   /** What the induction gate would say for this borrower (preview), or null. */
   inductions?: { missing: string[]; message: string } | null;
+  /** The kit's deposit, formatted, when it asks for one: paid by card before it is lent. */
+  deposit?: string | null;
 }) {
   const router = useRouter();
   const ids = useId();
@@ -63,13 +66,14 @@ export function BorrowPanel({
   const borrowerId = lendTo ?? chosen;
   const m = useMutation({
     mutationFn: () =>
-      callApi<{ loan: { id: string } }>('/api/loans', 'POST', {
+      callApi<{ loan: { id: string; deposit: { url: string } | null } }>('/api/loans', 'POST', {
         ...selection,
         ...(gate === 'acknowledge' ? { acknowledgeCaution: ack } : {}),
         ...overridesToSend(),
         ...(borrowerId !== userId ? { borrowerId } : {}),
       }),
-    onSuccess: ({ loan }) => router.push(`/loans/${loan.id}`),
+    // A kit that asks for a deposit: on to the processor's pay page; it comes back to the loan.
+    onSuccess: ({ loan }) => (loan.deposit ? window.location.assign(loan.deposit.url) : router.push(`/loans/${loan.id}`)),
     onError: (e) => {
       if ((e as ApiError).fields?.inductions) setServerNamedGap(true);
     },
@@ -184,6 +188,12 @@ export function BorrowPanel({
           />
         </div>
       ) : null}
+      {deposit ? (
+        <p className="text-sm" data-testid="deposit-note">
+          This kit takes a deposit of <strong>{deposit}</strong>, paid by card before it is lent. It comes back to the
+          card when a steward has checked the return; a charge for anything missing or damaged is kept from it.
+        </p>
+      ) : null}
       <button
         type="submit"
         className={gate === 'blocked' || inductionGap ? 'btn-danger w-full text-lg' : 'btn-primary w-full text-lg'}
@@ -199,7 +209,9 @@ export function BorrowPanel({
               : 'Override and lend'
             : lendee
               ? `Lend to ${lendee}`
-              : 'Borrow it'}
+              : deposit
+                ? `Borrow it and pay ${deposit}`
+                : 'Borrow it'}
       </button>
       <ErrorNote error={m.error} />
     </form>

@@ -33,7 +33,9 @@ export function LoanList({
                   ? 'for a steward to hand over'
                   : l.status === 'back_unchecked'
                     ? 'for a steward to check'
-                    : `returned ${l.returnedAt ? formatDateTime(l.returnedAt, timeZone) : ''}`}
+                    : l.status === 'cancelled'
+                      ? 'given up before it was lent'
+                      : `returned ${l.returnedAt ? formatDateTime(l.returnedAt, timeZone) : ''}`}
               {l.overridden ? ' · check overridden' : ''}
             </span>
           </span>

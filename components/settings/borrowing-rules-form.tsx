@@ -12,6 +12,7 @@ import {
   type Weekday,
 } from '@/lib/rules/schema';
 import { FormNote } from '@/components/people/form-field';
+import { formatMoney, minorUnitExponent, parseMoney } from '@/lib/money';
 import { ApiError, errorText, sendJson } from '@/components/people/send-json';
 
 // Who may borrow and when things fall due: the space's standing rule, how things change hands, the
@@ -21,11 +22,23 @@ const DEFAULT_HOURS: Opening = { opens: '10:00', closes: '20:00' };
 const startWeek = (closingTime: string): Week =>
   Object.fromEntries(WEEKDAYS.map((d) => [d, { opens: '10:00', closes: closingTime }])) as Week;
 
-export function BorrowingRulesForm({ initial, closingTime }: { initial: BorrowingRules; closingTime: string }) {
+const amountText = (minor: number | null, currency: string) =>
+  minor === null ? '' : (minor / 10 ** minorUnitExponent(currency)).toFixed(minorUnitExponent(currency));
+
+export function BorrowingRulesForm({
+  initial,
+  closingTime,
+  currency,
+}: {
+  initial: BorrowingRules;
+  closingTime: string;
+  currency: string;
+}) {
   const router = useRouter();
   const ids = useId();
   const [rules, setRules] = useState<BorrowingRules>(initial);
   const [newDate, setNewDate] = useState('');
+  const [owingText, setOwingText] = useState(amountText(initial.refuseWhenOwingOverMinor, currency));
   const [fields, setFields] = useState<Record<string, string[]>>({});
   const [note, setNote] = useState<{ kind: 'ok' | 'error'; text: string } | null>(null);
   const [saving, setSaving] = useState(false);
@@ -43,7 +56,17 @@ export function BorrowingRulesForm({ initial, closingTime }: { initial: Borrowin
     setNote(null);
     setFields({});
     try {
-      const { rules: saved } = await sendJson<{ rules: BorrowingRules }>('/api/settings/borrowing', 'PATCH', rules);
+      const owing = owingText.trim() === '' ? null : parseMoney(owingText, currency);
+      if (owing === null && owingText.trim() !== '') {
+        setFields({ refuseWhenOwingOverMinor: [`an amount in ${currency}, e.g. ${amountText(2000, currency)}`] });
+        setNote({ kind: 'error', text: 'Check the amount a member may owe.' });
+        return;
+      }
+      const { rules: saved } = await sendJson<{ rules: BorrowingRules }>('/api/settings/borrowing', 'PATCH', {
+        ...rules,
+        refuseWhenOwingOverMinor: owing,
+      });
+      setOwingText(amountText(saved.refuseWhenOwingOverMinor, currency));
       setRules(saved);
       setNote({ kind: 'ok', text: 'Borrowing rules saved.' });
       router.refresh();
@@ -71,6 +94,26 @@ export function BorrowingRulesForm({ initial, closingTime }: { initial: Borrowin
             <span className="muted block text-sm">They are told which loan, and that bringing it back (or a renewal) clears it.</span>
           </span>
         </label>
+        <div className="space-y-1">
+          <label className="label" htmlFor={`${ids}-owing`}>
+            No new loan while the member owes more than ({currency}; empty: no limit)
+          </label>
+          <input
+            id={`${ids}-owing`}
+            inputMode="decimal"
+            className="field max-w-40"
+            value={owingText}
+            onChange={(e) => setOwingText(e.target.value)}
+            aria-invalid={fieldError('refuseWhenOwingOverMinor') ? true : undefined}
+          />
+          <p className="muted text-sm">
+            Charges for missing or damaged parts, less what a deposit covered
+            {rules.refuseWhenOwingOverMinor !== null ? ` (now ${formatMoney(rules.refuseWhenOwingOverMinor, currency)})` : ''}.
+          </p>
+          {fieldError('refuseWhenOwingOverMinor') ? (
+            <p className="text-sm text-red-800 dark:text-red-300">{fieldError('refuseWhenOwingOverMinor')}</p>
+          ) : null}
+        </div>
         <div role="radiogroup" aria-labelledby={`${ids}-presence`} className="space-y-2">
           <p id={`${ids}-presence`} className="label">
             How things change hands

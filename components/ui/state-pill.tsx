@@ -12,6 +12,8 @@ const WORDS: Record<string, string> = {
   returned_short: 'returned short',
   waiting: 'waiting at the bench',
   back_unchecked: 'back, not yet checked',
+  deposit_due: 'waiting for the deposit',
+  cancelled: 'given up',
   pending: 'pending',
   paid: 'paid',
   failed: 'failed',
@@ -29,6 +31,7 @@ const TONE: Record<string, string> = {
   in_repair: 'border-amber-700 text-amber-950 dark:text-amber-200',
   returned_short: 'border-amber-700 text-amber-950 dark:text-amber-200',
   waiting: 'border-sky-700 text-sky-900 dark:text-sky-200',
+  deposit_due: 'border-sky-700 text-sky-900 dark:text-sky-200',
   back_unchecked: 'border-amber-700 text-amber-950 dark:text-amber-200',
 };
 

@@ -17,7 +17,15 @@ export type BoxDetail = {
   code: string;
   state: UnitState;
   locationName: string | null;
-  template: { id: string; name: string; description: string; teachingNotes: string; cautions: string };
+  template: {
+    id: string;
+    name: string;
+    description: string;
+    teachingNotes: string;
+    cautions: string;
+    /** The deposit a borrow of this kit takes first (minor units of the space's currency), or null. */
+    depositMinor: number | null;
+  };
   contents: {
     partId: string;
     name: string;
@@ -34,7 +42,7 @@ export type BoxDetail = {
 
 export async function getBox(db: Db, ctx: Ctx, kitBoxId: string): Promise<BoxDetail> {
   const box = await boxesOfSpace(db, ctx.spaceId)
-    .select(['kit_templates.description', 'kit_templates.teaching_notes', 'kit_templates.cautions'])
+    .select(['kit_templates.description', 'kit_templates.teaching_notes', 'kit_templates.cautions', 'kit_templates.deposit_minor'])
     .where('kit_boxes.id', '=', kitBoxId)
     .executeTakeFirst();
   if (!box) throw new NotFoundError('No such kit box.');
@@ -67,6 +75,7 @@ export async function getBox(db: Db, ctx: Ctx, kitBoxId: string): Promise<BoxDet
       description: box.description,
       teachingNotes: box.teaching_notes,
       cautions: box.cautions,
+      depositMinor: box.deposit_minor,
     },
     contents: lines.map((l) => ({
       partId: l.partId,

@@ -29,6 +29,14 @@ export const templateSchema = z
     description: z.string().trim().max(2000).default(''),
     teachingNotes: z.string().trim().max(10000).default(''),
     cautions: z.string().trim().max(4000).default(''),
+    /** A deposit taken before a box of this kit is lent, in the space's currency (ISO 4217 minor units); null: none. */
+    depositMinor: z
+      .number({ error: 'depositMinor must be a whole number of minor units, or null' })
+      .int({ error: 'depositMinor must be a whole number of minor units' })
+      .min(1, { error: 'depositMinor must be at least 1 (or null for no deposit)' })
+      .max(99_999_999, { error: 'depositMinor is at most 99999999' })
+      .nullable()
+      .default(null),
     lines: z.array(templateLineSchema).min(1, { error: 'a kit needs at least one line' }).max(60),
   })
   .strict()

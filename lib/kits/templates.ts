@@ -62,6 +62,8 @@ export type TemplateDetail = {
   description: string;
   teachingNotes: string;
   cautions: string;
+  /** The deposit a box of this kit needs before it is lent (minor units of the space's currency), or null. */
+  depositMinor: number | null;
   lines: TemplateLine[];
   /** The check on the template's own parts (the catalogue specs, before any box is built). */
   check: CheckOutcome;
@@ -71,7 +73,7 @@ export type TemplateDetail = {
 export async function getTemplate(db: Db, ctx: Ctx, templateId: string): Promise<TemplateDetail> {
   const t = await scoped(db, ctx)
     .selectFrom('kit_templates')
-    .select(['id', 'name', 'description', 'teaching_notes', 'cautions'])
+    .select(['id', 'name', 'description', 'teaching_notes', 'cautions', 'deposit_minor'])
     .where('id', '=', templateId)
     .where('space_id', '=', ctx.spaceId)
     .executeTakeFirst();
@@ -119,6 +121,7 @@ export async function getTemplate(db: Db, ctx: Ctx, templateId: string): Promise
     description: t.description,
     teachingNotes: t.teaching_notes,
     cautions: t.cautions,
+    depositMinor: t.deposit_minor,
     lines,
     check,
     boxes,
@@ -189,6 +192,7 @@ async function saveTemplate(
     description: input.description,
     teaching_notes: input.teachingNotes,
     cautions: input.cautions,
+    deposit_minor: input.depositMinor,
   };
   try {
     return await db.transaction().execute(async (trx) => {

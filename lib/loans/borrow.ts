@@ -11,6 +11,7 @@ import { checkLines, storedReport } from './check';
 import { inductionRefusal, missingInductions, stewardsToAsk } from '@/lib/inductions/gate';
 import { standingRefusal } from '@/lib/rules/standing';
 import { computeDueAt } from './due';
+import { recordDeposit, templateDeposit, type DepositDue } from '@/lib/deposits/take';
 import { limitReached, openLoanCount } from './lock';
 import { gateFor } from './preview';
 import type { BorrowInput } from './schemas';
@@ -32,6 +33,8 @@ export type BorrowResult = {
   inductionsOverridden: string[];
   /** What was checked as the borrower's whole build, or what it still lacks; null when not a build. */
   note: string | null;
+  /** The deposit to pay before this becomes a loan (the kit asks for one), or null. */
+  deposit: DepositDue | null;
 };
 
 /** A box or unit may be taken when it is on the shelf, or held ready for this borrower. */
@@ -179,7 +182,11 @@ export async function borrow(db: Db, ctx: Ctx, input: BorrowInput): Promise<Borr
     const dueAt = computeDueAt(at, settings);
     // Bench hand-over: a member's own borrow waits at the bench (kept for them) until a steward hands it
     // over; its due date is set again then. A steward lending at the bench is the hand-over.
-    const status = settings.rules.presence === 'bench_handover' && !staff ? ('waiting' as const) : ('out' as const);
+    const startsAs = settings.rules.presence === 'bench_handover' && !staff ? ('waiting' as const) : ('out' as const);
+    // A kit that asks for a deposit: kept for the borrower (waiting) until it is paid; then it becomes
+    // what it would have been (lib/deposits/events.ts).
+    const depositMinor = await templateDeposit(trx, ctx.spaceId, templateId);
+    const status = depositMinor ? ('waiting' as const) : startsAs;
     const overridden = gate === 'blocked';
     const loan = await scoped(trx, ctx)
       .insertInto('loans')
@@ -205,6 +212,7 @@ export async function borrow(db: Db, ctx: Ctx, input: BorrowInput): Promise<Borr
       })
       .returning('id')
       .executeTakeFirstOrThrow();
+    const deposit = depositMinor ? await recordDeposit(trx, ctx, { id: loan.id, amountMinor: depositMinor, startsAs }) : null;
 
     // Counted stock leaves its bin: guarded updates in a fixed order (no deadlock between two loans).
     const counted = lines
@@ -237,6 +245,7 @@ export async function borrow(db: Db, ctx: Ctx, input: BorrowInput): Promise<Borr
       cautionAcknowledged: gate === 'acknowledge',
       dueAt: dueAt.toISOString(),
       status,
+      ...(deposit ? { depositMinor: deposit.amountMinor, currency: deposit.currency } : {}),
     };
     const withLines = scoped(trx, ctx).with('written_lines', (q) =>
       q
@@ -340,6 +349,7 @@ export async function borrow(db: Db, ctx: Ctx, input: BorrowInput): Promise<Borr
       overridden,
       inductionsOverridden: missing.map((m) => m.name).filter(() => inductionOverride !== null),
       note: buildNote(outcome, { self: borrowerId === ctx.userId }),
+      deposit,
     };
   });
 }

@@ -1,4 +1,5 @@
 import 'server-only';
+import { sql } from 'kysely';
 import { scoped } from '@/db/scoped';
 import type { Db } from '@/db/connect';
 import { audit } from '@/lib/audit/log';
@@ -27,6 +28,8 @@ export async function handOver(db: Db, ctx: Ctx, loanId: string): Promise<HandOv
       .where('id', '=', loanId)
       .where('space_id', '=', ctx.spaceId)
       .where('status', '=', 'waiting')
+      // A deposit not yet paid keeps it waiting: nothing is handed over before the money is in.
+      .where(sql<boolean>`not exists (select 1 from deposits d where d.space_id = loans.space_id and d.loan_id = loans.id and d.status = 'pending')`)
       .returning(['id', 'borrower_id'])
       .executeTakeFirst();
     if (!done) {
@@ -34,10 +37,15 @@ export async function handOver(db: Db, ctx: Ctx, loanId: string): Promise<HandOv
         .selectFrom('loans')
         .leftJoin('users', 'users.id', 'loans.handed_over_by')
         .select(['loans.status', 'users.name as by'])
+        .select(sql<boolean>`exists (select 1 from deposits d where d.space_id = loans.space_id and d.loan_id = loans.id and d.status = 'pending')`.as('unpaid'))
         .where('loans.id', '=', loanId)
         .where('loans.space_id', '=', ctx.spaceId)
         .executeTakeFirst();
       if (!loan) throw new NotFoundError('No such loan.');
+      if (loan.unpaid)
+        throw new ConflictError('The deposit is not paid yet: it is handed over once the deposit is in.', {
+          loanId: ['deposit not paid'],
+        });
       throw new ConflictError(
         loan.by ? `Already handed over by ${loan.by}.` : 'This loan is not waiting at the bench.',
         { loanId: [loan.by ? 'already handed over' : loan.status] },

@@ -1,4 +1,5 @@
 import 'server-only';
+import { loanMoney, type LoanMoney } from '@/lib/deposits/read';
 import { sql } from 'kysely';
 import type { Db } from '@/db/connect';
 import { scoped } from '@/db/scoped';
@@ -111,7 +112,7 @@ export type LoanDetail = {
   waitingHolds: number;
   reminders: { kind: string; forDay: string; status: string; sentAt: Date | null }[];
   isMine: boolean;
-};
+} & LoanMoney;
 
 export async function getLoan(db: Db, ctx: Ctx, loanId: string): Promise<LoanDetail> {
   const l = await scoped(db, ctx)
@@ -220,6 +221,7 @@ export async function getLoan(db: Db, ctx: Ctx, loanId: string): Promise<LoanDet
     waitingHolds: holds.n,
     reminders,
     isMine: l.borrower_id === ctx.userId,
+    ...(await loanMoney(db, ctx.spaceId, l.id)),
   };
 }
 

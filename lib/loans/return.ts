@@ -4,7 +4,8 @@ import { scoped } from '@/db/scoped';
 import { audit } from '@/lib/audit/log';
 import { isStaff, type Ctx } from '@/lib/auth/roles';
 import { now } from '@/lib/clock';
-import { InvalidError } from '@/lib/errors';
+import { ForbiddenError, InvalidError } from '@/lib/errors';
+import { chargeAndRelease, type Charged } from '@/lib/charges/write';
 import { releaseItem } from './holds';
 import { reportBack } from './handover';
 import { lockOpenLoan } from './lock';
@@ -19,7 +20,15 @@ import type { ReturnInput } from './schemas';
 // Movements: location_id set means that bin's stock row changed by qty_delta; location_id null means
 // no stock row changed and the movement records parts written off from a box or a loan.
 
-export type ReturnResult = { status: 'returned' | 'returned_short' | 'back_unchecked'; readyHoldIds: string[]; short: number };
+export type ReturnResult = {
+  status: 'returned' | 'returned_short' | 'back_unchecked';
+  readyHoldIds: string[];
+  short: number;
+  /** Charges written and the deposit's split (kept / given back); null when neither applies. */
+  charged: Charged | null;
+  /** A deposit whose release was fixed here: its refund goes to the processor after the commit. */
+  depositToSend: string | null;
+};
 
 type Condition = 'ok' | 'missing' | 'damaged';
 
@@ -31,13 +40,22 @@ export async function returnLoan(
 ): Promise<ReturnResult> {
   const staff = isStaff(ctx);
   const { rules } = await loanSettings(db, ctx.spaceId);
+  if (!staff && input.lines?.some((l) => l.chargeMinor !== undefined))
+    throw new ForbiddenError('Only a steward can charge for what is missing or damaged.');
   return db.transaction().execute(async (trx) => {
     // A steward confirms a return the member reported (bench hand-over) like any other return.
     const loan = await lockOpenLoan(trx, ctx, loanId, 'This loan is already returned.', staff ? ['out', 'back_unchecked'] : ['out']);
-    if (!staff && rules.presence === 'bench_handover') {
+    // A held deposit goes back only on a steward's check of what came back, whatever the presence rule.
+    const deposit = await scoped(trx, ctx)
+      .selectFrom('deposits')
+      .select('status')
+      .where('loan_id', '=', loan.id)
+      .where('status', '=', 'held')
+      .executeTakeFirst();
+    if (!staff && (rules.presence === 'bench_handover' || deposit)) {
       // Bench hand-over: the member's word that it is back; nothing moves until a steward has checked it.
       await reportBack(trx, ctx, loan, input.note);
-      return { status: 'back_unchecked', readyHoldIds: [], short: 0 };
+      return { status: 'back_unchecked', readyHoldIds: [], short: 0, charged: null, depositToSend: null };
     }
 
     const lines = await scoped(trx, ctx)
@@ -87,8 +105,12 @@ export async function returnLoan(
         throw new InvalidError(`${l.name}: the returned quantity must leave out what is ${condition}.`, {
           [`${field}.returnedQty`]: [`less than ${l.qty}`],
         });
+      if (g?.chargeMinor !== undefined && condition === 'ok')
+        throw new InvalidError(`${l.name}: a charge is only for what is missing or damaged.`, {
+          [`${field}.chargeMinor`]: ['only on a line missing or damaged'],
+        });
       short += l.qty - returnedQty;
-      return { ...l, returnedQty, condition };
+      return { ...l, returnedQty, condition, chargeMinor: g?.chargeMinor, chargeNote: g?.chargeNote ?? '' };
     });
 
     const status = short > 0 ? 'returned_short' : 'returned';
@@ -131,11 +153,12 @@ export async function returnLoan(
           movements.push(move(l, 'loan_return', 0, null));
           if (!loan.kit_box_id) freed.push(l.unit_id);
         } else {
-          // Out of the box for good: a damaged unit waits for repair, a lost one is retired.
+          // Out of the box for good: a damaged unit waits for repair, a lost one is retired; a damaged one
+          // the borrower is charged for is written off (retired) too — it is paid for.
           await scoped(trx, ctx)
             .updateTable('units')
             .set({
-              state: l.condition === 'damaged' ? 'in_repair' : 'retired',
+              state: l.condition === 'damaged' && l.chargeMinor === undefined ? 'in_repair' : 'retired',
               kit_box_id: null,
               updated_at: at,
             })
@@ -219,6 +242,14 @@ export async function returnLoan(
       if (ready) readyHoldIds.push(ready);
     }
 
+    // Charges for what is missing or damaged, from the deposit first; the rest of the deposit goes back.
+    const toCharge = checked.flatMap((l) =>
+      l.chargeMinor !== undefined && l.condition !== 'ok'
+        ? [{ lineId: l.id, item: l.name, kind: l.condition, amountMinor: l.chargeMinor, note: l.chargeNote }]
+        : [],
+    );
+    const charged = await chargeAndRelease(trx, ctx.spaceId, loan, toCharge, ctx.userId);
+
     await audit(trx, {
       spaceId: ctx.spaceId,
       actorId: ctx.userId,
@@ -237,6 +268,12 @@ export async function returnLoan(
         ...(input.note ? { note: input.note } : {}),
       },
     });
-    return { status, readyHoldIds, short };
+    return {
+      status,
+      readyHoldIds,
+      short,
+      charged: charged.charges.length || charged.release ? charged : null,
+      depositToSend: charged.release?.toSend ? charged.release.depositId : null,
+    };
   });
 }

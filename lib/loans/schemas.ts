@@ -182,6 +182,12 @@ function toSelection(
   return parsed.data;
 }
 
+/** The return's rules that JSON Schema cannot state, published in the API document in words. */
+const RETURN_RULES =
+  'List every line of the loan or none; returnedQty at most the line qty; condition ok only when all came back, ' +
+  'missing or damaged only when some did not. chargeMinor (in the space currency, ISO 4217 minor units) only by a steward, ' +
+  'only on a line missing or damaged; it is taken from the loan deposit first, and the rest is owed.';
+
 export const returnSchema = z
   .object({
     lines: z
@@ -197,6 +203,14 @@ export const returnSchema = z
             condition: z.enum(['ok', 'missing', 'damaged'], {
               error: 'condition must be ok, missing or damaged',
             }),
+            /** A steward charging the borrower for what is missing or damaged on this line (minor units). */
+            chargeMinor: z
+              .number({ error: 'chargeMinor must be a number' })
+              .int({ error: 'chargeMinor must be a whole number of minor units' })
+              .min(1, { error: 'chargeMinor must be at least 1' })
+              .max(99_999_999, { error: 'chargeMinor is at most 99999999' })
+              .optional(),
+            chargeNote: z.string().trim().max(2000).optional(),
           })
           .strict(),
       )
@@ -204,7 +218,8 @@ export const returnSchema = z
       .optional(),
     note: z.string().trim().max(1000).optional(),
   })
-  .strict();
+  .strict()
+  .describe(RETURN_RULES);
 export type ReturnInput = z.infer<typeof returnSchema>;
 
 export const holdSchema = z

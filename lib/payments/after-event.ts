@@ -4,10 +4,15 @@ import { sendReceipts } from '@/lib/mail/sales';
 import { paymentsClient } from './client';
 import { syncRefunds } from './refund-sync';
 import { log } from '@/lib/log';
+import { sendRelease } from '@/lib/deposits/release';
 
 /** What a verified webhook event leaves to do after the answer: receipts, and refunds to fetch. */
-export async function afterPaymentEvent(db: Db, result: { receipts: string[]; refundsToSync: string[] }) {
+export async function afterPaymentEvent(
+  db: Db,
+  result: { receipts: string[]; refundsToSync: string[]; depositsToRelease?: { spaceId: string; depositId: string }[] },
+) {
   await sendReceipts(db, result.receipts);
+  for (const d of result.depositsToRelease ?? []) await sendRelease(db, paymentsClient(d.spaceId), d.spaceId, d.depositId);
   for (const saleId of result.refundsToSync) {
     // across spaces: the sale ids come from the webhook's own lookup (lib/payments/events.ts).
     const sale = await db.selectFrom('sales').select('space_id').where('id', '=', saleId).executeTakeFirst();

@@ -6,6 +6,7 @@ import { acceptPayment } from '@/lib/sales/accept';
 import { markSaleEnded } from '@/lib/sales/paid';
 import { recordRefusedPayment } from '@/lib/sales/refused';
 import { applyRefund, lockSale, parseRefundMetadata, refundsOfSale } from '@/lib/sales/refunds';
+import { applyDepositEvent, ourDeposit } from '@/lib/deposits/events';
 
 export type EventOutcome = {
   outcome: string;
@@ -13,6 +14,8 @@ export type EventOutcome = {
   receipts: string[];
   /** Sales whose refunds the processor is ahead on: fetch their refunds after the commit. */
   refundsToSync: string[];
+  /** Deposits whose release is fixed: the refund goes to the processor after the commit. */
+  depositsToRelease?: { spaceId: string; depositId: string }[];
 };
 
 const UUID = /^[0-9a-f]{8}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{12}$/i;
@@ -93,10 +96,12 @@ type Found = {
 export async function applyPaymentEvent(db: Db, event: Stripe.Event): Promise<EventOutcome> {
   const obj = event.data.object as unknown as Obj;
   return db.transaction().execute(async (trx) => {
-    const sale = await ourSale(trx, event, obj);
-    const claimed = sale ? undefined : await claimedSale(trx, obj);
+    // A loan's deposit is found the same way as a sale: by the processor ids stored on it.
+    const deposit = await ourDeposit(trx, event);
+    const sale = deposit ? undefined : await ourSale(trx, event, obj);
+    const claimed = sale || deposit ? undefined : await claimedSale(trx, obj);
     const spaceId =
-      sale?.space_id ?? claimed?.space_id ?? (await knownSpace(trx, asUuid(obj.metadata?.spaceId)));
+      deposit?.space_id ?? sale?.space_id ?? claimed?.space_id ?? (await knownSpace(trx, asUuid(obj.metadata?.spaceId)));
     // across spaces: every delivery is kept once, also those naming no space of ours (space_id null).
     const inserted = await trx
       .insertInto('payment_events')
@@ -114,7 +119,9 @@ export async function applyPaymentEvent(db: Db, event: Stripe.Event): Promise<Ev
       .executeTakeFirst();
     if (!inserted) return done('duplicate delivery: already applied');
 
-    const result = await dispatch(trx, { event, obj, sale, claimed });
+    const result = deposit
+      ? { receipts: [], refundsToSync: [], ...(await applyDepositEvent(trx, deposit, event)) }
+      : await dispatch(trx, { event, obj, sale, claimed });
     // across spaces: the row inserted just above, by its processor id.
     await trx
       .updateTable('payment_events')

@@ -56,7 +56,7 @@ export function reconciliationCsv(r: Reconciliation): string {
   const rows = r.rows.map((x) => ({
     month: r.month,
     state: STATE_WORDS[x.status],
-    entry: ENTRY_WORDS[x.kind],
+    entry: x.deposit ? (x.kind === 'charge' ? 'deposit taken' : 'deposit given back') : ENTRY_WORDS[x.kind],
     when: when(x.at),
     sale: x.saleRef ?? '',
     buyer: x.buyer ?? '',
@@ -102,6 +102,10 @@ export function totalsCsv(r: Reconciliation): string {
     ['our books', 'cash sales (honour box)', t.ours.cashMinor],
     ['our books', 'card refunds', t.ours.cardRefundsMinor],
     ['our books', 'cash refunds', t.ours.cashRefundsMinor],
+    ['our books', 'deposits taken', t.ours.depositsMinor],
+    ['our books', 'deposits given back', t.ours.depositReleasesMinor],
+    ['our books', 'charges', t.ours.chargesMinor],
+    ['our books', 'charges kept from deposits', t.ours.chargesFromDepositsMinor],
   ];
   return writeCsv(
     ['month', 'side', 'figure', 'amount', 'currency'],

@@ -28,6 +28,21 @@ export type OurRefund = {
   createdAt: Date;
 };
 
+/** A loan's deposit: taken by card (its payment intent) and given back by one refund. */
+export type OurDeposit = {
+  id: string;
+  borrower: string | null;
+  amountMinor: number;
+  paidAt: Date | null;
+  paymentIntentId: string | null;
+  refundId: string | null;
+  releasedMinor: number | null;
+  releasedAt: Date | null;
+};
+
+/** A charge written for a missing or damaged part: how much, and how much of it a deposit covered. */
+export type OurCharge = { amountMinor: number; fromDepositMinor: number; createdAt: Date };
+
 export type ReconRow = {
   key: string;
   kind: 'charge' | 'refund';
@@ -44,6 +59,8 @@ export type ReconRow = {
   processorId: string | null;
   txnId: string | null;
   note: string;
+  /** A loan's deposit (taken, or given back), not a sale. */
+  deposit?: true;
 };
 
 export type ReconTotals = {
@@ -54,7 +71,18 @@ export type ReconTotals = {
     netMinor: number;
     paidOutMinor: number;
   };
-  ours: { cardMinor: number; cashMinor: number; cardRefundsMinor: number; cashRefundsMinor: number };
+  ours: {
+    cardMinor: number;
+    cashMinor: number;
+    cardRefundsMinor: number;
+    cashRefundsMinor: number;
+    /** Deposits taken by card in the period, and given back in it (lib/deposits). */
+    depositsMinor: number;
+    depositReleasesMinor: number;
+    /** Charges written in the period, and the part of them kept from deposits. */
+    chargesMinor: number;
+    chargesFromDepositsMinor: number;
+  };
   counts: Record<ReconStatus, number>;
 };
 
@@ -69,6 +97,9 @@ export function matchPeriod(input: {
   sales: OurSale[];
   /** Our refunds booked in the period, plus any refund the ledger names. */
   refunds: OurRefund[];
+  /** Deposits with money in the period, plus any the ledger names. */
+  deposits?: OurDeposit[];
+  charges?: OurCharge[];
   theirs: TheirTxn[];
 }): { rows: ReconRow[]; totals: ReconTotals; payouts: TheirTxn[] } {
   const inPeriod = (d: Date) => d >= input.from && d < input.to;
@@ -87,7 +118,22 @@ export function matchPeriod(input: {
     (t.paymentIntentId !== null && salesByPi.has(t.paymentIntentId)) ||
     (t.sourceId !== null && refundsByProcessorId.has(t.sourceId)) ||
     (t.spaceId === null && t.currency === currency);
-  const theirs = input.theirs.filter((t) => t.type !== 'payout' && t.type !== 'other' && ours(t));
+  const deposits = input.deposits ?? [];
+  const depositsByPi = new Map(deposits.filter((d) => d.paymentIntentId).map((d) => [d.paymentIntentId!, d]));
+  const depositsByRefund = new Map(deposits.filter((d) => d.refundId).map((d) => [d.refundId!, d]));
+  const depositOf = (t: TheirTxn) =>
+    t.type === 'charge'
+      ? t.paymentIntentId
+        ? depositsByPi.get(t.paymentIntentId)
+        : undefined
+      : t.sourceId
+        ? depositsByRefund.get(t.sourceId)
+        : undefined;
+  const allTheirs = input.theirs.filter(
+    (t) => t.type !== 'payout' && t.type !== 'other' && (ours(t) || depositOf(t) !== undefined),
+  );
+  // A deposit's own entries (its charge, its release) are matched with the deposit, never with a sale.
+  const theirs = allTheirs.filter((t) => depositOf(t) === undefined);
 
   const periodSales = input.sales.filter(
     (s) => s.method === 'card' && MONEY_STATES.has(s.status) && s.paidAt && inPeriod(s.paidAt),
@@ -252,9 +298,10 @@ export function matchPeriod(input: {
         : 'This card refund never reached the processor.',
     });
   }
+  depositRows(input, allTheirs, depositOf, inPeriod, theirPart, none, rows);
   rows.sort((a, b) => (a.at < b.at ? -1 : a.at > b.at ? 1 : a.key.localeCompare(b.key)));
 
-  const counted = theirs.filter((t) => inPeriod(t.created));
+  const counted = allTheirs.filter((t) => inPeriod(t.created));
   const payouts = input.theirs.filter(
     (t) => t.type === 'payout' && t.currency === currency && inPeriod(t.created),
   );
@@ -282,8 +329,76 @@ export function matchPeriod(input: {
         cashRefundsMinor: sum(
           input.refunds.filter((r) => r.method === 'cash' && inPeriod(r.createdAt)).map((r) => r.amountMinor),
         ),
+        depositsMinor: sum(deposits.filter((d) => d.paidAt && inPeriod(d.paidAt)).map((d) => d.amountMinor)),
+        depositReleasesMinor: sum(
+          deposits.filter((d) => d.refundId && d.releasedAt && inPeriod(d.releasedAt)).map((d) => d.releasedMinor ?? 0),
+        ),
+        chargesMinor: sum((input.charges ?? []).filter((c) => inPeriod(c.createdAt)).map((c) => c.amountMinor)),
+        chargesFromDepositsMinor: sum(
+          (input.charges ?? []).filter((c) => inPeriod(c.createdAt)).map((c) => c.fromDepositMinor),
+        ),
       },
       counts,
     },
   };
+}
+
+/** Rows for deposits: each taken and each given back beside the processor's entry for it. */
+function depositRows(
+  input: { deposits?: OurDeposit[] },
+  theirs: TheirTxn[],
+  depositOf: (t: TheirTxn) => OurDeposit | undefined,
+  inPeriod: (d: Date) => boolean,
+  theirPart: (t: TheirTxn) => Pick<ReconRow, 'theirsMinor' | 'feeMinor' | 'netMinor' | 'processorId' | 'txnId'>,
+  none: Pick<ReconRow, 'theirsMinor' | 'differenceMinor' | 'feeMinor' | 'netMinor' | 'processorId' | 'txnId'>,
+  rows: ReconRow[],
+): void {
+  const seen = new Set<string>();
+  for (const t of theirs) {
+    const d = depositOf(t);
+    if (!d) continue;
+    const taking = t.type === 'charge';
+    const ourAt = taking ? d.paidAt : d.releasedAt;
+    if (!(ourAt ? inPeriod(ourAt) : inPeriod(t.created))) continue;
+    const oursMinor = taking ? d.amountMinor : d.releasedMinor;
+    seen.add(`${t.type}-${d.id}`);
+    const same = oursMinor !== null && Math.abs(t.amountMinor) === oursMinor;
+    rows.push({
+      deposit: true,
+      key: t.txnId,
+      kind: t.type === 'charge' ? 'charge' : 'refund',
+      status: same ? 'matched' : 'amount_differs',
+      at: (ourAt ?? t.created).toISOString(),
+      saleId: null,
+      refundId: null,
+      buyer: d.borrower,
+      oursMinor,
+      ...theirPart(t),
+      differenceMinor: oursMinor === null ? null : Math.abs(t.amountMinor) - oursMinor,
+      note: same
+        ? taking
+          ? 'Deposit taken for a loan.'
+          : 'Deposit given back.'
+        : 'The processor moved a different amount from the deposit we hold.',
+    });
+  }
+  for (const d of input.deposits ?? []) {
+    for (const taking of [true, false]) {
+      const at = taking ? d.paidAt : d.refundId ? d.releasedAt : null;
+      if (!at || !inPeriod(at) || seen.has(`${taking ? 'charge' : 'refund'}-${d.id}`)) continue;
+      rows.push({
+        deposit: true,
+        key: `deposit-${taking ? 'taken' : 'released'}-${d.id}`,
+        kind: taking ? 'charge' : 'refund',
+        status: 'ours_only',
+        at: at.toISOString(),
+        saleId: null,
+        refundId: null,
+        buyer: d.borrower,
+        oursMinor: taking ? d.amountMinor : d.releasedMinor,
+        ...none,
+        note: taking ? 'We hold this deposit as paid; the processor shows no charge.' : 'We booked this deposit as given back; the processor shows no refund.',
+      });
+    }
+  }
 }

@@ -7,7 +7,7 @@ import { monthKey, monthRange, spaceClock, type Month } from '@/lib/sales/period
 import { refusedPayments, type ToInvestigate } from './investigate';
 import { fetchLedger, type TheirTxn } from './ledger';
 import { saleRef } from '@/lib/sales/ref';
-import { matchPeriod, type OurRefund, type OurSale, type ReconRow, type ReconTotals } from './match';
+import { matchPeriod, type OurCharge, type OurDeposit, type OurRefund, type OurSale, type ReconRow, type ReconTotals } from './match';
 import { resolutionsOf, type Resolution } from './resolutions';
 
 /** A row as the Books show it: our short sale reference, and the treasurer's note when there is one. */
@@ -53,7 +53,8 @@ export async function reconcileMonth(
     to: new Date(to.getTime() + MARGIN_MS),
   });
   const { sales, refunds } = await ourSide(db, ctx.spaceId, from, to, theirs);
-  const result = matchPeriod({ from, to, spaceId: ctx.spaceId, currency, sales, refunds, theirs });
+  const { deposits, charges } = await ourDepositsAndCharges(db, ctx.spaceId, from, to, theirs);
+  const result = matchPeriod({ from, to, spaceId: ctx.spaceId, currency, sales, refunds, deposits, charges, theirs });
   const closed = await scoped(db, ctx)
     .selectFrom('closed_periods')
     .leftJoin('users', 'users.id', 'closed_periods.closed_by')
@@ -179,5 +180,62 @@ async function ourSide(
       amountMinor: r.amount_minor,
       createdAt: r.created_at,
     })),
+  };
+}
+
+/** Deposits with money in the period (taken or given back), those the ledger names, and the period's charges. */
+async function ourDepositsAndCharges(
+  db: Db,
+  spaceId: string,
+  from: Date,
+  to: Date,
+  theirs: TheirTxn[],
+): Promise<{ deposits: OurDeposit[]; charges: OurCharge[] }> {
+  const pis = [...new Set(theirs.map((t) => t.paymentIntentId).filter((id): id is string => Boolean(id)))];
+  const refundIds = [
+    ...new Set(theirs.filter((t) => t.type === 'refund').map((t) => t.sourceId).filter((id): id is string => Boolean(id))),
+  ];
+  const rows = await scoped(db, { spaceId })
+    .selectFrom('deposits')
+    .innerJoin('loans', 'loans.id', 'deposits.loan_id')
+    .leftJoin('users', 'users.id', 'loans.borrower_id')
+    .select([
+      'deposits.id',
+      'users.name',
+      'deposits.amount_minor',
+      'deposits.paid_at',
+      'deposits.payment_intent_id',
+      'deposits.refund_id',
+      'deposits.released_minor',
+      'deposits.released_at',
+    ])
+    .where((eb) =>
+      eb.or([
+        eb.and([eb('deposits.paid_at', '>=', from), eb('deposits.paid_at', '<', to)]),
+        eb.and([eb('deposits.released_at', '>=', from), eb('deposits.released_at', '<', to)]),
+        ...(pis.length ? [eb('deposits.payment_intent_id', 'in', pis)] : []),
+        ...(refundIds.length ? [eb('deposits.refund_id', 'in', refundIds)] : []),
+      ]),
+    )
+    .execute();
+  const charges = await scoped(db, { spaceId })
+    .selectFrom('charges')
+    .select(['amount_minor', 'from_deposit_minor', 'created_at'])
+    .where('created_at', '>=', from)
+    .where('created_at', '<', to)
+    .execute();
+  return {
+    deposits: rows.map((d) => ({
+      id: d.id,
+      borrower: d.name,
+      amountMinor: d.amount_minor,
+      paidAt: d.paid_at,
+      paymentIntentId: d.payment_intent_id,
+      // A release that kept everything moved no money at the processor: there is no refund to match.
+      refundId: d.refund_id,
+      releasedMinor: d.released_minor,
+      releasedAt: d.released_at,
+    })),
+    charges: charges.map((c) => ({ amountMinor: c.amount_minor, fromDepositMinor: c.from_deposit_minor, createdAt: c.created_at })),
   };
 }

@@ -55,6 +55,16 @@ export const borrowingRulesSchema = z
   .object({
     /** No new loan while one of the member's loans is past its due date. */
     refuseWhileOverdue: z.boolean({ error: 'refuseWhileOverdue must be true or false' }),
+    /**
+     * No new loan while the member owes more than this, in the space's currency (ISO 4217 minor units):
+     * charges less what deposits covered and what was settled. null: no such rule.
+     */
+    refuseWhenOwingOverMinor: z
+      .number({ error: 'refuseWhenOwingOverMinor: a whole number of minor units, or null' })
+      .int('refuseWhenOwingOverMinor: a whole number of minor units')
+      .min(0, 'refuseWhenOwingOverMinor: 0 or more')
+      .max(99_999_999, 'refuseWhenOwingOverMinor: at most 99999999')
+      .nullable(),
     /** The scheduled sweep leaves a member alone this long after any reminder, by hand or scheduled. */
     reminderPauseHours: z
       .number({ error: 'reminderPauseHours: a whole number of hours' })
@@ -76,6 +86,7 @@ export type BorrowingRulesInput = z.input<typeof borrowingRulesSchema>;
 
 export const DEFAULT_RULES: BorrowingRules = {
   refuseWhileOverdue: true,
+  refuseWhenOwingOverMinor: null,
   reminderPauseHours: 12,
   presence: 'self_service',
   week: null,

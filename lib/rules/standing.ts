@@ -4,6 +4,9 @@ import { sql } from 'kysely';
 import type { Db } from '@/db/connect';
 import type { BorrowingRules } from './schema';
 import { formatDateTime } from '@/lib/format';
+import { formatMoney } from '@/lib/money';
+import { owedBy } from '@/lib/charges/owed';
+import { spaceClock } from '@/lib/sales/periods';
 
 // A member's standing: whether the space's rules let them start a new loan now. Read inside the borrow's
 // transaction (under the borrower's lock), so the answer is the one the loan is written against.
@@ -12,6 +15,39 @@ export type StandingRefusal = { message: string; fields: Record<string, string[]
 
 /** Why this person may not borrow now, or null. `self`: the person asking is the borrower. */
 export async function standingRefusal(
+  db: Db,
+  spaceId: string,
+  borrowerId: string,
+  rules: BorrowingRules,
+  at: Date,
+  opts: { self: boolean; timeZone: string },
+): Promise<StandingRefusal | null> {
+  return (await overdueRefusal(db, spaceId, borrowerId, rules, at, opts)) ?? (await owingRefusal(db, spaceId, borrowerId, rules, opts));
+}
+
+/** The "owes more than" rule: what the member owes in charges, against the space's limit. */
+async function owingRefusal(
+  db: Db,
+  spaceId: string,
+  borrowerId: string,
+  rules: BorrowingRules,
+  opts: { self: boolean },
+): Promise<StandingRefusal | null> {
+  const limit = rules.refuseWhenOwingOverMinor;
+  if (limit === null) return null;
+  const owed = await owedBy(db, spaceId, borrowerId);
+  if (owed <= limit) return null;
+  const { currency } = await spaceClock(db, spaceId);
+  const money = (n: number) => formatMoney(n, currency);
+  return {
+    message:
+      `${opts.self ? 'You owe' : 'This member owes'} ${money(owed)} in charges, more than this space allows (${money(limit)}). ` +
+      `No new loan until what is owed is ${money(limit)} or less: settling it with a steward clears it.`,
+    fields: { borrowerId: [`owes ${money(owed)}, over the limit of ${money(limit)}`] },
+  };
+}
+
+async function overdueRefusal(
   db: Db,
   spaceId: string,
   borrowerId: string,

@@ -119,6 +119,10 @@ export const MATRIX: Record<string, Row> = {
   'GET /api/signoffs': { who: 'user', ok: 200 },
   'DELETE /api/signoffs/[id]': { who: W, ok: 404 },
   'POST /api/loans/[id]/hand-over': { who: W, ok: 404 },
+  // Deposits and charges (issue 16)
+  'POST /api/loans/[id]/cancel': { who: 'user', ok: 404 },
+  'POST /api/loans/[id]/deposit-release': { who: W, ok: 404 },
+  'POST /api/people/[id]/settle-charges': { who: W, ok: [400, 404], body: EMPTY },
 };
 
 const ROLES: Role[] = ['member', 'steward', 'treasurer', 'admin'];

@@ -40,6 +40,7 @@ const BODIES: Record<string, unknown> = {
   'POST /api/kits/boxes/[id]/contents': { partId: randomUUID(), qty: 1 },
   'POST /api/kits/boxes/[id]/take-apart': {},
   'POST /api/people/[id]/erase': { confirmEmail: 'nobody@tests.example' },
+  'POST /api/people/[id]/settle-charges': { amountMinor: 100 },
   'PATCH /api/inductions/[id]': { name: 'Taken over' },
   'POST /api/inductions/[id]/signoffs': { userId: randomUUID() },
 };

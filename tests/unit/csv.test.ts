@@ -76,7 +76,16 @@ const report = (buyer: string): Reconciliation => ({
   ],
   totals: {
     processor: { grossMinor: 150, feesMinor: 34, refundsMinor: 0, netMinor: 116, paidOutMinor: 0 },
-    ours: { cardMinor: 300, cashMinor: 0, cardRefundsMinor: 0, cashRefundsMinor: 0 },
+    ours: {
+      cardMinor: 300,
+      cashMinor: 0,
+      cardRefundsMinor: 0,
+      cashRefundsMinor: 0,
+      depositsMinor: 0,
+      depositReleasesMinor: 0,
+      chargesMinor: 0,
+      chargesFromDepositsMinor: 0,
+    },
     counts: { matched: 0, ours_only: 0, theirs_only: 0, amount_differs: 1 },
   },
   payouts: [],

@@ -27,7 +27,7 @@ export default async function SettingsPage() {
       <SettingsForm initial={settings} timeZones={TIME_ZONES} currencies={CURRENCIES} />
       <DeploymentNotes baseUrl={env().APP_BASE_URL} version={APP_VERSION} backups={await lastBackups(db)} />
       <h2 className="mt-10 mb-3 text-xl font-bold">Borrowing rules</h2>
-      <BorrowingRulesForm initial={rules} closingTime={settings.closingTime} />
+      <BorrowingRulesForm initial={rules} closingTime={settings.closingTime} currency={settings.currency} />
     </div>
   );
 }

@@ -78,6 +78,9 @@ import * as inductionsIdSignoffs from '../inductions/[id]/signoffs/route';
 import * as signoffs from '../signoffs/route';
 import * as signoffsId from '../signoffs/[id]/route';
 import * as loansIdHandOver from '../loans/[id]/hand-over/route';
+import * as loansIdCancel from '../loans/[id]/cancel/route';
+import * as peopleIdSettleCharges from '../people/[id]/settle-charges/route';
+import * as loansIdDepositRelease from '../loans/[id]/deposit-release/route';
 
 export const ROUTES: RouteModules = {
   '/api/attachments/{id}': attachmentsId,
@@ -156,4 +159,7 @@ export const ROUTES: RouteModules = {
   '/api/signoffs': signoffs,
   '/api/signoffs/{id}': signoffsId,
   '/api/loans/{id}/hand-over': loansIdHandOver,
+  '/api/loans/{id}/cancel': loansIdCancel,
+  '/api/people/{id}/settle-charges': peopleIdSettleCharges,
+  '/api/loans/{id}/deposit-release': loansIdDepositRelease,
 };

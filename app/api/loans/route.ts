@@ -1,7 +1,8 @@
 import { db } from '@/db';
 import { json, route } from '@/lib/http/route';
 import { listOf, one } from '@/lib/http/shapes';
-import { borrow } from '@/lib/loans/borrow';
+import { borrowWithDeposit } from '@/lib/deposits/borrow';
+import { paymentsDeps } from '@/lib/payments/client';
 import { listLoans } from '@/lib/loans/queries';
 import { borrowSchema, loanFilterSchema } from '@/lib/loans/schemas';
 
@@ -16,10 +17,11 @@ export const GET = route({
 
 export const POST = route({
   method: 'POST',
-  summary: 'Borrows a box or loose parts; the check runs again on the server',
+  summary:
+    'Borrows a box or loose parts; the check runs again on the server. A kit that asks for a deposit answers with its pay page (deposit.url); it is a loan once paid',
   who: 'signed-in',
   body: json(borrowSchema),
   status: 201,
   response: one('loan', 'The new loan.'),
-  run: async ({ ctx, body }) => ({ loan: await borrow(db, ctx, body) }),
+  run: async ({ ctx, body }) => ({ loan: await borrowWithDeposit(db, ctx, body, () => paymentsDeps(ctx.spaceId)) }),
 });

@@ -4,6 +4,8 @@ import { requirePageUser } from '@/lib/auth/guard';
 import { isStaff } from '@/lib/auth/roles';
 import { formatDateTime } from '@/lib/format';
 import { getLoan } from '@/lib/loans/queries';
+import { formatMoney } from '@/lib/money';
+import { spaceClock } from '@/lib/sales/periods';
 import { Cautions } from '@/components/kits/cautions';
 import { CheckReport } from '@/components/kits/check-report';
 import { ActionButton } from '@/components/loans/action-button';
@@ -12,6 +14,7 @@ import { StatePill } from '@/components/ui/state-pill';
 import { orNotFound, pageId } from '../or-not-found';
 import { displayCode } from '@/labels/code';
 import { chainRoleWords } from '@/lib/domain';
+import { LoanMoneyCard } from '@/components/loans/loan-money';
 
 export const metadata = { title: 'Loan' };
 
@@ -22,7 +25,11 @@ export default async function LoanPage({ params }: { params: Promise<{ id: strin
   const loan = await orNotFound(async () => getLoan(db, ctx, pageId((await params).id)));
   const staff = isStaff(ctx);
   const tz = loan.timeZone;
-  const state = loan.status === 'out' && loan.overdue ? 'overdue' : loan.status;
+  const depositDue = loan.status === 'waiting' && loan.deposit?.status === 'pending';
+  const state = loan.status === 'out' && loan.overdue ? 'overdue' : depositDue ? 'deposit_due' : loan.status;
+  const canGiveUp = loan.status === 'waiting' && (staff || loan.isMine);
+  const { currency } = await spaceClock(db, ctx.spaceId);
+  const owedHere = loan.charges.reduce((sum, c) => sum + c.amountMinor - c.fromDepositMinor - c.settledMinor, 0);
   const canRenew = loan.status === 'out' && loan.renewals < loan.maxRenewals && loan.waitingHolds === 0;
   return (
     <div className="mx-auto max-w-xl space-y-4">
@@ -56,20 +63,49 @@ export default async function LoanPage({ params }: { params: Promise<{ id: strin
       <section aria-label="Due date" className="card">
         {loan.status === 'waiting' ? (
           <>
-            <p className="text-lg">Waiting at the bench: kept for {loan.isMine ? 'you' : loan.borrower.name} until a steward hands it over.</p>
-            <p className="muted text-sm">The loan, and its due date, start at the hand-over.</p>
-            {staff ? (
-              <div className="mt-2">
+            {depositDue ? (
+              <>
+                <p className="text-lg">
+                  Kept for {loan.isMine ? 'you' : loan.borrower.name} until the deposit is paid.
+                </p>
+                <p className="muted text-sm">The loan, and its due date, start once the deposit is in.</p>
+                {loan.deposit?.payUrl ? (
+                  <a className="btn-primary mt-2 inline-block" href={loan.deposit.payUrl}>
+                    Pay the deposit
+                  </a>
+                ) : null}
+              </>
+            ) : (
+              <>
+                <p className="text-lg">Waiting at the bench: kept for {loan.isMine ? 'you' : loan.borrower.name} until a steward gives it to them.</p>
+                <p className="muted text-sm">The loan, and its due date, start when it changes hands.</p>
+                {staff ? (
+                  <div className="mt-2">
+                    <ActionButton
+                      url={`/api/loans/${loan.id}/hand-over`}
+                      label={loan.isMine ? 'I have it now: start the loan' : `Give it to ${loan.borrower.name} now`}
+                      busyLabel="Starting the loan…"
+                      done="Done: the loan has started."
+                      variant="primary"
+                    />
+                  </div>
+                ) : null}
+              </>
+            )}
+            {canGiveUp ? (
+              <div className="mt-3">
                 <ActionButton
-                  url={`/api/loans/${loan.id}/hand-over`}
-                  label="Hand it over"
-                  busyLabel="Handing over…"
-                  done="Handed over."
-                  variant="primary"
+                  url={`/api/loans/${loan.id}/cancel`}
+                  label={loan.isMine ? 'I no longer want it' : 'Give up this borrow'}
+                  busyLabel="Putting it back…"
+                  done="Given up: it is back for others."
+                  confirm="Put everything back for others to borrow?"
                 />
               </div>
             ) : null}
           </>
+        ) : loan.status === 'cancelled' ? (
+          <p className="text-lg">Given up before it was lent: everything went back.</p>
         ) : loan.status === 'back_unchecked' ? (
           <p className="text-lg">
             Back, not yet checked: {staff ? 'check what came back below and confirm.' : 'a steward checks what came back and confirms.'}
@@ -108,6 +144,25 @@ export default async function LoanPage({ params }: { params: Promise<{ id: strin
           </p>
         )}
       </section>
+
+      <LoanMoneyCard deposit={loan.deposit} charges={loan.charges} isMine={loan.isMine} />
+      {staff && owedHere > 0 ? (
+        <ActionButton
+          url={`/api/people/${loan.borrower.id}/settle-charges`}
+          body={{ amountMinor: owedHere }}
+          label={`Record ${formatMoney(owedHere, currency)} paid in cash`}
+          busyLabel="Recording…"
+          done="Recorded."
+        />
+      ) : null}
+      {staff && loan.deposit?.status === 'releasing' ? (
+        <ActionButton
+          url={`/api/loans/${loan.id}/deposit-release`}
+          label="Send the deposit back again"
+          busyLabel="Sending…"
+          done="Sent back to the card."
+        />
+      ) : null}
 
       {loan.override ? (
         <section aria-label="Override" className="card border-red-300 dark:border-red-800">
@@ -161,6 +216,8 @@ export default async function LoanPage({ params }: { params: Promise<{ id: strin
         <ReturnForm
           loanId={loan.id}
           lines={loan.lines.map((l) => ({ id: l.id, name: l.name, qty: l.qty, unitCode: l.unitCode }))}
+          canCharge={staff}
+          currency={currency}
         />
       ) : null}
 

@@ -3,6 +3,8 @@ import { db } from '@/db';
 import { requirePageUser } from '@/lib/auth/guard';
 import { isStaff } from '@/lib/auth/roles';
 import { formatDateTime } from '@/lib/format';
+import { formatMoney } from '@/lib/money';
+import { spaceClock } from '@/lib/sales/periods';
 import { getBox } from '@/lib/kits/box-detail';
 import { previewLoan } from '@/lib/loans/preview';
 import { spaceMembers } from '@/lib/loans/queries';
@@ -81,6 +83,11 @@ export default async function KitBoxPage({ params }: { params: Promise<{ id: str
           members={members}
           userId={ctx.userId}
           inductions={preview.inductions}
+          deposit={
+            box.template.depositMinor
+              ? formatMoney(box.template.depositMinor, (await spaceClock(db, ctx.spaceId)).currency)
+              : null
+          }
         />
       ) : (
         <HoldSection box={box} />

@@ -1,6 +1,7 @@
 import { db } from '@/db';
 import { requirePageRole } from '@/lib/auth/guard';
 import { partsForKits } from '@/lib/kits/templates';
+import { spaceClock } from '@/lib/sales/periods';
 import { TemplateForm } from '@/components/kits/template-form';
 import { PageTitle } from '@/components/ui/page-title';
 
@@ -15,7 +16,7 @@ export default async function NewTemplatePage() {
         title="New kit"
         lead="A named parts list. Mark the supply, driver, LEDs and lead so every box of it is checked before it goes out."
       />
-      <TemplateForm parts={parts} />
+      <TemplateForm parts={parts} currency={(await spaceClock(db, ctx.spaceId)).currency} />
     </div>
   );
 }

@@ -1,6 +1,7 @@
 import { db } from '@/db';
 import { requirePageRole } from '@/lib/auth/guard';
 import { getTemplate, partsForKits } from '@/lib/kits/templates';
+import { spaceClock } from '@/lib/sales/periods';
 import { TemplateForm } from '@/components/kits/template-form';
 import { PageTitle } from '@/components/ui/page-title';
 import { orNotFound, pageId } from '../../../../loans/or-not-found';
@@ -20,11 +21,13 @@ export default async function EditTemplatePage({ params }: { params: Promise<{ i
       <TemplateForm
         parts={parts}
         templateId={t.id}
+        currency={(await spaceClock(db, ctx.spaceId)).currency}
         initial={{
           name: t.name,
           description: t.description,
           teachingNotes: t.teachingNotes,
           cautions: t.cautions,
+          depositMinor: t.depositMinor,
           lines: t.lines.map((l) => ({ partId: l.partId, qty: l.qty, chainRole: l.chainRole })),
         }}
       />
