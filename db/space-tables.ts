@@ -34,6 +34,12 @@ export const SPACE_TABLES = [
   'kit_template_inductions',
   'category_inductions',
   'induction_signoffs',
+  'suppliers',
+  'supplier_offers',
+  'order_lists',
+  'order_lines',
+  'order_receipts',
+  'order_receipt_lines',
 ] as const satisfies readonly (keyof Database)[];
 
 export type SpaceTable = (typeof SPACE_TABLES)[number];

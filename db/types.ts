@@ -426,6 +426,95 @@ export interface Database {
   kit_template_inductions: KitTemplateInductionsTable;
   category_inductions: CategoryInductionsTable;
   induction_signoffs: InductionSignoffsTable;
+  // Restocking (migration 0012)
+  suppliers: SuppliersTable;
+  supplier_offers: SupplierOffersTable;
+  order_lists: OrderListsTable;
+  order_lines: OrderLinesTable;
+  order_receipts: OrderReceiptsTable;
+  order_receipt_lines: OrderReceiptLinesTable;
+}
+
+/** Where a space buys its parts (migration 0012). */
+export interface SuppliersTable {
+  id: Generated<string>;
+  space_id: string;
+  name: string;
+  website: Generated<string>;
+  email: Generated<string>;
+  lead_days: Generated<number>;
+  min_order_minor: Generated<number>;
+  notes: Generated<string>;
+  archived_at: TimestampNullable;
+  created_at: TimestampDefault;
+}
+
+/** What one supplier sells of one part: their reference, pack size and price per pack (minor units). */
+export interface SupplierOffersTable {
+  id: Generated<string>;
+  space_id: string;
+  supplier_id: string;
+  part_id: string;
+  item_ref: Generated<string>;
+  pack_size: number;
+  pack_price_minor: number;
+  preferred: Generated<boolean>;
+  created_at: TimestampDefault;
+}
+
+export type OrderState = 'draft' | 'sent' | 'part_in' | 'all_in' | 'called_off';
+
+/** An order list to one supplier (migration 0012). */
+export interface OrderListsTable {
+  id: Generated<string>;
+  space_id: string;
+  supplier_id: string;
+  state: Generated<OrderState>;
+  currency: string;
+  note: Generated<string>;
+  created_by: string | null;
+  created_at: TimestampDefault;
+  sent_at: TimestampNullable;
+  sent_by: ColumnType<string | null, string | null | undefined, string | null>;
+  expected_at: TimestampNullable;
+  approved_at: TimestampNullable;
+  approved_by: ColumnType<string | null, string | null | undefined, string | null>;
+  approval_note: ColumnType<string | null, string | null | undefined, string | null>;
+  closed_at: TimestampNullable;
+  cancel_note: ColumnType<string | null, string | null | undefined, string | null>;
+}
+
+export interface OrderLinesTable {
+  id: Generated<string>;
+  space_id: string;
+  order_id: string;
+  part_id: string;
+  item_ref: Generated<string>;
+  pack_size: number;
+  packs: number;
+  pack_price_minor: number;
+  received_units: Generated<number>;
+}
+
+export interface OrderReceiptsTable {
+  id: Generated<string>;
+  space_id: string;
+  order_id: string;
+  idempotency_key: string;
+  received_by: string | null;
+  received_at: TimestampDefault;
+  result: JsonDefault<Record<string, unknown>>;
+}
+
+export interface OrderReceiptLinesTable {
+  id: Generated<string>;
+  space_id: string;
+  receipt_id: string;
+  line_id: string;
+  part_id: string;
+  location_id: string | null;
+  units: number;
+  cost_minor: number;
 }
 
 /** What a space shows a member before they may borrow certain things (migration 0006). */
