@@ -9,9 +9,9 @@ type Json<T = unknown> = ColumnType<T, string, string>;
 type JsonDefault<T = unknown> = ColumnType<T, string | undefined, string>;
 type JsonNullable<T = unknown> = ColumnType<T | null, string | null | undefined, string | null>;
 
-import type { ChainRole, LabelKind, LoanStatus, MovementReason, PartCategory, Role, SaleStatus, UnitState } from '@/lib/domain';
+import type { ChainRole, LabelKind, LoanStatus, MovementReason, OrderState, PartCategory, Role, SaleStatus, UnitState } from '@/lib/domain';
 
-export type { ChainRole, LabelKind, LoanStatus, MovementReason, PartCategory, Role, SaleStatus, UnitState };
+export type { ChainRole, LabelKind, LoanStatus, MovementReason, OrderState, PartCategory, Role, SaleStatus, UnitState };
 
 export interface SpacesTable {
   id: Generated<string>;
@@ -462,7 +462,6 @@ export interface SupplierOffersTable {
   created_at: TimestampDefault;
 }
 
-export type OrderState = 'draft' | 'sent' | 'part_in' | 'all_in' | 'called_off';
 
 /** An order list to one supplier (migration 0012). */
 export interface OrderListsTable {
