@@ -20,7 +20,8 @@ export const supplierSchema = z.object({
   name: z.string({ error: 'name is required' }).trim().min(1, 'name is required').max(120, 'name is at most 120 characters'),
   website: z
     .union([z.literal(''), z.url({ protocol: /^https?$/, error: 'website must be an http(s) address' })])
-    .default(''),
+    .default('')
+    .describe('Empty, or an address of the web: website must be an http(s) address.'),
   email: z.union([z.literal(''), z.email({ error: 'contact e-mail must be an e-mail address' })]).default(''),
   leadDays: whole('lead time', 0, 365).default(7),
   minOrderMinor: minor('minimum order').default(0),

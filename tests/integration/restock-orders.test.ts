@@ -252,6 +252,17 @@ describe('an order list from draft to arrival', () => {
     // The month's spend: 15.60 + 9.60 + 12.00 of solder and 45.00 for the supply that came = 82.20.
     const budget = await json<{ budget: { receivedMinor: number; committedMinor: number; budgetMinor: number } }>(await admin.get('/api/settings/restocking'));
     expect(budget.budget).toMatchObject({ receivedMinor: 8220, committedMinor: 3600, budgetMinor: 3000 });
+    // The treasurer's Books month shows the same spend beside the sales, per category.
+    const t = await makeUser(db, spaceId, ['treasurer'], 'Spend treasurer');
+    const treasurer = await signedIn(t.email, t.password);
+    const month = new Date().toISOString().slice(0, 7);
+    const page = await treasurer.get(`/books?month=${month}`);
+    expect(page.status).toBe(200);
+    const html = (await page.text()).replace(/<!-- -->/g, '');
+    expect(html).toContain('Restocking beside sales');
+    expect(html).toContain('spent $37.20'); // consumables: 15.60 + 9.60 + 12.00
+    expect(html).toContain('spent $45.00'); // supplies
+    expect(html).toContain('spent $82.20'); // all categories
   });
 
   test('the Receive page’s own route answers new units’ codes for a labelled part (one service)', async () => {
