@@ -5,6 +5,7 @@ import { scoped } from '@/db/scoped';
 import { hasRole, type Ctx } from '@/lib/auth/roles';
 import { now } from '@/lib/clock';
 import { boxesOutOfService, type OutOfServiceBox } from '@/lib/kits/upkeep';
+import { budgetFigures, type BudgetFigures } from '@/lib/restock/budget';
 import { overdueOrders } from '@/lib/restock/orders';
 import { whatToOrder } from '@/lib/restock/to-order-query';
 
@@ -20,7 +21,14 @@ export type TodaySummary = {
     toOrder: number;
     overdueOrders: { id: string; supplierName: string; sentAt: Date; expectedAt: Date }[];
   };
-  treasurer?: { pendingSales: number; oldPending: number; paidThisMonthMinor: number; currency: string };
+  treasurer?: {
+    pendingSales: number;
+    oldPending: number;
+    paidThisMonthMinor: number;
+    currency: string;
+    /** Restocking this month: received at the price paid, committed, against the monthly budget. */
+    restock: BudgetFigures;
+  };
   admin?: { people: number; openInvitations: number };
 };
 
@@ -102,7 +110,13 @@ export async function todaySummary(db: Db, ctx: Ctx): Promise<TodaySummary> {
       ])
       .where('space_id', '=', ctx.spaceId)
       .executeTakeFirstOrThrow();
-    summary.treasurer = { pendingSales: row.pending, oldPending: row.old, paidThisMonthMinor: row.paid, currency: space.currency.trim() };
+    summary.treasurer = {
+      pendingSales: row.pending,
+      oldPending: row.old,
+      paidThisMonthMinor: row.paid,
+      currency: space.currency.trim(),
+      restock: await budgetFigures(db, ctx),
+    };
   }
 
   if (hasRole(ctx, 'admin')) {

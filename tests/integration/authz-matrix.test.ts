@@ -135,6 +135,7 @@ export const MATRIX: Record<string, Row> = {
   'POST /api/orders/[id]/receive': { who: W, ok: [400, 404], body: EMPTY },
   'POST /api/orders/[id]/cancel': { who: W, ok: [400, 404], body: EMPTY },
   'POST /api/orders/[id]/approve': { who: A, ok: [400, 404], body: EMPTY },
+  'GET /api/orders/[id]/pdf': { who: W, ok: 404 },
   'GET /api/settings/restocking': { who: A, ok: 200 },
   'PATCH /api/settings/restocking': { who: A, ok: 400, body: EMPTY },
 };

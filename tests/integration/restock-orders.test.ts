@@ -1,4 +1,5 @@
 import { randomUUID } from 'node:crypto';
+import { PDFDocument } from 'pdf-lib';
 import { afterAll, beforeAll, describe, expect, test } from 'vitest';
 import { waitForMessage } from '@/lib/mail/mailbox';
 import { closeTestDb, makeLocation, makePart, makeSpace, makeStock, makeUnit, makeUser, testDb } from '../helpers/db';
@@ -153,6 +154,13 @@ describe('an order list from draft to arrival', () => {
       'line,your reference,our SKU,description,packs,pack size,units,price per pack (minor units),line total (minor units),currency',
     );
     expect(csv?.text).toContain(',3,5,15,1200,3600,USD');
+    const pdf = await steward.get(`/api/orders/${ids.order}/pdf`);
+    expect(pdf.status).toBe(200);
+    expect(pdf.headers.get('content-type')).toBe('application/pdf');
+    const bytes = Buffer.from(await pdf.arrayBuffer());
+    expect(bytes.subarray(0, 5).toString()).toBe('%PDF-');
+    expect((await PDFDocument.load(bytes)).getTitle()).toBe('Order list to Copperleaf Supply');
+    expect((await member.get(`/api/orders/${ids.order}/pdf`)).status).toBe(403);
     const audit = await db.selectFrom('audit_log').select('action').where('target_id', '=', ids.order).execute();
     expect(audit.map((a) => a.action).sort()).toEqual(['order.approved', 'order.created', 'order.sent', 'order.updated']);
     // Now on order: the solder no longer shows in what to order (3 + 15 on order ≥ 10).

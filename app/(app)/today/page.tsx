@@ -121,6 +121,13 @@ export default async function TodayPage() {
             {s.treasurer.oldPending ? `, ${s.treasurer.oldPending} of them for over an hour` : ''}.{' '}
             <Link href="/books">Open the books</Link>
           </p>
+          <p className="mt-1">
+            Restocking received this month: <strong>{formatMoney(s.treasurer.restock.receivedMinor, s.treasurer.currency)}</strong>
+            {s.treasurer.restock.budgetMinor !== null
+              ? ` of a ${formatMoney(s.treasurer.restock.budgetMinor, s.treasurer.currency)} budget (${formatMoney(s.treasurer.restock.committedMinor, s.treasurer.currency)} committed)`
+              : ' (no monthly budget set)'}
+            .
+          </p>
         </section>
       ) : null}
 

@@ -90,6 +90,7 @@ import * as ordersIdSend from '../orders/[id]/send/route';
 import * as ordersIdReceive from '../orders/[id]/receive/route';
 import * as ordersIdCancel from '../orders/[id]/cancel/route';
 import * as ordersIdApprove from '../orders/[id]/approve/route';
+import * as ordersIdPdf from '../orders/[id]/pdf/route';
 import * as settingsRestocking from '../settings/restocking/route';
 
 export const ROUTES: RouteModules = {
@@ -181,5 +182,6 @@ export const ROUTES: RouteModules = {
   '/api/orders/{id}/receive': ordersIdReceive,
   '/api/orders/{id}/cancel': ordersIdCancel,
   '/api/orders/{id}/approve': ordersIdApprove,
+  '/api/orders/{id}/pdf': ordersIdPdf,
   '/api/settings/restocking': settingsRestocking,
 };

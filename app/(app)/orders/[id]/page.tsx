@@ -27,7 +27,11 @@ export default async function OrderPage({ params }: { params: Promise<{ id: stri
       <Link href="/orders" className="inline-block min-h-11 content-center text-sm">
         ← Restock
       </Link>
-      <PageTitle title={`Order list to ${order.supplier.name}`} lead={ORDER_STATE_WORDS[order.state]} />
+      <PageTitle title={`Order list to ${order.supplier.name}`} lead={ORDER_STATE_WORDS[order.state]}>
+        <a href={`/api/orders/${order.id}/pdf`} className="btn-quiet" target="_blank" rel="noreferrer">
+          Printable list (PDF)
+        </a>
+      </PageTitle>
       <section className="card space-y-2" aria-labelledby="about">
         <h2 id="about" className="text-lg font-bold">
           {money(order.totalMinor)} as ordered
