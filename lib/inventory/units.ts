@@ -9,8 +9,8 @@ import type { Ctx } from '@/lib/auth/roles';
 import { now } from '@/lib/clock';
 import { ConflictError, InvalidError, NotFoundError } from '@/lib/errors';
 import { issueCodes } from './codes';
-import type { addUnitsSchema, moveUnitSchema, unitStateSchema } from './schemas';
-import { assertId, findLocation, findPart } from './scope';
+import type { moveUnitSchema, unitStateSchema } from './schemas';
+import { assertId, findLocation } from './scope';
 import { inTransaction } from './tx';
 
 /** Inside the caller's transaction: `count` new units on the shelf, each with its own code and a receive movement. */

@@ -9,7 +9,7 @@ import { receiveOnShelf } from '@/lib/inventory/receive';
 import { findPart } from '@/lib/inventory/scope';
 import { inTransaction } from '@/lib/inventory/tx';
 import { receivedCostMinor } from './order-words';
-import { findOrder, orderDetail, orderLines } from './orders';
+import { findOrder, orderLines } from './orders';
 import type { OrderReceiveInput } from './schemas';
 
 // Receiving against an order list. One transaction holds the stock (through the same receive service
