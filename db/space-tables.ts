@@ -36,6 +36,12 @@ export const SPACE_TABLES = [
   'induction_signoffs',
   'deposits',
   'charges',
+  'suppliers',
+  'supplier_offers',
+  'order_lists',
+  'order_lines',
+  'order_receipts',
+  'order_receipt_lines',
 ] as const satisfies readonly (keyof Database)[];
 
 export type SpaceTable = (typeof SPACE_TABLES)[number];

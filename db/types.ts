@@ -9,9 +9,9 @@ type Json<T = unknown> = ColumnType<T, string, string>;
 type JsonDefault<T = unknown> = ColumnType<T, string | undefined, string>;
 type JsonNullable<T = unknown> = ColumnType<T | null, string | null | undefined, string | null>;
 
-import type { ChainRole, LabelKind, LoanStatus, MovementReason, PartCategory, Role, SaleStatus, UnitState } from '@/lib/domain';
+import type { ChainRole, LabelKind, LoanStatus, MovementReason, OrderState, PartCategory, Role, SaleStatus, UnitState } from '@/lib/domain';
 
-export type { ChainRole, LabelKind, LoanStatus, MovementReason, PartCategory, Role, SaleStatus, UnitState };
+export type { ChainRole, LabelKind, LoanStatus, MovementReason, OrderState, PartCategory, Role, SaleStatus, UnitState };
 
 export interface SpacesTable {
   id: Generated<string>;
@@ -433,6 +433,13 @@ export interface Database {
   // Deposits and charges (migration 0011)
   deposits: DepositsTable;
   charges: ChargesTable;
+  // Restocking (migration 0012)
+  suppliers: SuppliersTable;
+  supplier_offers: SupplierOffersTable;
+  order_lists: OrderListsTable;
+  order_lines: OrderLinesTable;
+  order_receipts: OrderReceiptsTable;
+  order_receipt_lines: OrderReceiptLinesTable;
 }
 
 export type DepositStatus = 'pending' | 'held' | 'releasing' | 'released' | 'ended';
@@ -476,6 +483,87 @@ export interface ChargesTable {
   settled_minor: Generated<number>;
   created_by: string | null;
   created_at: TimestampDefault;
+}
+
+/** Where a space buys its parts (migration 0012). */
+export interface SuppliersTable {
+  id: Generated<string>;
+  space_id: string;
+  name: string;
+  website: Generated<string>;
+  email: Generated<string>;
+  lead_days: Generated<number>;
+  min_order_minor: Generated<number>;
+  notes: Generated<string>;
+  archived_at: TimestampNullable;
+  created_at: TimestampDefault;
+}
+
+/** What one supplier sells of one part: their reference, pack size and price per pack (minor units). */
+export interface SupplierOffersTable {
+  id: Generated<string>;
+  space_id: string;
+  supplier_id: string;
+  part_id: string;
+  item_ref: Generated<string>;
+  pack_size: number;
+  pack_price_minor: number;
+  preferred: Generated<boolean>;
+  created_at: TimestampDefault;
+}
+
+
+/** An order list to one supplier (migration 0012). */
+export interface OrderListsTable {
+  id: Generated<string>;
+  space_id: string;
+  supplier_id: string;
+  state: Generated<OrderState>;
+  currency: string;
+  note: Generated<string>;
+  created_by: string | null;
+  created_at: TimestampDefault;
+  sent_at: TimestampNullable;
+  sent_by: ColumnType<string | null, string | null | undefined, string | null>;
+  expected_at: TimestampNullable;
+  approved_at: TimestampNullable;
+  approved_by: ColumnType<string | null, string | null | undefined, string | null>;
+  approval_note: ColumnType<string | null, string | null | undefined, string | null>;
+  closed_at: TimestampNullable;
+  cancel_note: ColumnType<string | null, string | null | undefined, string | null>;
+}
+
+export interface OrderLinesTable {
+  id: Generated<string>;
+  space_id: string;
+  order_id: string;
+  part_id: string;
+  item_ref: Generated<string>;
+  pack_size: number;
+  packs: number;
+  pack_price_minor: number;
+  received_units: Generated<number>;
+}
+
+export interface OrderReceiptsTable {
+  id: Generated<string>;
+  space_id: string;
+  order_id: string;
+  idempotency_key: string;
+  received_by: string | null;
+  received_at: TimestampDefault;
+  result: JsonDefault<Record<string, unknown>>;
+}
+
+export interface OrderReceiptLinesTable {
+  id: Generated<string>;
+  space_id: string;
+  receipt_id: string;
+  line_id: string;
+  part_id: string;
+  location_id: string | null;
+  units: number;
+  cost_minor: number;
 }
 
 /** What a space shows a member before they may borrow certain things (migration 0006). */

@@ -8,6 +8,8 @@ export type ChainRole = 'supply' | 'driver' | 'led' | 'wire';
 export type LabelKind = 'unit' | 'part' | 'location' | 'kit_box';
 /** waiting: at the bench until a steward hands it over; back_unchecked: returned by the member, not yet checked (bench hand-over, issue 16). */
 export type LoanStatus = 'waiting' | 'out' | 'back_unchecked' | 'returned' | 'returned_short' | 'cancelled';
+/** Order list states (restocking, migration 0012): draft, with the supplier, part arrived, all arrived, called off. */
+export type OrderState = 'draft' | 'sent' | 'part_in' | 'all_in' | 'called_off';
 export type SaleStatus = 'pending' | 'paid' | 'failed' | 'expired' | 'refunded' | 'partially_refunded' | 'reversed';
 export type MovementReason =
   | 'receive' | 'move_in' | 'move_out' | 'adjust' | 'count' | 'loan_out' | 'loan_return' | 'lost' | 'damaged'

@@ -36,17 +36,20 @@ export function StockForm({
 
   /** The request this form makes for the chosen part, and what to say when it succeeds. */
   async function submitFor(p: PickedPart, get: (k: string) => string): Promise<string> {
-    if (mode === 'receive' && p.tracking === 'unit') {
-      const r = await api<{ units: { code: string }[] }>(`/api/parts/${p.id}/units`, {
-        body: { count: Number(get('qty')), locationId: get('locationId') || null },
-      });
-      setNewUnits({ partName: p.name, codes: r.units.map((u) => u.code) });
-      return `${r.units.length} new unit${r.units.length === 1 ? '' : 's'} of ${p.name} labelled. Print their labels below.`;
-    }
     if (mode === 'receive') {
-      const r = await api<{ qty: number }>('/api/stock/receive', {
-        body: { partId: p.id, locationId: get('locationId'), qty: Number(get('qty')), note: get('note') },
+      // One receive service for both kinds: a labelled part gets new units and answers their codes.
+      const r = await api<{ qty: number; units: { code: string }[] }>('/api/stock/receive', {
+        body: {
+          partId: p.id,
+          locationId: get('locationId') || null,
+          qty: Number(get('qty')),
+          note: get('note'),
+        },
       });
+      if (p.tracking === 'unit') {
+        setNewUnits({ partName: p.name, codes: r.units.map((u) => u.code) });
+        return `${r.units.length} new unit${r.units.length === 1 ? '' : 's'} of ${p.name} labelled. Print their labels below.`;
+      }
       return `Received. That bin now holds ${r.qty} of ${p.name}.`;
     }
     const r = await api<{ fromQty: number; toQty: number }>('/api/stock/move', {

@@ -8,6 +8,7 @@ import { checkKit } from '@/lib/electrical';
 import { computeDueAt } from '@/lib/loans/due';
 import { DEMO_PARTS, FERNWICK_SKUS } from './parts';
 import { DEMO_PASSWORD, DEMO_PEOPLE } from './people';
+import { seedRestock } from './restock';
 
 type SpaceKey = 'quillmere' | 'fernwick';
 const RULES: Record<SpaceKey, { closingTime: string; timeZone: string }> = {
@@ -208,6 +209,9 @@ export async function seedDemo(db: Db, clock: Date = new Date()): Promise<{ seed
         await trx.updateTable('units').set({ state: 'in_repair', notes: 'Output flickers above 20 V in; check the sense resistor joint.' }).where('id', '=', broken).execute();
         await trx.insertInto('stock_movements').values({ space_id: spaceId, part_id: partIds['DRV-B700-30'], unit_id: broken, qty_delta: 0, reason: 'repair', note: 'flickers', actor_id: steward }).execute();
       }
+
+      // Suppliers, offers, a budget and two order lists (issue 13), at Quillmere.
+      if (key === 'quillmere') await seedRestock(trx, spaceId, partIds, bins, steward, clock);
 
       // Kit templates and boxes built from labelled units and counted stock.
       const templates = key === 'quillmere' ? TEMPLATES : TEMPLATES.slice(0, 1);

@@ -58,6 +58,8 @@ export function mailboxMessagePage(m: StoredMessage): string {
     m.subject || 'Message',
     `<p><a href="/">← All mail</a></p><h1>${escape(m.subject || '(no subject)')}</h1>
 <p class="meta">from ${escape(m.from)}<br>to ${escape(m.to.join(', '))}<br>${escape(m.receivedAt)}</p>
-<pre>${linkify(m.text)}</pre>`,
+<pre>${linkify(m.text)}</pre>${(m.attachments ?? [])
+      .map((a) => `<h2>Attached: ${escape(a.filename)} (${escape(a.contentType)}, ${a.size} bytes)</h2>${a.text !== null ? `<pre>${escape(a.text)}</pre>` : ''}`)
+      .join('')}`,
   );
 }

@@ -110,6 +110,12 @@ async function receive(
     text: parsed.text ?? '',
     html: typeof parsed.html === 'string' ? parsed.html : null,
     messageId: parsed.messageId ?? null,
+    attachments: parsed.attachments.map((a) => ({
+      filename: a.filename ?? 'attachment',
+      contentType: a.contentType,
+      size: a.size,
+      text: /^text\//.test(a.contentType) ? a.content.toString('utf8') : null,
+    })),
   };
   await store.add(message);
   return message;

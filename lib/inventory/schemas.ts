@@ -114,7 +114,15 @@ const qtyPositive = wholeQty('quantity')
   .max(1_000_000, 'quantity is too large');
 const note = z.string().trim().max(500).default('');
 
-export const receiveSchema = z.object({ partId: uuid, locationId: uuid, qty: qtyPositive, note });
+export const receiveSchema = z.object({
+  partId: uuid,
+  locationId: uuid
+    .nullable()
+    .default(null)
+    .describe('The bin: required for a counted part (400 "choose a bin"); a labelled part may have none yet.'),
+  qty: qtyPositive,
+  note,
+});
 export const moveSchema = z
   .object({ partId: uuid, fromLocationId: uuid, toLocationId: uuid, qty: qtyPositive, note })
   .refine((m) => m.fromLocationId !== m.toLocationId, {

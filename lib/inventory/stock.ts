@@ -7,7 +7,7 @@ import { audit } from '@/lib/audit/log';
 import type { Ctx } from '@/lib/auth/roles';
 import { now } from '@/lib/clock';
 import { ConflictError, InvalidError } from '@/lib/errors';
-import type { adjustSchema, moveSchema, receiveSchema } from './schemas';
+import type { adjustSchema, moveSchema } from './schemas';
 import { findLocation, findPart } from './scope';
 import { inTransaction } from './tx';
 
@@ -105,30 +105,7 @@ export async function recordMovement(
     .execute();
 }
 
-/** Stock arrives in a bin. */
-export async function receiveStock(db: Db, ctx: Ctx, input: z.output<typeof receiveSchema>) {
-  return inTransaction(db, async (trx) => {
-    await countedPart(trx, ctx, input.partId);
-    await findLocation(trx, ctx, input.locationId);
-    const qty = await addToBin(trx, ctx, input.partId, input.locationId, input.qty);
-    await recordMovement(trx, ctx, {
-      partId: input.partId,
-      locationId: input.locationId,
-      delta: input.qty,
-      reason: 'receive',
-      note: input.note,
-    });
-    await audit(trx, {
-      spaceId: ctx.spaceId,
-      actorId: ctx.userId,
-      action: 'stock.received',
-      targetType: 'part',
-      targetId: input.partId,
-      detail: { locationId: input.locationId, qty: input.qty },
-    });
-    return { partId: input.partId, locationId: input.locationId, qty };
-  });
-}
+// Stock arriving (the Receive page, an order list's arrival) is lib/inventory/receive.ts.
 
 /** Moves n from one bin to another: both rows locked in a fixed order, so opposite moves cannot deadlock. */
 export async function moveStock(db: Db, ctx: Ctx, input: z.output<typeof moveSchema>) {

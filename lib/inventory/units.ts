@@ -9,8 +9,8 @@ import type { Ctx } from '@/lib/auth/roles';
 import { now } from '@/lib/clock';
 import { ConflictError, InvalidError, NotFoundError } from '@/lib/errors';
 import { issueCodes } from './codes';
-import type { addUnitsSchema, moveUnitSchema, unitStateSchema } from './schemas';
-import { assertId, findLocation, findPart } from './scope';
+import type { moveUnitSchema, unitStateSchema } from './schemas';
+import { assertId, findLocation } from './scope';
 import { inTransaction } from './tx';
 
 /** Inside the caller's transaction: `count` new units on the shelf, each with its own code and a receive movement. */
@@ -21,6 +21,7 @@ export async function insertUnits(
   count: number,
   locationId: string | null,
   serialPrefix?: string,
+  movement: { note?: string; refType?: string; refId?: string } = {},
 ): Promise<{ id: string; code: string }[]> {
   const existing = await scoped(trx, ctx)
     .selectFrom('units')
@@ -53,42 +54,14 @@ export async function insertUnits(
         unit_id: id,
         qty_delta: 1,
         reason: 'receive' as const,
-        note: 'labelled unit added',
+        note: movement.note || 'labelled unit added',
+        ref_type: movement.refType ?? null,
+        ref_id: movement.refId ?? null,
         actor_id: ctx.userId,
       })),
     )
     .execute();
   return ids.map((id, i) => ({ id, code: codes[i] }));
-}
-
-/** Labels `count` new units of a labelled part. */
-export async function addUnits(db: Db, ctx: Ctx, partId: string, input: z.output<typeof addUnitsSchema>) {
-  return inTransaction(db, async (trx) => {
-    const part = await findPart(trx, ctx, partId);
-    if (part.tracking !== 'unit') {
-      throw new InvalidError('This part is counted, not labelled unit by unit; receive stock instead.', {
-        count: ['only labelled parts have units'],
-      });
-    }
-    if (input.locationId) await findLocation(trx, ctx, input.locationId);
-    const units = await insertUnits(
-      trx,
-      ctx,
-      part,
-      input.count,
-      input.locationId ?? null,
-      input.serialPrefix,
-    );
-    await audit(trx, {
-      spaceId: ctx.spaceId,
-      actorId: ctx.userId,
-      action: 'units.added',
-      targetType: 'part',
-      targetId: part.id,
-      detail: { count: units.length },
-    });
-    return { units };
-  });
 }
 
 /** Which states a steward may move a unit to, from each state. Out and held belong to loans. */

@@ -11,6 +11,10 @@ export const storedMessageSchema = z.object({
   text: z.string(),
   html: z.string().nullable(),
   messageId: z.string().nullable(),
+  /** Files sent with the message; text files keep their content so a reader (or a test) can open them. */
+  attachments: z
+    .array(z.object({ filename: z.string(), contentType: z.string(), size: z.number(), text: z.string().nullable() }))
+    .optional(),
 });
 
 export type StoredMessage = z.infer<typeof storedMessageSchema>;

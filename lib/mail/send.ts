@@ -31,6 +31,17 @@ export const outgoingMailSchema = z.object({
   subject: z.string().trim().min(1).max(900),
   text: z.string(),
   html: z.string().optional(),
+  /** Small text files sent with the message (an order list's CSV). */
+  attachments: z
+    .array(
+      z.object({
+        filename: z.string().min(1).max(200),
+        contentType: z.string().min(1).max(100),
+        content: z.string().max(1_000_000),
+      }),
+    )
+    .max(5)
+    .optional(),
 });
 export type OutgoingMail = z.input<typeof outgoingMailSchema>;
 export type SentMail = { messageId: string; accepted: string[] };
@@ -70,9 +81,9 @@ export async function sendMail(
 ): Promise<SentMail> {
   const parsed = outgoingMailSchema.safeParse(mail);
   if (!parsed.success) throw new InvalidError('Check the message.', zodFields(parsed.error));
-  const { to, subject, text, html } = parsed.data;
+  const { to, subject, text, html, attachments } = parsed.data;
   try {
-    const info = await transportFor(config).sendMail({ from: config.from, to, subject, text, html });
+    const info = await transportFor(config).sendMail({ from: config.from, to, subject, text, html, attachments });
     return {
       messageId: String(info.messageId),
       accepted: (info.accepted as Array<string | { address: string }>).map((a) =>

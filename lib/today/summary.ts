@@ -5,6 +5,9 @@ import { scoped } from '@/db/scoped';
 import { hasRole, type Ctx } from '@/lib/auth/roles';
 import { now } from '@/lib/clock';
 import { boxesOutOfService, type OutOfServiceBox } from '@/lib/kits/upkeep';
+import { budgetFigures, type BudgetFigures } from '@/lib/restock/budget';
+import { overdueOrders } from '@/lib/restock/orders';
+import { whatToOrder } from '@/lib/restock/to-order-query';
 
 export type TodaySummary = {
   myLoans: { id: string; name: string; dueAt: Date; overdue: boolean }[];
@@ -14,8 +17,18 @@ export type TodaySummary = {
     inRepair: number;
     /** Kit boxes out of service (in repair), each with what it lacks and its last short return. */
     boxesOut: OutOfServiceBox[];
+    /** Parts on the to-order list (lib/restock/to-order.ts), and order lists past their expected day. */
+    toOrder: number;
+    overdueOrders: { id: string; supplierName: string; sentAt: Date; expectedAt: Date }[];
   };
-  treasurer?: { pendingSales: number; oldPending: number; paidThisMonthMinor: number; currency: string };
+  treasurer?: {
+    pendingSales: number;
+    oldPending: number;
+    paidThisMonthMinor: number;
+    currency: string;
+    /** Restocking this month: received at the price paid, committed, against the monthly budget. */
+    restock: BudgetFigures;
+  };
   admin?: { people: number; openInvitations: number };
 };
 
@@ -81,6 +94,8 @@ export async function todaySummary(db: Db, ctx: Ctx): Promise<TodaySummary> {
       belowReorder: belowReorder.map((p) => ({ id: p.id, name: p.name, qty: p.qty, reorderPoint: p.reorder_point })),
       inRepair: repair.n,
       boxesOut: await boxesOutOfService(db, ctx),
+      toOrder: (await whatToOrder(db, ctx)).lineCount,
+      overdueOrders: await overdueOrders(db, ctx),
     };
   }
 
@@ -95,7 +110,13 @@ export async function todaySummary(db: Db, ctx: Ctx): Promise<TodaySummary> {
       ])
       .where('space_id', '=', ctx.spaceId)
       .executeTakeFirstOrThrow();
-    summary.treasurer = { pendingSales: row.pending, oldPending: row.old, paidThisMonthMinor: row.paid, currency: space.currency.trim() };
+    summary.treasurer = {
+      pendingSales: row.pending,
+      oldPending: row.old,
+      paidThisMonthMinor: row.paid,
+      currency: space.currency.trim(),
+      restock: await budgetFigures(db, ctx),
+    };
   }
 
   if (hasRole(ctx, 'admin')) {

@@ -92,6 +92,7 @@ async function demoIds(): Promise<Ids> {
     memberLoan: memberLoan?.id ?? (await one('loans')),
     sale: await one('sales'),
     memberSale: memberSale.id,
+    order: (await db.selectFrom('order_lists').select('id').where('space_id', '=', s).orderBy('created_at').executeTakeFirstOrThrow()).id,
   };
 }
 
@@ -106,6 +107,7 @@ function concrete(pattern: string, who: Who): string | null {
     '/kits/templates/[id]/edit': `/kits/templates/${ids.template}/edit`,
     '/loans/[id]': `/loans/${who === 'member' ? ids.memberLoan : ids.loan}`,
     '/shelf/locations/[id]': `/shelf/locations/${ids.location}`,
+    '/orders/[id]': `/orders/${ids.order}`,
     '/shelf/parts/[id]': `/shelf/parts/${ids.part}`,
     '/shelf/parts/[id]/edit': `/shelf/parts/${ids.part}/edit`,
     '/s/[code]': `/s/${ids.partCode}`,

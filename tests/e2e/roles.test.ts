@@ -11,14 +11,14 @@ const ROLES = [
   {
     role: 'admin',
     email: 'perpetua@quillmere.example',
-    nav: [...EVERYONE, 'People', 'Settings'],
+    nav: [...EVERYONE, 'Restock', 'People', 'Settings'],
     sees: ['The bench', 'People'],
     not: ['Money'],
   },
   {
     role: 'steward',
     email: 'tobiah@quillmere.example',
-    nav: [...EVERYONE, 'Counter'],
+    nav: [...EVERYONE, 'Counter', 'Restock'],
     sees: ['The bench'],
     not: ['Money', 'People'],
   },

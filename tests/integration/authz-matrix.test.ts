@@ -123,6 +123,25 @@ export const MATRIX: Record<string, Row> = {
   'POST /api/loans/[id]/cancel': { who: 'user', ok: 404 },
   'POST /api/loans/[id]/deposit-release': { who: W, ok: 404 },
   'POST /api/people/[id]/settle-charges': { who: W, ok: [400, 404], body: EMPTY },
+  // Restocking (issue 13): suppliers, prices and orders are for stewards and admins only; admins set the
+  // budget and approve overruns.
+  'GET /api/suppliers': { who: W, ok: 200 },
+  'POST /api/suppliers': { who: W, ok: 400, body: EMPTY },
+  'PATCH /api/suppliers/[id]': { who: W, ok: [400, 404], body: { leadDays: -1 } },
+  'POST /api/suppliers/offers': { who: W, ok: 400, body: EMPTY },
+  'DELETE /api/suppliers/offers/[id]': { who: W, ok: 404 },
+  'GET /api/orders': { who: W, ok: 200 },
+  'POST /api/orders': { who: W, ok: 400, body: EMPTY },
+  'GET /api/orders/to-order': { who: W, ok: 200 },
+  'GET /api/orders/[id]': { who: W, ok: 404 },
+  'PATCH /api/orders/[id]': { who: W, ok: [400, 404], body: { lines: [] } },
+  'POST /api/orders/[id]/send': { who: W, ok: 404, body: EMPTY },
+  'POST /api/orders/[id]/receive': { who: W, ok: [400, 404], body: EMPTY },
+  'POST /api/orders/[id]/cancel': { who: W, ok: [400, 404], body: EMPTY },
+  'POST /api/orders/[id]/approve': { who: A, ok: [400, 404], body: EMPTY },
+  'GET /api/orders/[id]/pdf': { who: W, ok: 404 },
+  'GET /api/settings/restocking': { who: A, ok: 200 },
+  'PATCH /api/settings/restocking': { who: A, ok: 400, body: EMPTY },
 };
 
 const ROLES: Role[] = ['member', 'steward', 'treasurer', 'admin'];

@@ -22,8 +22,8 @@ import { apiRoutes, concrete } from '../helpers/routes';
 const ROLES: Role[] = ['member', 'steward', 'treasurer', 'admin'];
 
 /** Record kind (a declaration's `notFound`) → which of the other space's records to name. */
-type Kind = 'attachment' | 'hold' | 'invitation' | 'kit box' | 'kit' | 'loan' | 'location' | 'part' | 'person' | 'sale' | 'label' | 'count' | 'unit' | 'induction' | 'sign-off';
-const KINDS: readonly Kind[] = ['attachment', 'hold', 'invitation', 'kit box', 'kit', 'loan', 'location', 'part', 'person', 'sale', 'label', 'count', 'unit', 'induction', 'sign-off'];
+type Kind = 'attachment' | 'hold' | 'invitation' | 'kit box' | 'kit' | 'loan' | 'location' | 'part' | 'person' | 'sale' | 'label' | 'count' | 'unit' | 'induction' | 'sign-off' | 'supplier' | 'offer' | 'order';
+const KINDS: readonly Kind[] = ['attachment', 'hold', 'invitation', 'kit box', 'kit', 'loan', 'location', 'part', 'person', 'sale', 'label', 'count', 'unit', 'induction', 'sign-off', 'supplier', 'offer', 'order'];
 
 /** Bodies that pass each route's schema, so the call reaches the service (which must answer 404). */
 const BODIES: Record<string, unknown> = {
@@ -43,6 +43,12 @@ const BODIES: Record<string, unknown> = {
   'POST /api/people/[id]/settle-charges': { amountMinor: 100 },
   'PATCH /api/inductions/[id]': { name: 'Taken over' },
   'POST /api/inductions/[id]/signoffs': { userId: randomUUID() },
+  'PATCH /api/suppliers/[id]': { name: 'Taken over' },
+  'PATCH /api/orders/[id]': { note: 'taken over' },
+  'POST /api/orders/[id]/send': {},
+  'POST /api/orders/[id]/receive': { idempotencyKey: 'probe-key-0001', finish: true },
+  'POST /api/orders/[id]/cancel': { note: 'taken over' },
+  'POST /api/orders/[id]/approve': { note: 'taken over' },
 };
 
 type Call = { method: string; pattern: string; param: 'id' | 'code'; kind: string; body: boolean };
@@ -138,10 +144,25 @@ async function otherSpace() {
     .values({ space_id: s, induction_id: induction.id, user_id: person.id, signed_by: admin.id })
     .returning('id')
     .executeTakeFirstOrThrow();
+  const supplier = await db.insertInto('suppliers').values({ space_id: s, name: 'Probed supplier', email: 'probed@tests.example' }).returning('id').executeTakeFirstOrThrow();
+  const offer = await db
+    .insertInto('supplier_offers')
+    .values({ space_id: s, supplier_id: supplier.id, part_id: part.id, pack_size: 10, pack_price_minor: 500, preferred: true })
+    .returning('id')
+    .executeTakeFirstOrThrow();
+  const order = await db
+    .insertInto('order_lists')
+    .values({ space_id: s, supplier_id: supplier.id, currency: 'USD', created_by: admin.id })
+    .returning('id')
+    .executeTakeFirstOrThrow();
+  await db.insertInto('order_lines').values({ space_id: s, order_id: order.id, part_id: part.id, pack_size: 10, packs: 2, pack_price_minor: 500 }).execute();
   return {
     spaceId: s,
     name: space.name,
     ids: {
+      supplier: supplier.id,
+      offer: offer.id,
+      order: order.id,
       attachment: attachment.id,
       hold: hold.id,
       invitation: invitation.id,

@@ -9,6 +9,7 @@ import { latestActiveMonth, notBegun, readMonth } from '@/lib/reconcile/months';
 import { isUnresolved, type Reconciliation } from '@/lib/reconcile/report';
 import { reconcileForBooks } from '@/lib/reconcile/run';
 import { salesOfMonth } from '@/lib/reconcile/sales-list';
+import { spendBesideSales } from '@/lib/restock/spend';
 import { monthLabel, monthOf, monthRange, shiftMonth, spaceClock } from '@/lib/sales/periods';
 import { countOverdueSales } from '@/lib/sales/sweep';
 import { CloseMonth } from '@/components/books/close-month';
@@ -16,6 +17,7 @@ import { ProcessorRefs } from '@/components/books/processor-refs';
 import { ReconTable } from '@/components/books/recon-table';
 import { SalesChart } from '@/components/books/sales-chart';
 import { SalesTable } from '@/components/books/sales-table';
+import { SpendBesideSales } from '@/components/books/spend-beside-sales';
 import { SweepButton } from '@/components/books/sweep-button';
 import { ToInvestigate } from '@/components/books/to-investigate';
 import { Totals } from '@/components/books/totals';
@@ -66,6 +68,7 @@ export default async function BooksPage({
   }
   const sales = await salesOfMonth(db, ctx.spaceId, month);
   const chart = await salesByMonthAndCategory(db, ctx.spaceId, month, 12);
+  const spend = await spendBesideSales(db, ctx, month);
   const ended = monthRange(month, timeZone).to <= now();
   const unresolved = report ? report.rows.filter(isUnresolved) : [];
 
@@ -144,6 +147,8 @@ export default async function BooksPage({
         </p>
         <SalesTable sales={sales} currency={currency} timeZone={timeZone} />
       </section>
+
+      <SpendBesideSales rows={spend.rows} currency={spend.currency} label={label} />
 
       <section aria-labelledby="chart" className="card space-y-3">
         <h2 id="chart" className="text-lg font-bold">

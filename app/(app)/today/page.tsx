@@ -5,7 +5,7 @@ import { todaySummary } from '@/lib/today/summary';
 import { PageTitle } from '@/components/ui/page-title';
 import { StatePill } from '@/components/ui/state-pill';
 import { OutOfServiceList } from '@/components/kits/out-of-service-list';
-import { countOf, formatDateTime } from '@/lib/format';
+import { countOf, formatDate, formatDateTime } from '@/lib/format';
 import { formatMoney } from '@/lib/money';
 
 export const metadata = { title: 'Today' };
@@ -71,6 +71,21 @@ export default async function TodayPage() {
               </Link>
             </li>
           </ul>
+          <p className="mt-3">
+            <Link href="/orders">
+              <strong>{s.steward.toOrder}</strong> {s.steward.toOrder === 1 ? 'part' : 'parts'} to order
+            </Link>
+            {s.steward.overdueOrders.length ? `, ${countOf(s.steward.overdueOrders.length, 'delivery', 'deliveries')} overdue` : ''}
+          </p>
+          {s.steward.overdueOrders.length ? (
+            <ul className="mt-1 text-sm" aria-label="Overdue deliveries">
+              {s.steward.overdueOrders.slice(0, 6).map((o) => (
+                <li key={o.id}>
+                  <Link href={`/orders/${o.id}`}>{o.supplierName}</Link>: sent {formatDate(o.sentAt, tz)}, expected by {formatDate(o.expectedAt, tz)}
+                </li>
+              ))}
+            </ul>
+          ) : null}
           {s.steward.boxesOut.length ? (
             <div className="mt-3">
               <OutOfServiceList boxes={s.steward.boxesOut.slice(0, 6)} timeZone={tz} />
@@ -105,6 +120,13 @@ export default async function TodayPage() {
             {countOf(s.treasurer.pendingSales, 'card sale')} waiting for the processor
             {s.treasurer.oldPending ? `, ${s.treasurer.oldPending} of them for over an hour` : ''}.{' '}
             <Link href="/books">Open the books</Link>
+          </p>
+          <p className="mt-1">
+            Restocking received this month: <strong>{formatMoney(s.treasurer.restock.receivedMinor, s.treasurer.currency)}</strong>
+            {s.treasurer.restock.budgetMinor !== null
+              ? ` of a ${formatMoney(s.treasurer.restock.budgetMinor, s.treasurer.currency)} budget (${formatMoney(s.treasurer.restock.committedMinor, s.treasurer.currency)} committed)`
+              : ' (no monthly budget set)'}
+            .
           </p>
         </section>
       ) : null}

@@ -81,6 +81,20 @@ import * as loansIdHandOver from '../loans/[id]/hand-over/route';
 import * as loansIdCancel from '../loans/[id]/cancel/route';
 import * as peopleIdSettleCharges from '../people/[id]/settle-charges/route';
 import * as loansIdDepositRelease from '../loans/[id]/deposit-release/route';
+// Restocking (issue 13): suppliers, offers, what to order, order lists, the budget.
+import * as suppliers from '../suppliers/route';
+import * as suppliersId from '../suppliers/[id]/route';
+import * as suppliersOffers from '../suppliers/offers/route';
+import * as suppliersOffersId from '../suppliers/offers/[id]/route';
+import * as orders from '../orders/route';
+import * as ordersToOrder from '../orders/to-order/route';
+import * as ordersId from '../orders/[id]/route';
+import * as ordersIdSend from '../orders/[id]/send/route';
+import * as ordersIdReceive from '../orders/[id]/receive/route';
+import * as ordersIdCancel from '../orders/[id]/cancel/route';
+import * as ordersIdApprove from '../orders/[id]/approve/route';
+import * as ordersIdPdf from '../orders/[id]/pdf/route';
+import * as settingsRestocking from '../settings/restocking/route';
 
 export const ROUTES: RouteModules = {
   '/api/attachments/{id}': attachmentsId,
@@ -162,4 +176,18 @@ export const ROUTES: RouteModules = {
   '/api/loans/{id}/cancel': loansIdCancel,
   '/api/people/{id}/settle-charges': peopleIdSettleCharges,
   '/api/loans/{id}/deposit-release': loansIdDepositRelease,
+  // Restocking (issue 13)
+  '/api/suppliers': suppliers,
+  '/api/suppliers/{id}': suppliersId,
+  '/api/suppliers/offers': suppliersOffers,
+  '/api/suppliers/offers/{id}': suppliersOffersId,
+  '/api/orders': orders,
+  '/api/orders/to-order': ordersToOrder,
+  '/api/orders/{id}': ordersId,
+  '/api/orders/{id}/send': ordersIdSend,
+  '/api/orders/{id}/receive': ordersIdReceive,
+  '/api/orders/{id}/cancel': ordersIdCancel,
+  '/api/orders/{id}/approve': ordersIdApprove,
+  '/api/orders/{id}/pdf': ordersIdPdf,
+  '/api/settings/restocking': settingsRestocking,
 };

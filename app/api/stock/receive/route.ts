@@ -2,11 +2,11 @@ import { db } from '@/db';
 import { json, route, STAFF } from '@/lib/http/route';
 import { record } from '@/lib/http/shapes';
 import { receiveSchema } from '@/lib/inventory/schemas';
-import { receiveStock } from '@/lib/inventory/stock';
+import { receiveStock } from '@/lib/inventory/receive';
 
 export const POST = route({
   method: 'POST',
-  summary: 'Receives stock into a bin ({ partId, locationId, qty, note? })',
+  summary: 'Receives stock: counted into a bin, or new labelled units (their codes answered)',
   who: STAFF,
   body: json(receiveSchema),
   response: record('The bin’s new quantity.'),

@@ -102,6 +102,26 @@ export default async function DevMailboxMessagePage({ params, searchParams }: Pr
         </pre>
       </details>
 
+      {message.attachments?.length ? (
+        <section className="mt-5" aria-labelledby="files-heading">
+          <h2 id="files-heading" className="font-semibold">
+            Attached files
+          </h2>
+          {message.attachments.map((a, i) => (
+            <details key={`${a.filename}-${i}`} className="mt-2" open>
+              <summary className="min-h-11 cursor-pointer content-center break-all">
+                {a.filename} <span className="muted text-sm">({a.contentType}, {a.size} bytes)</span>
+              </summary>
+              {a.text !== null ? (
+                <pre className="mt-2 overflow-x-auto rounded-lg bg-stone-100 p-3 text-sm whitespace-pre-wrap break-words dark:bg-stone-900">
+                  {a.text}
+                </pre>
+              ) : null}
+            </details>
+          ))}
+        </section>
+      ) : null}
+
       {message.messageId && <p className="mt-4 muted text-xs break-all">Message-ID: {message.messageId}</p>}
     </main>
   );

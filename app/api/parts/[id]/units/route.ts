@@ -2,7 +2,7 @@ import { db } from '@/db';
 import { idParams, json, route, STAFF } from '@/lib/http/route';
 import { record } from '@/lib/http/shapes';
 import { addUnitsSchema } from '@/lib/inventory/schemas';
-import { addUnits } from '@/lib/inventory/units';
+import { addUnits } from '@/lib/inventory/receive';
 
 export const POST = route({
   method: 'POST',

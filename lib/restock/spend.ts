@@ -1,0 +1,49 @@
+import 'server-only';
+import { sql } from 'kysely';
+import type { Db } from '@/db/connect';
+import { scoped } from '@/db/scoped';
+import type { PartCategory } from '@/db/types';
+import type { Ctx } from '@/lib/auth/roles';
+import { monthRange, spaceClock, type Month } from '@/lib/sales/periods';
+
+// The treasurer's month, money out beside money in, per part category: what arrived against order
+// lists at the price paid (recorded when received; no processor involved) and what was sold (card and
+// cash sales paid in the month, less the units refunded, at the price on the sale line).
+
+export type SpendRow = { category: PartCategory; soldMinor: number; spentMinor: number };
+
+export async function spendBesideSales(db: Db, ctx: Pick<Ctx, 'spaceId'>, month: Month): Promise<{ rows: SpendRow[]; currency: string }> {
+  const { timeZone, currency } = await spaceClock(db, ctx.spaceId);
+  const { from, to } = monthRange(month, timeZone);
+  const [spent, sold] = await Promise.all([
+    scoped(db, ctx)
+      .selectFrom('order_receipt_lines')
+      .innerJoin('order_receipts', 'order_receipts.id', 'order_receipt_lines.receipt_id')
+      .innerJoin('parts', 'parts.id', 'order_receipt_lines.part_id')
+      .select(['parts.category', sql<number>`sum(order_receipt_lines.cost_minor)::int`.as('minor')])
+      .where('order_receipts.received_at', '>=', from)
+      .where('order_receipts.received_at', '<', to)
+      .groupBy('parts.category')
+      .execute(),
+    scoped(db, ctx)
+      .selectFrom('sale_lines')
+      .innerJoin('sales', 'sales.id', 'sale_lines.sale_id')
+      .innerJoin('parts', 'parts.id', 'sale_lines.part_id')
+      .select(['parts.category', sql<number>`sum((sale_lines.qty - sale_lines.refunded_qty) * sale_lines.unit_price_minor)::int`.as('minor')])
+      .where('sales.status', 'in', ['paid', 'partially_refunded', 'refunded'])
+      .where('sales.reverses_sale_id', 'is', null)
+      .where('sales.paid_at', '>=', from)
+      .where('sales.paid_at', '<', to)
+      .groupBy('parts.category')
+      .execute(),
+  ]);
+  const categories = [...new Set([...spent, ...sold].map((r) => r.category))].sort();
+  return {
+    currency,
+    rows: categories.map((category) => ({
+      category,
+      soldMinor: sold.find((r) => r.category === category)?.minor ?? 0,
+      spentMinor: spent.find((r) => r.category === category)?.minor ?? 0,
+    })),
+  };
+}
