@@ -34,6 +34,8 @@ export const SPACE_TABLES = [
   'kit_template_inductions',
   'category_inductions',
   'induction_signoffs',
+  'honour_box_counts',
+  'honour_box_bankings',
 ] as const satisfies readonly (keyof Database)[];
 
 export type SpaceTable = (typeof SPACE_TABLES)[number];

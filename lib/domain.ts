@@ -8,6 +8,8 @@ export type ChainRole = 'supply' | 'driver' | 'led' | 'wire';
 export type LabelKind = 'unit' | 'part' | 'location' | 'kit_box';
 /** waiting: at the bench until a steward hands it over; back_unchecked: returned by the member, not yet checked (bench hand-over, issue 16). */
 export type LoanStatus = 'waiting' | 'out' | 'back_unchecked' | 'returned' | 'returned_short';
+/** How a space's shelf prices carry tax (issue 13): none, already inside the price, or added at the total. */
+export type TaxMode = 'exempt' | 'inclusive' | 'exclusive';
 export type SaleStatus = 'pending' | 'paid' | 'failed' | 'expired' | 'refunded' | 'partially_refunded' | 'reversed';
 export type MovementReason =
   | 'receive' | 'move_in' | 'move_out' | 'adjust' | 'count' | 'loan_out' | 'loan_return' | 'lost' | 'damaged'
