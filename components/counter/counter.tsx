@@ -243,7 +243,7 @@ export function Counter({ currency, items: initial, me, buyers, tax, minCardMino
           ? taxLines.before.map((l) => (
               <p key={l.label} className="flex items-baseline justify-between border-t border-stone-200 pt-2 dark:border-stone-700">
                 <span>{l.label}</span>
-                <span className="tabular-nums" data-testid="basket-tax">
+                <span className="tabular-nums" data-testid={l.label === 'Subtotal' ? 'basket-subtotal' : 'basket-tax'}>
                   {money(l.minor)}
                 </span>
               </p>

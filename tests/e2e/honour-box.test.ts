@@ -52,6 +52,7 @@ describe('the honour box on a phone', () => {
     await member.getByRole('button', { name: 'Add Thermal pad for star board', exact: true }).click();
     // 35 + tax 35 × 0.0825 = 2.8875 → 3 (once per sale, half away from zero) = 38.
     await member.getByTestId('basket-total').filter({ hasText: '$0.38' }).waitFor();
+    expect(await member.getByTestId('basket-subtotal').innerText()).toBe('$0.35');
     expect(await member.getByTestId('basket-tax').innerText()).toBe('$0.03');
     await member.getByTestId('cash-only').getByText('card payments start at $1.00').waitFor();
     expect(await member.getByRole('button', { name: /by card/ }).count()).toBe(0);
