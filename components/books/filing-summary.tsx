@@ -1,4 +1,5 @@
-import type { Filing, FilingTotals } from '@/lib/reconcile/filing';
+import type { Filing } from '@/lib/reconcile/filing';
+import type { FilingTotals } from '@/lib/reconcile/filing-totals';
 import { formatDateTime } from '@/lib/format';
 import { CATEGORY_WORDS } from '@/lib/inventory/words';
 import { formatMoney } from '@/lib/money';

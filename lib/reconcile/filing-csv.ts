@@ -3,7 +3,8 @@ import { CATEGORY_WORDS } from '@/lib/inventory/words';
 import { saleRef } from '@/lib/sales/ref';
 import { formatRate } from '@/lib/sales/tax';
 import { isoInZone } from '@/lib/zoned-time';
-import type { Filing, FilingTotals } from './filing';
+import type { Filing } from './filing';
+import type { FilingTotals } from './filing-totals';
 
 // The month's books for filing, as CSV (our own column names). Every row names its section first;
 // amounts are integer minor units of `currency` (ISO 4217), never decimals, so no rounding happens in

@@ -9,7 +9,8 @@ import { processorError } from '@/lib/sales/processor-errors';
 import { sweepOverdueSales, type SweepResult } from '@/lib/sales/sweep';
 import { monthToShow } from './months';
 import { reconcileMonth, type Reconciliation } from './report';
-import { filingMonth, filingTotals } from './filing';
+import { filingMonth } from './filing';
+import { filingTotals } from './filing-totals';
 
 // The app's entry points to the books (pages and route handlers share them): the space's processor
 // client, the sweep before every look at the books, receipts for sales the sweep found paid.
