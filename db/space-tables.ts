@@ -42,6 +42,8 @@ export const SPACE_TABLES = [
   'order_lines',
   'order_receipts',
   'order_receipt_lines',
+  'honour_box_counts',
+  'honour_box_bankings',
 ] as const satisfies readonly (keyof Database)[];
 
 export type SpaceTable = (typeof SPACE_TABLES)[number];

@@ -9,9 +9,9 @@ type Json<T = unknown> = ColumnType<T, string, string>;
 type JsonDefault<T = unknown> = ColumnType<T, string | undefined, string>;
 type JsonNullable<T = unknown> = ColumnType<T | null, string | null | undefined, string | null>;
 
-import type { ChainRole, LabelKind, LoanStatus, MovementReason, OrderState, PartCategory, Role, SaleStatus, UnitState } from '@/lib/domain';
+import type { ChainRole, LabelKind, LoanStatus, MovementReason, OrderState, PartCategory, Role, SaleStatus, TaxMode, UnitState } from '@/lib/domain';
 
-export type { ChainRole, LabelKind, LoanStatus, MovementReason, OrderState, PartCategory, Role, SaleStatus, UnitState };
+export type { ChainRole, LabelKind, LoanStatus, MovementReason, OrderState, PartCategory, Role, SaleStatus, TaxMode, UnitState };
 
 export interface SpacesTable {
   id: Generated<string>;
@@ -276,6 +276,14 @@ export interface SalesTable {
   created_at: TimestampDefault;
   paid_at: TimestampNullable;
   expires_at: TimestampNullable;
+  /** The tax the sale was made under, kept so a later rate change never moves it (migration 0013). */
+  tax_mode: Generated<TaxMode>;
+  /** Hundredths of a percent: 825 is 8.25 %. */
+  tax_rate_bp: Generated<number>;
+  /** The tax inside total_minor (total_minor is always what the buyer pays). */
+  tax_minor: Generated<number>;
+  /** counter: rung up at the counter; honour_box: recorded by the buyer themself. */
+  channel: Generated<'counter' | 'honour_box'>;
 }
 
 export interface SaleLinesTable {
@@ -299,6 +307,36 @@ export interface RefundsTable {
   lines: JsonDefault<{ saleLineId: string; qty: number }[]>;
   created_by: string | null;
   created_at: TimestampDefault;
+  /** The tax inside amount_minor (migration 0013). */
+  tax_minor: Generated<number>;
+}
+
+/** A steward's count of the honour box: what should be in it against what is (migration 0013). */
+export interface HonourBoxCountsTable {
+  id: Generated<string>;
+  space_id: string;
+  currency: string;
+  counted_at: Timestamp;
+  counted_by: string | null;
+  /** The previous count's time; null for the first count. */
+  since: TimestampNullable;
+  carried_minor: number;
+  cash_sales_minor: number;
+  cash_refunds_minor: number;
+  expected_minor: number;
+  counted_minor: number;
+  note: Generated<string>;
+}
+
+/** Money taken from the box to the bank after a count (one banking per count). */
+export interface HonourBoxBankingsTable {
+  id: Generated<string>;
+  space_id: string;
+  count_id: string;
+  amount_minor: number;
+  reference: Generated<string>;
+  banked_at: Timestamp;
+  banked_by: string | null;
 }
 
 export interface PaymentEventsTable {
@@ -424,6 +462,8 @@ export interface Database {
   attachments: AttachmentsTable;
   audit_log: AuditLogTable;
   recon_resolutions: ReconResolutionsTable;
+  honour_box_counts: HonourBoxCountsTable;
+  honour_box_bankings: HonourBoxBankingsTable;
   backup_runs: BackupRunsTable;
   // Borrowing rules (migration 0006)
   inductions: InductionsTable;

@@ -10,6 +10,8 @@ export type LabelKind = 'unit' | 'part' | 'location' | 'kit_box';
 export type LoanStatus = 'waiting' | 'out' | 'back_unchecked' | 'returned' | 'returned_short' | 'cancelled';
 /** Order list states (restocking, migration 0012): draft, with the supplier, part arrived, all arrived, called off. */
 export type OrderState = 'draft' | 'sent' | 'part_in' | 'all_in' | 'called_off';
+/** How a space's shelf prices carry tax (issue 13): none, already inside the price, or added at the total. */
+export type TaxMode = 'exempt' | 'inclusive' | 'exclusive';
 export type SaleStatus = 'pending' | 'paid' | 'failed' | 'expired' | 'refunded' | 'partially_refunded' | 'reversed';
 export type MovementReason =
   | 'receive' | 'move_in' | 'move_out' | 'adjust' | 'count' | 'loan_out' | 'loan_return' | 'lost' | 'damaged'

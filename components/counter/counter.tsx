@@ -6,6 +6,8 @@ import { useStoredBasket } from './basket-store';
 import { callApi, errorText, type ApiError } from '@/components/loans/api';
 import type { CatalogItem } from '@/lib/sales/catalog';
 import { formatMoney, formatUnitPrice } from '@/lib/money';
+import type { TaxMode } from '@/lib/domain';
+import { receiptTaxLines, taxSale } from '@/lib/sales/tax';
 import { CameraScan } from './camera-scan';
 import { lookupCode } from './code-lookup';
 
@@ -15,6 +17,10 @@ type Props = {
   me: string;
   /** Stewards ring sales up for members and record cash; members buy for themselves. */
   buyers: { id: string; name: string }[] | null;
+  /** The space's tax rule and its name (receipts and the total say it in these words). */
+  tax: { name: string; mode: TaxMode; rateBp: number };
+  /** Smallest card payment in minor units; 0: any amount. */
+  minCardMinor: number;
 };
 
 const unitWord = (item: CatalogItem, n = 1) =>
@@ -28,7 +34,7 @@ const shelfLimit = (item: CatalogItem) =>
 
 // The bench's till, for a phone held in one hand: scan or type a label, or pick from the list; the
 // basket with big +/− targets; pay by card on the processor's page, or (a steward) record cash.
-export function Counter({ currency, items: initial, me, buyers }: Props) {
+export function Counter({ currency, items: initial, me, buyers, tax, minCardMinor }: Props) {
   const ids = useId();
   const queryClient = useQueryClient();
   const catalog = useQuery({
@@ -48,8 +54,15 @@ export function Counter({ currency, items: initial, me, buyers }: Props) {
   const lines = [...basket]
     .map(([id, qty]) => ({ item: byId.get(id), qty }))
     .filter((l): l is { item: CatalogItem; qty: number } => Boolean(l.item));
-  const total = lines.reduce((s, l) => s + l.qty * l.item.priceMinor, 0);
+  // The same sum the server makes (lib/sales/tax.ts: once per sale, half away from zero).
+  const taxed = taxSale(
+    lines.reduce((s, l) => s + l.qty * l.item.priceMinor, 0),
+    tax,
+  );
+  const total = taxed.totalMinor;
+  const taxLines = receiptTaxLines({ ...tax, taxMinor: taxed.taxMinor, totalMinor: total });
   const money = (n: number) => formatMoney(n, currency);
+  const belowCardMinimum = lines.length > 0 && minCardMinor > 0 && total < minCardMinor;
 
   /** Changes a line by `by`; never past what is on the shelf, and says so when it stops. True if it changed. */
   const add = useCallback(
@@ -100,10 +113,22 @@ export function Counter({ currency, items: initial, me, buyers }: Props) {
       void queryClient.invalidateQueries({ queryKey: ['counter-catalog'] });
     },
   });
-  const failure = (card.error ?? cash.error) as ApiError | null;
+  // A member's own cash purchase at the honour box: they are the buyer and the one who records it.
+  const honour = useMutation({
+    mutationFn: () =>
+      callApi<{ sale: { id: string; totalMinor: number } }>('/api/sales/honour-box', 'POST', {
+        lines: lines.map((l) => ({ partId: l.item.id, qty: l.qty })),
+      }),
+    onSuccess: ({ sale }) => {
+      emptyBasket();
+      setNote(`Recorded: you put ${money(sale.totalMinor)} in the honour box. Your receipt is on its way by e-mail.`);
+      void queryClient.invalidateQueries({ queryKey: ['counter-catalog'] });
+    },
+  });
+  const failure = (card.error ?? cash.error ?? honour.error) as ApiError | null;
   const lineProblem = (index: number) =>
     failure?.fields?.[`lines.${index}.qty`]?.[0] ?? failure?.fields?.[`lines.${index}.partId`]?.[0];
-  const busy = card.isPending || cash.isPending;
+  const busy = card.isPending || cash.isPending || honour.isPending;
 
   const shown = items.filter((i) => {
     const q = search.trim().toLowerCase();
@@ -214,12 +239,32 @@ export function Counter({ currency, items: initial, me, buyers }: Props) {
             </li>
           ))}
         </ul>
+        {lines.length
+          ? taxLines.before.map((l) => (
+              <p key={l.label} className="flex items-baseline justify-between border-t border-stone-200 pt-2 dark:border-stone-700">
+                <span>{l.label}</span>
+                <span className="tabular-nums" data-testid={l.label === 'Subtotal' ? 'basket-subtotal' : 'basket-tax'}>
+                  {money(l.minor)}
+                </span>
+              </p>
+            ))
+          : null}
         <p className="flex items-baseline justify-between border-t border-stone-200 pt-2 text-xl font-bold dark:border-stone-700">
           <span>Total</span>
           <span className="tabular-nums" data-testid="basket-total">
             {money(total)}
           </span>
         </p>
+        {lines.length
+          ? taxLines.after.map((l) => (
+              <p key={l.label} className="muted flex items-baseline justify-between text-sm">
+                <span>{l.label}</span>
+                <span className="tabular-nums" data-testid="basket-tax">
+                  {money(l.minor)}
+                </span>
+              </p>
+            ))
+          : null}
 
         {buyers ? (
           <div>
@@ -249,18 +294,35 @@ export function Counter({ currency, items: initial, me, buyers }: Props) {
             {errorText(failure)}
           </p>
         ) : null}
-        <button
-          type="button"
-          className="btn-primary w-full py-3 text-lg"
-          disabled={lines.length === 0 || busy}
-          onClick={() => card.mutate()}
-        >
-          {card.isPending ? 'Opening the card payment…' : `Pay ${money(total)} by card`}
-        </button>
+        {belowCardMinimum ? (
+          <p role="status" className="rounded-lg border border-amber-700 bg-amber-50 p-2 text-sm text-amber-950 dark:bg-amber-950 dark:text-amber-100" data-testid="cash-only">
+            Cash only for this basket: card payments start at {money(minCardMinor)} here, because on a smaller
+            sale the card fees eat most of the money.
+          </p>
+        ) : (
+          <button
+            type="button"
+            className="btn-primary w-full py-3 text-lg"
+            disabled={lines.length === 0 || busy}
+            onClick={() => card.mutate()}
+          >
+            {card.isPending ? 'Opening the card payment…' : `Pay ${money(total)} by card`}
+          </button>
+        )}
+        {!buyers ? (
+          <button
+            type="button"
+            className={`${belowCardMinimum ? 'btn-primary py-3 text-lg' : 'btn-quiet'} w-full`}
+            disabled={lines.length === 0 || busy}
+            onClick={() => honour.mutate()}
+          >
+            {honour.isPending ? 'Recording…' : `I put ${money(total)} cash in the honour box`}
+          </button>
+        ) : null}
         {buyers ? (
           <button
             type="button"
-            className="btn-quiet w-full"
+            className={`${belowCardMinimum ? 'btn-primary py-3 text-lg' : 'btn-quiet'} w-full`}
             disabled={lines.length === 0 || busy}
             onClick={() => cash.mutate()}
           >

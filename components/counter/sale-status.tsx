@@ -6,6 +6,7 @@ import { useEffect } from 'react';
 import { callApi, errorText } from '@/components/loans/api';
 import type { SaleView } from '@/lib/sales/read';
 import { formatMoney } from '@/lib/money';
+import { receiptTaxLines } from '@/lib/sales/tax';
 import { formatDateTimeWithZone } from '@/lib/zoned-time';
 import { settleStoredBasket } from './basket-store';
 
@@ -50,6 +51,7 @@ export function SaleStatus({ saleId, cancelled, me }: { saleId: string; cancelle
   if (q.isError) return <p role="alert">{errorText(q.error)}</p>;
   const sale = q.data;
   const money = (n: number) => formatMoney(n, sale.currency);
+  const taxLines = receiptTaxLines({ ...sale.tax, totalMinor: sale.totalMinor });
 
   return (
     <div className="card space-y-3" data-sale-status={sale.status}>
@@ -92,10 +94,22 @@ export function SaleStatus({ saleId, cancelled, me }: { saleId: string; cancelle
           </li>
         ))}
       </ul>
+      {taxLines.before.map((l) => (
+        <p key={l.label} className="flex justify-between gap-3" data-testid="receipt-tax">
+          <span>{l.label}</span>
+          <span className="tabular-nums">{money(l.minor)}</span>
+        </p>
+      ))}
       <p className="flex justify-between text-lg font-bold">
         <span>Total</span>
-        <span className="tabular-nums">{money(sale.totalMinor)}</span>
+        <span className="tabular-nums" data-testid="receipt-total">{money(sale.totalMinor)}</span>
       </p>
+      {taxLines.after.map((l) => (
+        <p key={l.label} className="muted flex justify-between gap-3 text-sm" data-testid="receipt-tax">
+          <span>{l.label}</span>
+          <span className="tabular-nums">{money(l.minor)}</span>
+        </p>
+      ))}
       <dl className="grid grid-cols-[auto_1fr] gap-x-3 text-sm" data-testid="receipt-facts">
         <dt className="muted">Sale reference</dt>
         <dd className="font-mono" data-testid="sale-ref">

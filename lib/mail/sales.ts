@@ -7,6 +7,9 @@ import { saleRef } from '@/lib/sales/ref';
 import { formatDateTimeWithZone } from '@/lib/zoned-time';
 import { sendMail } from './server';
 import { log } from '@/lib/log';
+import type { TaxMode } from '@/lib/domain';
+import { moneyRules } from '@/lib/money-rules/settings';
+import { receiptTaxLines } from '@/lib/sales/tax';
 
 const esc = (s: string) => s.replace(/[&<>"']/g, (c) => `&#${c.charCodeAt(0)};`);
 
@@ -18,6 +21,8 @@ export type ReceiptData = {
   method: 'card' | 'cash';
   currency: string;
   totalMinor: number;
+  /** The tax the sale was made under (kept on the sale) and the name the space gives it. */
+  tax: { name: string; mode: TaxMode; rateBp: number; taxMinor: number };
   paidAt: Date;
   lines: { name: string; qty: number; unitPriceMinor: number; saleUnit: string }[];
 };
@@ -32,13 +37,18 @@ export function receiptMessage(r: ReceiptData, appBaseUrl: string) {
     (l) => `  ${qty(l)} ${l.name} @ ${money(l.unitPriceMinor)} = ${money(l.qty * l.unitPriceMinor)}`,
   );
   const when = formatDateTimeWithZone(r.paidAt, r.timeZone);
+  const taxLines = receiptTaxLines({ ...r.tax, totalMinor: r.totalMinor });
+  const textLine = (l: { label: string; minor: number }) => `  ${l.label} ${money(l.minor)}`;
+  const htmlLine = (l: { label: string; minor: number }) =>
+    `<tr><td>${esc(l.label)}</td><td style="text-align:right">${esc(money(l.minor))}</td></tr>`;
   const link = `${appBaseUrl.replace(/\/$/, '')}/counter/done?sale=${r.saleId}`;
   const paidBy = r.method === 'card' ? 'by card' : 'in cash (honour box)';
   return {
     subject: `Receipt ${ref} from ${r.spaceName}: ${money(r.totalMinor)}`,
     text:
       `Hello ${r.buyerName},\n\nThank you. You paid ${money(r.totalMinor)} ${paidBy} at the ${r.spaceName} bench on ${when}.\n\n` +
-      `${rows.join('\n')}\n  Total ${money(r.totalMinor)}\n\nReference: ${ref}\nSee the sale: ${link}\n`,
+      `${[...rows, ...taxLines.before.map(textLine)].join('\n')}\n  Total ${money(r.totalMinor)}\n` +
+      `${taxLines.after.map((l) => `${textLine(l)}\n`).join('')}\nReference: ${ref}\nSee the sale: ${link}\n`,
     html:
       `<p>Hello ${esc(r.buyerName)},</p><p>Thank you. You paid <strong>${esc(money(r.totalMinor))}</strong> ${paidBy} at the ${esc(r.spaceName)} bench on ${esc(when)}.</p>` +
       `<table><tbody>${r.lines
@@ -46,9 +56,7 @@ export function receiptMessage(r: ReceiptData, appBaseUrl: string) {
           (l) =>
             `<tr><td>${esc(qty(l))} ${esc(l.name)}</td><td style="text-align:right">${esc(money(l.qty * l.unitPriceMinor))}</td></tr>`,
         )
-        .join(
-          '',
-        )}<tr><td><strong>Total</strong></td><td style="text-align:right"><strong>${esc(money(r.totalMinor))}</strong></td></tr></tbody></table>` +
+        .join('')}${taxLines.before.map(htmlLine).join('')}<tr><td><strong>Total</strong></td><td style="text-align:right"><strong>${esc(money(r.totalMinor))}</strong></td></tr>${taxLines.after.map(htmlLine).join('')}</tbody></table>` +
       `<p>Reference: ${esc(ref)} · <a href="${esc(link)}">See the sale</a></p>`,
   };
 }
@@ -66,6 +74,9 @@ export async function sendSaleReceipt(db: Db, saleId: string): Promise<void> {
       'sales.method',
       'sales.currency',
       'sales.total_minor',
+      'sales.tax_mode',
+      'sales.tax_rate_bp',
+      'sales.tax_minor',
       'sales.paid_at',
       'spaces.name as spaceName',
       'spaces.time_zone',
@@ -91,6 +102,12 @@ export async function sendSaleReceipt(db: Db, saleId: string): Promise<void> {
       method: sale.method,
       currency: sale.currency.trim(),
       totalMinor: sale.total_minor,
+      tax: {
+        name: (await moneyRules(db, sale.space_id)).taxName,
+        mode: sale.tax_mode,
+        rateBp: sale.tax_rate_bp,
+        taxMinor: sale.tax_minor,
+      },
       paidAt: sale.paid_at,
       lines: lines.map((l) => ({
         name: l.name,

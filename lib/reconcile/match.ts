@@ -101,7 +101,7 @@ export function matchPeriod(input: {
   deposits?: OurDeposit[];
   charges?: OurCharge[];
   theirs: TheirTxn[];
-}): { rows: ReconRow[]; totals: ReconTotals; payouts: TheirTxn[] } {
+}): { rows: ReconRow[]; totals: ReconTotals; payouts: TheirTxn[]; fees: TheirTxn[] } {
   const inPeriod = (d: Date) => d >= input.from && d < input.to;
   const salesById = new Map(input.sales.map((s) => [s.id, s]));
   const salesByPi = new Map(input.sales.filter((s) => s.paymentIntentId).map((s) => [s.paymentIntentId!, s]));
@@ -314,6 +314,9 @@ export function matchPeriod(input: {
   return {
     rows,
     payouts,
+    // Every ledger entry of the period that carried a fee: the month's export itemises them, and they
+    // add up to totals.processor.feesMinor by construction (the same entries).
+    fees: counted.filter((t) => t.feeMinor !== 0),
     totals: {
       processor: {
         grossMinor: sum(counted.filter((t) => t.type === 'charge').map((t) => t.amountMinor)),

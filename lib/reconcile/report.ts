@@ -30,6 +30,8 @@ export type Reconciliation = {
   investigate: ToInvestigate[];
   totals: ReconTotals;
   payouts: { id: string | null; amountMinor: number; at: string }[];
+  /** The processor's fee entries of the month, one per ledger entry (they sum to totals.processor.feesMinor). */
+  fees: { txnId: string; kind: string; at: string; feeMinor: number; saleId: string | null }[];
 };
 
 const MARGIN_MS = 24 * 3600_000;
@@ -83,6 +85,13 @@ export async function reconcileMonth(
     unresolved: rows.filter(isUnresolved).length,
     investigate: await refusedPayments(db, ctx.spaceId, from, to),
     totals: result.totals,
+    fees: result.fees.map((t) => ({
+      txnId: t.txnId,
+      kind: t.type,
+      at: t.created.toISOString(),
+      feeMinor: t.feeMinor,
+      saleId: t.saleId ?? rows.find((r) => r.txnId === t.txnId)?.saleId ?? null,
+    })),
     payouts: result.payouts.map((p) => ({
       id: p.sourceId,
       amountMinor: -p.amountMinor,

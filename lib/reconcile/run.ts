@@ -9,6 +9,8 @@ import { processorError } from '@/lib/sales/processor-errors';
 import { sweepOverdueSales, type SweepResult } from '@/lib/sales/sweep';
 import { monthToShow } from './months';
 import { reconcileMonth, type Reconciliation } from './report';
+import { filingMonth } from './filing';
+import { filingTotals } from './filing-totals';
 
 // The app's entry points to the books (pages and route handlers share them): the space's processor
 // client, the sweep before every look at the books, receipts for sales the sweep found paid.
@@ -36,4 +38,11 @@ export async function reconcileForBooks(ctx: Ctx, month: Month): Promise<Reconci
   } catch (err) {
     throw processorError(err, "read the processor's ledger");
   }
+}
+
+/** The month's reconciliation with its itemised books for filing and the sums of each section. */
+export async function filingForBooks(ctx: Ctx, month: Month) {
+  const report = await reconcileForBooks(ctx, month);
+  const filing = await filingMonth(db, ctx, report);
+  return { report, filing, totals: filingTotals(filing) };
 }

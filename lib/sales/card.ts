@@ -4,7 +4,7 @@ import type { Db } from '@/db/connect';
 import { scoped } from '@/db/scoped';
 import type { Ctx } from '@/lib/auth/roles';
 import { audit } from '@/lib/audit/log';
-import { AppError, UnavailableError } from '@/lib/errors';
+import { AppError, ConflictError, UnavailableError } from '@/lib/errors';
 import { saleFor, resolveBuyer } from './access';
 import { basketTotal, priceBasket } from './basket';
 import { checkoutIdempotencyKey, checkoutParams } from './checkout';
@@ -14,6 +14,22 @@ import { saleRef } from './ref';
 import { isProcessorUnreachable, processorError } from './processor-errors';
 import type { StartSaleInput } from './schemas';
 import { settleSale, type Settled } from './settle';
+import { taxSale, taxWords } from './tax';
+import { moneyRules, taxRuleOf } from '@/lib/money-rules/settings';
+import { formatMoney } from '@/lib/money';
+
+/**
+ * The space's smallest card payment: a card sale below it is refused before anything is written (a
+ * sale of 0.30 can cost more than 0.30 in processor fees). The counter offers cash only below it and
+ * says so; this is the same rule on the server.
+ */
+export function refuseBelowCardMinimum(totalMinor: number, minCardMinor: number, currency: string): void {
+  if (minCardMinor > 0 && totalMinor < minCardMinor)
+    throw new ConflictError(
+      `Card payments start at ${formatMoney(minCardMinor, currency)} here: on a smaller sale the card fees eat most of the money. Pay ${formatMoney(totalMinor, currency)} in cash into the honour box instead.`,
+      { lines: [`The total ${formatMoney(totalMinor, currency)} is below the card minimum of ${formatMoney(minCardMinor, currency)}.`] },
+    );
+}
 
 export type PaymentsDeps = { stripe: Stripe; appBaseUrl: string };
 
@@ -40,9 +56,13 @@ export async function startCardSale(
   deps: PaymentsDeps,
 ): Promise<StartedSale> {
   const buyerId = await resolveBuyer(db, ctx, input.buyerId);
-  const { sale, lines } = await db.transaction().execute(async (trx) => {
+  const { sale, lines, taxLine } = await db.transaction().execute(async (trx) => {
     const { currency } = await spaceClock(trx, ctx.spaceId);
+    const rules = await moneyRules(trx, ctx.spaceId);
+    const rule = taxRuleOf(rules);
     const priced = await priceBasket(trx, ctx.spaceId, input.lines);
+    const taxed = taxSale(basketTotal(priced), rule);
+    refuseBelowCardMinimum(taxed.totalMinor, rules.minCardMinor, currency);
     const row = await scoped(trx, ctx)
       .insertInto('sales')
       .values({
@@ -52,7 +72,10 @@ export async function startCardSale(
         method: 'card',
         status: 'pending',
         currency,
-        total_minor: basketTotal(priced),
+        total_minor: taxed.totalMinor,
+        tax_mode: rule.mode,
+        tax_rate_bp: rule.rateBp,
+        tax_minor: taxed.taxMinor,
       })
       .returningAll()
       .executeTakeFirstOrThrow();
@@ -74,9 +97,14 @@ export async function startCardSale(
       action: 'sale.started',
       targetType: 'sale',
       targetId: row.id,
-      detail: { method: 'card', totalMinor: row.total_minor, buyerId },
+      detail: { method: 'card', totalMinor: row.total_minor, taxMinor: row.tax_minor, buyerId },
     });
-    return { sale: row, lines: priced };
+    // Tax added to shelf prices is its own line on the pay page, so the processor charges what we hold.
+    const taxLine =
+      rule.mode === 'exclusive' && taxed.taxMinor > 0
+        ? { name: taxWords(rules.taxName, rule), qty: 1, unitPriceMinor: taxed.taxMinor }
+        : null;
+    return { sale: row, lines: priced, taxLine };
   });
 
   const buyer = await db.selectFrom('users').select('email').where('id', '=', buyerId).executeTakeFirst();
@@ -87,7 +115,10 @@ export async function startCardSale(
         saleId: sale.id,
         spaceId: ctx.spaceId,
         currency: sale.currency,
-        lines: lines.map((l) => ({ name: l.name, qty: l.qty, unitPriceMinor: l.unitPriceMinor })),
+        lines: [
+          ...lines.map((l) => ({ name: l.name, qty: l.qty, unitPriceMinor: l.unitPriceMinor })),
+          ...(taxLine ? [taxLine] : []),
+        ],
         appBaseUrl: deps.appBaseUrl,
         buyerEmail: buyer?.email,
         description: `${ctx.spaceName} counter sale ${saleRef(sale.id)}`,

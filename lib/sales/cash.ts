@@ -9,6 +9,8 @@ import { basketTotal, priceBasket, type PricedLine } from './basket';
 import { isClosedAt, spaceClock } from './periods';
 import type { StartSaleInput } from './schemas';
 import { takeStock } from './stock';
+import { EXEMPT, taxSale, type TaxRule } from './tax';
+import { moneyRules, taxRuleOf } from '@/lib/money-rules/settings';
 
 /** Writes a sale paid at once in cash and moves its stock; refuses (rolls back) if the shelf is short. */
 export async function writeCashSale(
@@ -20,8 +22,14 @@ export async function writeCashSale(
     cashierId: string;
     lines: PricedLine[];
     at: Date;
+    /** The space's tax rule when the sale is made (kept on the sale); none given: exempt. */
+    tax?: TaxRule;
+    /** Rung up at the counter (a steward), or recorded at the honour box by the buyer themself. */
+    channel?: 'counter' | 'honour_box';
   },
-): Promise<{ id: string; total_minor: number }> {
+): Promise<{ id: string; total_minor: number; tax_minor: number }> {
+  const rule = input.tax ?? EXEMPT;
+  const taxed = taxSale(basketTotal(input.lines), rule);
   const sale = await scoped(trx, { spaceId: input.spaceId })
     .insertInto('sales')
     .values({
@@ -31,11 +39,15 @@ export async function writeCashSale(
       method: 'cash',
       status: 'paid',
       currency: input.currency,
-      total_minor: basketTotal(input.lines),
+      total_minor: taxed.totalMinor,
+      tax_mode: rule.mode,
+      tax_rate_bp: rule.rateBp,
+      tax_minor: taxed.taxMinor,
+      channel: input.channel ?? 'counter',
       created_at: input.at,
       paid_at: input.at,
     })
-    .returning(['id', 'total_minor'])
+    .returning(['id', 'total_minor', 'tax_minor'])
     .executeTakeFirstOrThrow();
   const lines = await scoped(trx, { spaceId: input.spaceId })
     .insertInto('sale_lines')
@@ -67,27 +79,35 @@ export async function writeCashSale(
   await audit(trx, {
     spaceId: input.spaceId,
     actorId: input.cashierId,
-    action: 'sale.cash',
+    action: input.channel === 'honour_box' ? 'sale.honour_box' : 'sale.cash',
     targetType: 'sale',
     targetId: sale.id,
-    detail: { totalMinor: sale.total_minor, buyerId: input.buyerId },
+    detail: { totalMinor: sale.total_minor, taxMinor: sale.tax_minor, buyerId: input.buyerId },
   });
   return sale;
 }
 
-/** Cash into the honour box, recorded by a steward: paid at once, stock out, one transaction. */
+/**
+ * Cash into the honour box, paid at once, stock out, one transaction. A steward records it at the
+ * counter for any member (`counter`); a member records their own purchase (`honour_box`): the buyer is
+ * the member, never the steward on duty, and a member cannot record one for someone else.
+ */
 export async function recordCashSale(
   db: Db,
   ctx: Ctx,
   input: StartSaleInput,
-): Promise<{ saleId: string; totalMinor: number; currency: string }> {
-  if (!isStaff(ctx)) throw new ForbiddenError('Only a steward records cash sales.');
-  const buyerId = await resolveBuyer(db, ctx, input.buyerId);
+  channel: 'counter' | 'honour_box' = 'counter',
+): Promise<{ saleId: string; totalMinor: number; taxMinor: number; currency: string }> {
+  if (channel === 'counter' && !isStaff(ctx)) throw new ForbiddenError('Only a steward records cash sales at the counter.');
+  if (channel === 'honour_box' && input.buyerId && input.buyerId !== ctx.userId)
+    throw new ForbiddenError('At the honour box you record your own purchase only.');
+  const buyerId = channel === 'honour_box' ? ctx.userId : await resolveBuyer(db, ctx, input.buyerId);
   return db.transaction().execute(async (trx) => {
     const at = now();
     if (await isClosedAt(trx, ctx.spaceId, at))
       throw new ConflictError('This month is closed in the books; cash sales cannot be added to it.');
     const { currency } = await spaceClock(trx, ctx.spaceId);
+    const tax = taxRuleOf(await moneyRules(trx, ctx.spaceId));
     const lines = await priceBasket(trx, ctx.spaceId, input.lines);
     const sale = await writeCashSale(trx, {
       spaceId: ctx.spaceId,
@@ -96,7 +116,9 @@ export async function recordCashSale(
       cashierId: ctx.userId,
       lines,
       at,
+      tax,
+      channel,
     });
-    return { saleId: sale.id, totalMinor: sale.total_minor, currency };
+    return { saleId: sale.id, totalMinor: sale.total_minor, taxMinor: sale.tax_minor, currency };
   });
 }

@@ -1,7 +1,8 @@
 import 'server-only';
 import type { Db } from '@/db/connect';
 import { scoped } from '@/db/scoped';
-import type { SaleStatus } from '@/db/types';
+import type { SaleStatus, TaxMode } from '@/db/types';
+import { moneyRules } from '@/lib/money-rules/settings';
 import type { Ctx } from '@/lib/auth/roles';
 import { saleFor } from './access';
 import { spaceClock } from './periods';
@@ -18,6 +19,10 @@ export type SaleView = {
   method: 'card' | 'cash';
   currency: string;
   totalMinor: number;
+  /** The tax inside totalMinor, under the rule the sale was made with; the space's name for its tax. */
+  tax: { name: string; mode: TaxMode; rateBp: number; taxMinor: number };
+  /** Rung up at the counter, or recorded by the buyer at the honour box. */
+  channel: 'counter' | 'honour_box';
   refundedMinor: number;
   createdAt: string;
   paidAt: string | null;
@@ -82,6 +87,13 @@ export async function saleView(db: Db, ctx: Ctx, saleId: string): Promise<SaleVi
     method: sale.method,
     currency: sale.currency.trim(),
     totalMinor: sale.total_minor,
+    tax: {
+      name: (await moneyRules(db, sale.space_id)).taxName,
+      mode: sale.tax_mode,
+      rateBp: sale.tax_rate_bp,
+      taxMinor: sale.tax_minor,
+    },
+    channel: sale.channel,
     refundedMinor: state.refundedMinor,
     createdAt: sale.created_at.toISOString(),
     paidAt: sale.paid_at?.toISOString() ?? null,

@@ -12,6 +12,7 @@ import { isClosedAt } from './periods';
 import { processorError } from './processor-errors';
 import { refundInput, type RefundInput } from './schemas';
 import { returnStock } from './stock';
+import { refundAmountForLines, refundTax, type TaxRule } from './tax';
 
 export type RefundLine = { saleLineId: string; qty: number };
 
@@ -24,7 +25,19 @@ type LineState = {
   refunded: number;
   left: number;
 };
-export type RefundState = { lines: LineState[]; refundedMinor: number; leftMinor: number; count: number };
+export type RefundState = {
+  lines: LineState[];
+  refundedMinor: number;
+  leftMinor: number;
+  count: number;
+  /** The tax rule the sale was made under, and how much of its tax has gone back (issue 13). */
+  rule: TaxRule;
+  saleTotalMinor: number;
+  saleTaxMinor: number;
+  taxLeftMinor: number;
+};
+type TaxedSale = Pick<Sale, 'id' | 'space_id' | 'total_minor'> &
+  Partial<Pick<Sale, 'tax_mode' | 'tax_rate_bp' | 'tax_minor'>>;
 
 /** The refunds of a sale: booked on it, or on its reversing entries. */
 export const refundsOfSale = (db: Db, sale: Pick<Sale, 'id' | 'space_id'>) =>
@@ -41,8 +54,8 @@ export const refundsOfSale = (db: Db, sale: Pick<Sale, 'id' | 'space_id'>) =>
  * What has been refunded of a sale so far: its own refunds plus those booked on reversing entries
  * (refunds of a sale in a closed month are booked on a reversing sale dated in the open month).
  */
-export async function refundState(db: Db, sale: Pick<Sale, 'id' | 'space_id' | 'total_minor'>): Promise<RefundState> {
-  const refunds = await refundsOfSale(db, sale).select(['amount_minor', 'lines']).execute();
+export async function refundState(db: Db, sale: TaxedSale): Promise<RefundState> {
+  const refunds = await refundsOfSale(db, sale).select(['amount_minor', 'lines', 'tax_minor']).execute();
   const perLine = new Map<string, number>();
   for (const r of refunds)
     for (const l of r.lines) perLine.set(l.saleLineId, (perLine.get(l.saleLineId) ?? 0) + l.qty);
@@ -61,6 +74,10 @@ export async function refundState(db: Db, sale: Pick<Sale, 'id' | 'space_id' | '
     refundedMinor,
     leftMinor: Math.max(0, sale.total_minor - refundedMinor),
     count: refunds.length,
+    rule: { mode: sale.tax_mode ?? 'exempt', rateBp: sale.tax_rate_bp ?? 0 },
+    saleTotalMinor: sale.total_minor,
+    saleTaxMinor: sale.tax_minor ?? 0,
+    taxLeftMinor: Math.max(0, (sale.tax_minor ?? 0) - refunds.reduce((s, r) => s + r.tax_minor, 0)),
   };
 }
 
@@ -89,7 +106,12 @@ export function planRefund(
   if (Object.keys(fields).length) throw new InvalidError(`Check ${Object.keys(fields).join(', ')}.`, fields);
   const byLine = new Map(state.lines.map((l) => [l.id, l]));
   const linesMinor = planned.reduce((s, p) => s + p.qty * byLine.get(p.saleLineId)!.unit_price_minor, 0);
-  const amountMinor = Math.min(linesMinor, state.leftMinor);
+  // Lines at shelf prices, plus the tax when it was added at the total (the sale's own rule). When the
+  // plan takes back every line still out, it is all the money left, so per-sale rounding leaves no cent.
+  const takesAll = state.lines.every(
+    (l) => l.left === 0 || planned.some((p) => p.saleLineId === l.id && p.qty >= l.left),
+  );
+  const amountMinor = takesAll ? state.leftMinor : Math.min(refundAmountForLines(linesMinor, state.rule), state.leftMinor);
   if (amountMinor <= 0) throw new ConflictError('Nothing is left to refund on this sale.');
   return { lines: planned, amountMinor };
 }
@@ -169,6 +191,13 @@ export async function applyRefund(
     .filter((l) => l.qty > 0);
   const at = input.at ?? now();
   const closed = await isClosedAt(trx, sale.space_id, sale.paid_at ?? sale.created_at);
+  const taxMinor = refundTax({
+    amountMinor: input.amountMinor,
+    saleTotalMinor: state.saleTotalMinor,
+    saleTaxMinor: state.saleTaxMinor,
+    taxLeftMinor: state.taxLeftMinor,
+    isAllLeft: input.amountMinor >= state.leftMinor,
+  });
 
   let bookedOn = sale.id;
   if (closed) {
@@ -182,6 +211,10 @@ export async function applyRefund(
         status: 'reversed',
         currency: sale.currency,
         total_minor: input.amountMinor,
+        tax_mode: sale.tax_mode,
+        tax_rate_bp: sale.tax_rate_bp,
+        tax_minor: taxMinor,
+        channel: sale.channel,
         payment_intent_id: sale.payment_intent_id,
         reverses_sale_id: sale.id,
         created_at: at,
@@ -216,6 +249,7 @@ export async function applyRefund(
       space_id: sale.space_id,
       sale_id: bookedOn,
       amount_minor: input.amountMinor,
+      tax_minor: taxMinor,
       processor_refund_id: input.processorRefundId,
       restock: input.restock,
       lines: JSON.stringify(lines),
@@ -264,6 +298,7 @@ export async function applyRefund(
     detail: {
       refundId: refund.id,
       amountMinor: input.amountMinor,
+      taxMinor,
       lines,
       restock: input.restock,
       processorRefundId: input.processorRefundId,

@@ -20,6 +20,9 @@ export const startSaleInput = z.object({
 });
 export type StartSaleInput = z.infer<typeof startSaleInput>;
 
+/** A member's own honour-box purchase: the buyer is always the caller, so no buyer is named. */
+export const honourBoxSaleInput = startSaleInput.omit({ buyerId: true }).strict();
+
 export const refundInput = z.object({
   /** Lines and quantities to refund; leave out for a full refund of whatever is left. */
   lines: z

@@ -89,6 +89,7 @@ const report = (buyer: string): Reconciliation => ({
     counts: { matched: 0, ours_only: 0, theirs_only: 0, amount_differs: 1 },
   },
   payouts: [],
+  fees: [],
 });
 
 describe('the books export', () => {

@@ -7,7 +7,8 @@ import { formatMoney } from '@/lib/money';
 import { salesByMonthAndCategory } from '@/lib/reconcile/chart';
 import { latestActiveMonth, notBegun, readMonth } from '@/lib/reconcile/months';
 import { isUnresolved, type Reconciliation } from '@/lib/reconcile/report';
-import { reconcileForBooks } from '@/lib/reconcile/run';
+import { filingForBooks } from '@/lib/reconcile/run';
+import { FilingSummary } from '@/components/books/filing-summary';
 import { salesOfMonth } from '@/lib/reconcile/sales-list';
 import { spendBesideSales } from '@/lib/restock/spend';
 import { monthLabel, monthOf, monthRange, shiftMonth, spaceClock } from '@/lib/sales/periods';
@@ -60,9 +61,11 @@ export default async function BooksPage({
   // and settled by the sweep button (a POST), the processor's own expiry events and the status page.
   const waiting = await countOverdueSales(db, { spaceId: ctx.spaceId, now: now() });
   let report: Reconciliation | null = null;
+  let filed: Awaited<ReturnType<typeof filingForBooks>> | null = null;
   let ledgerProblem: string | null = null;
   try {
-    report = await reconcileForBooks(ctx, month);
+    filed = await filingForBooks(ctx, month);
+    report = filed.report;
   } catch (err) {
     ledgerProblem = err instanceof Error ? err.message : String(err);
   }
@@ -137,6 +140,15 @@ export default async function BooksPage({
           </p>
         )}
       </section>
+
+      {filed ? (
+        <section aria-labelledby="filing" className="card space-y-3">
+          <h2 id="filing" className="text-lg font-bold">
+            For the association’s books
+          </h2>
+          <FilingSummary totals={filed.totals} filing={filed.filing} currency={currency} timeZone={timeZone} month={month} />
+        </section>
+      ) : null}
 
       <section aria-labelledby="sales" className="card space-y-3">
         <h2 id="sales" className="text-lg font-bold">

@@ -44,6 +44,10 @@ import * as salesIdRefunds from '../sales/[id]/refunds/route';
 import * as salesId from '../sales/[id]/route';
 import * as salesIdSettle from '../sales/[id]/settle/route';
 import * as salesCash from '../sales/cash/route';
+import * as salesHonourBox from '../sales/honour-box/route';
+import * as honourBox from '../honour-box/route';
+import * as honourBoxCounts from '../honour-box/counts/route';
+import * as honourBoxBankings from '../honour-box/bankings/route';
 import * as salesCatalog from '../sales/catalog/route';
 import * as sales from '../sales/route';
 import * as scanCode from '../scan/[code]/route';
@@ -72,6 +76,7 @@ import * as kitsBoxesIdTakeApart from '../kits/boxes/[id]/take-apart/route';
 // left out on purpose), so a route cannot exist without being declared and documented.
 // Borrowing rules (issue 16): standing, inductions, opening calendar, presence.
 import * as settingsBorrowing from '../settings/borrowing/route';
+import * as settingsMoney from '../settings/money/route';
 import * as inductions from '../inductions/route';
 import * as inductionsId from '../inductions/[id]/route';
 import * as inductionsIdSignoffs from '../inductions/[id]/signoffs/route';
@@ -143,6 +148,10 @@ export const ROUTES: RouteModules = {
   '/api/sales/{id}': salesId,
   '/api/sales/{id}/settle': salesIdSettle,
   '/api/sales/cash': salesCash,
+  '/api/sales/honour-box': salesHonourBox,
+  '/api/honour-box': honourBox,
+  '/api/honour-box/counts': honourBoxCounts,
+  '/api/honour-box/bankings': honourBoxBankings,
   '/api/sales/catalog': salesCatalog,
   '/api/sales': sales,
   '/api/scan/{code}': scanCode,
@@ -167,6 +176,7 @@ export const ROUTES: RouteModules = {
   '/api/kits/boxes/{id}/take-apart': kitsBoxesIdTakeApart,
   // Borrowing rules (issue 16)
   '/api/settings/borrowing': settingsBorrowing,
+  '/api/settings/money': settingsMoney,
   '/api/inductions': inductions,
   '/api/inductions/{id}': inductionsId,
   '/api/inductions/{id}/signoffs': inductionsIdSignoffs,

@@ -52,6 +52,7 @@ describe('route declarations', () => {
 const RUN_BY_SCRIPTS = new Set([
   'db/connect.ts', 'lib/audit/log.ts', 'lib/sales/access.ts', 'lib/sales/basket.ts', 'lib/sales/cash.ts',
   'lib/sales/paid.ts', 'lib/sales/periods.ts', 'lib/sales/refunds.ts', 'lib/sales/stock.ts', 'lib/payments/stripe.ts',
+  'lib/money-rules/settings.ts', // the tax rule a cash sale is written under (the seed writes cash sales)
 ]);
 
 function files(dir: string): string[] {

@@ -11,6 +11,7 @@ import { reconcileForBooks } from '@/lib/reconcile/run';
 import { isClosedAt, monthOf, spaceClock } from '@/lib/sales/periods';
 import { saleView } from '@/lib/sales/read';
 import { saleRef } from '@/lib/sales/ref';
+import { taxWords } from '@/lib/sales/tax';
 import { CopyText } from '@/components/books/copy-text';
 import { ProcessorRefs } from '@/components/books/processor-refs';
 import { ReconStatusBadge } from '@/components/books/recon-status';
@@ -66,7 +67,13 @@ export default async function BookSalePage({ params }: { params: Promise<{ id: s
           <dd>{formatDateTime(sale.createdAt, timeZone)}</dd>
           <dt className="muted">Paid</dt>
           <dd>{sale.paidAt ? formatDateTime(sale.paidAt, timeZone) : '—'}</dd>
-          <dt className="muted">Rung up by</dt>
+          <dt className="muted">Tax</dt>
+          <dd data-testid="sale-tax">
+            {sale.tax.mode === 'exempt'
+              ? 'none'
+              : `${money(sale.tax.taxMinor)} · ${taxWords(sale.tax.name, { mode: sale.tax.mode, rateBp: sale.tax.rateBp })}`}
+          </dd>
+          <dt className="muted">{sale.channel === 'honour_box' ? 'Recorded at the honour box by' : 'Rung up by'}</dt>
           <dd>{sale.cashier ?? '—'}</dd>
           <dt className="muted">Full sale id</dt>
           <dd>

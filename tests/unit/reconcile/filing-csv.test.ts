@@ -1,0 +1,78 @@
+import Papa from 'papaparse';
+import { describe, expect, it } from 'vitest';
+import type { Filing } from '@/lib/reconcile/filing';
+import { filingTotals } from '@/lib/reconcile/filing-totals';
+import { filingCsv } from '@/lib/reconcile/filing-csv';
+
+// The filing file's shape on a hand-made month: one exclusive-tax card sale of two lines, one cash
+// honour-box line, a refund, a fee, a write-off and a box count. Figures worked by hand beside each check.
+
+const at = new Date('2026-11-30T21:00:00Z'); // 15:00 in Chicago (UTC−06:00)
+const filing: Filing = {
+  saleLines: [
+    // Card sale: lines 100 + 100 at 8.25 % added: tax 16.5 → 17, spread by largest remainder 9 + 8.
+    { saleId: '00000000-0000-4000-8000-000000000001', at, method: 'card', channel: 'counter', buyer: 'Ines', part: 'Pad', category: 'consumable', accountCode: '4010', qty: 1, unitPriceMinor: 100, netMinor: 100, taxMinor: 9, grossMinor: 109, taxMode: 'exclusive', taxRateBp: 825 },
+    { saleId: '00000000-0000-4000-8000-000000000001', at, method: 'card', channel: 'counter', buyer: 'Ines', part: 'Twin lead', category: 'wire', accountCode: '4020', qty: 1, unitPriceMinor: 100, netMinor: 100, taxMinor: 8, grossMinor: 108, taxMode: 'exclusive', taxRateBp: 825 },
+    { saleId: '00000000-0000-4000-8000-000000000002', at, method: 'cash', channel: 'honour_box', buyer: 'Odile', part: 'Pad', category: 'consumable', accountCode: '4010', qty: 2, unitPriceMinor: 35, netMinor: 70, taxMinor: 0, grossMinor: 70, taxMode: 'exempt', taxRateBp: 0 },
+  ],
+  refunds: [
+    { refundId: 'r1', saleId: '00000000-0000-4000-8000-000000000001', at, method: 'card', amountMinor: 108, taxMinor: 8, categories: 'wire', accountCodes: '4020', restock: true, processorRefundId: 're_1' },
+  ],
+  writeOffs: [{ at, reason: 'damaged', part: 'Pad', category: 'consumable', accountCode: '4010', qtyDelta: -3, note: 'crushed' }],
+  boxCounts: [
+    { id: 'c1', countedAt: at.toISOString(), countedBy: 'Odile', since: null, carriedMinor: 0, cashSalesMinor: 70, cashRefundsMinor: 0, expectedMinor: 70, countedMinor: 60, differenceMinor: -10, note: 'short', banking: { id: 'b1', amountMinor: 60, reference: 'Slip 1', bankedAt: at.toISOString(), bankedBy: 'Odile' } },
+  ],
+  fees: [{ txnId: 'txn_1', kind: 'charge', at: at.toISOString(), feeMinor: 36, saleId: '00000000-0000-4000-8000-000000000001' }],
+};
+
+describe('the filing CSV', () => {
+  const rows = Papa.parse<Record<string, string>>(filingCsv(filing, { month: '2026-11', timeZone: 'America/Chicago', currency: 'USD' }), {
+    header: true,
+    skipEmptyLines: true,
+  }).data;
+  const sum = (section: string) =>
+    rows.filter((r) => r.section === section).reduce((s, r) => s + (r.amount_minor === '' ? 0 : Number(r.amount_minor)), 0);
+
+  it('has each section, amounts in minor units, times on the space’s clock with its offset', () => {
+    expect([...new Set(rows.map((r) => r.section))]).toEqual([
+      'sale line',
+      'tax collected',
+      'refund',
+      'tax refunded',
+      'processor fee',
+      'write-off',
+      'honour box count',
+      'honour box banking',
+    ]);
+    expect(rows[0].when).toBe('2026-11-30T15:00:00-06:00');
+    expect(rows[0]).toMatchObject({ account_code: '4010', net_minor: '100', tax_minor: '9', amount_minor: '109', currency: 'USD', tax_rule: 'exclusive 8.25 %' });
+  });
+
+  it('sums by hand: sales 109 + 108 + 70 = 287; tax 17; refunds 108 (tax 8); fee 36; box −10 and 60 banked', () => {
+    expect(sum('sale line')).toBe(287);
+    expect(sum('tax collected')).toBe(17);
+    expect(sum('refund')).toBe(108);
+    expect(sum('tax refunded')).toBe(8);
+    expect(sum('processor fee')).toBe(36);
+    expect(sum('honour box count')).toBe(-10);
+    expect(sum('honour box banking')).toBe(60);
+    const t = filingTotals(filing);
+    expect(t).toMatchObject({
+      cardSalesMinor: 217,
+      cashSalesMinor: 70,
+      taxCollectedMinor: 17,
+      taxRefundedMinor: 8,
+      cardRefundsMinor: 108,
+      cashRefundsMinor: 0,
+      processorFeesMinor: 36,
+      boxDifferenceMinor: -10,
+      boxBankedMinor: 60,
+    });
+  });
+
+  it('leaves a write-off’s cost blank (no price paid recorded) rather than guessing, and says so', () => {
+    const w = rows.find((r) => r.section === 'write-off')!;
+    expect(w).toMatchObject({ qty: '-3', amount_minor: '', account_code: '4010' });
+    expect(w.note).toContain('cost not recorded');
+  });
+});
