@@ -6,7 +6,7 @@ import { orNotFound, pageId } from '../../../loans/or-not-found';
 
 export const metadata = { title: 'Kit box' };
 
-// The kit box's page; its label's /s/<code> renders the same view in place (app/(app)/s/[code]).
+// The kit box's page; its label's /s/<code> renders the same view in place (app/s/[code]).
 export default async function KitBoxPage({ params }: { params: Promise<{ id: string }> }) {
   const ctx = await requirePageUser();
   const id = pageId((await params).id);

@@ -6,7 +6,7 @@ import { PartView } from '@/components/shelf/part-view';
 
 export const metadata = { title: 'Part' };
 
-// The part's page; its label's /s/<code> renders the same view in place (app/(app)/s/[code]).
+// The part's page; its label's /s/<code> renders the same view in place (app/s/[code]).
 export default async function PartPageRoute({
   params,
   searchParams,
