@@ -66,14 +66,16 @@ function probeScript(selector: string) {
   return `(() => {
     const w = window;
     w.__ohm = { visible: null, lcp: 0 };
+    const find = () => document.querySelector(${JSON.stringify(selector)});
     const seen = () => {
-      const el = document.querySelector(${JSON.stringify(selector)});
-      if (!el || w.__ohm.visible !== null || w.__ohmWaiting) return;
+      if (!find() || w.__ohm.visible !== null || w.__ohmWaiting) return;
       w.__ohmWaiting = true;
-      // The element is in the document; it is on screen at the next frame (stylesheets permitting).
+      // The element is in the document; it is on screen at the first frame where it has a box (frames wait
+      // for render-blocking stylesheets; a streamed part waits hidden until it is put in place).
       const paint = () => {
-        const r = el.getBoundingClientRect();
-        if (r.width > 0 && r.height > 0) w.__ohm.visible = performance.now();
+        const el = find();
+        const r = el ? el.getBoundingClientRect() : null;
+        if (r && r.width > 0 && r.height > 0) w.__ohm.visible = performance.now();
         else requestAnimationFrame(paint);
       };
       requestAnimationFrame(paint);

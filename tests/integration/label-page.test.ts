@@ -79,6 +79,7 @@ describe('the label page', () => {
     expect(data.upkeep).toBeNull();
     expect(statements.some((s) => /from "memberships"/.test(s) && !/"users"/.test(s))).toBe(false);
     // + 1: the guard's one query for the person and the session (lib/auth/guard.ts), not on this handle.
+    console.log(`label page, kit box: ${statements.length + 1} queries (budget ${BOX_LABEL_QUERIES})`);
     expect(statements.length + 1, statements.join('\n')).toBeLessThanOrEqual(BOX_LABEL_QUERIES);
   });
 
@@ -89,6 +90,7 @@ describe('the label page', () => {
     const data = await partPage(logged, ctx, found.targetId);
     expect(data.detail.part.name).toBe(part.name);
     expect(data.qr).toContain('<svg');
+    console.log(`label page, part: ${statements.length + 1} queries (budget ${PART_LABEL_QUERIES})`);
     expect(statements.length + 1, statements.join('\n')).toBeLessThanOrEqual(PART_LABEL_QUERIES);
   });
 
