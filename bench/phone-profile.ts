@@ -9,8 +9,9 @@
 // node:http server here together with the app's own stylesheets and fonts (proxied from the build). What the
 // product costs beyond it is server rendering, the redirect and JavaScript; the ratio is product / floor.
 //
-// Env: BENCH_APP_URL (a production build), DATABASE_URL (its database: the invented demo is seeded if absent,
-// for its kit boxes). Exit 1 when the kit box's median misses the target. Run alone:
+// Env: BENCH_APP_URL (a production build), DATABASE_URL (its database, holding the invented demo for its kit
+// boxes: `--seed` adds it to an empty database, as scripts/bench.sh does first). Exit 1 when the kit box's
+// median misses the target. Run alone:
 //   BENCH_APP_URL=http://127.0.0.1:3000 DATABASE_URL=… node --import tsx bench/phone-profile.ts
 import http from 'node:http';
 import type { AddressInfo } from 'node:net';
@@ -39,7 +40,6 @@ const median = (xs: number[]) => {
 async function targets(): Promise<{ box: string; part: string }> {
   const db = createDb(process.env.DATABASE_URL!, 2);
   try {
-    await seedDemo(db);
     const space = await db.selectFrom('spaces').select('id').where('slug', '=', 'quillmere').executeTakeFirstOrThrow();
     const box = await db
       .selectFrom('kit_boxes')
@@ -195,7 +195,18 @@ async function main() {
   process.exitCode = missed ? 1 : 0;
 }
 
-main().catch((err) => {
+/** `--seed`: the invented demo into an empty database (scripts/bench.sh runs it before the bench shelf). */
+async function seed() {
+  const db = createDb(process.env.DATABASE_URL!, 2);
+  try {
+    const { seeded } = await seedDemo(db);
+    if (!seeded) console.log('phone profile: the database already holds a space; the demo was not added');
+  } finally {
+    await db.destroy();
+  }
+}
+
+(process.argv.includes('--seed') ? seed() : main()).catch((err) => {
   console.error('phone profile failed:', err);
   process.exitCode = 1;
 });

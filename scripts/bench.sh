@@ -48,6 +48,8 @@ pg_start "$RUN/pg" "$PG_PORT" "$mode"
 pg_create_db "$PG_PORT" ohmstead_bench
 start_fakes "$RUN"
 node node_modules/tsx/dist/cli.mjs scripts/migrate.ts >/dev/null
+# The invented demo first (it is added only to an empty database): the phone profile opens its kit boxes' labels.
+node node_modules/tsx/dist/cli.mjs bench/phone-profile.ts --seed
 log "the bench shelf"
 node node_modules/tsx/dist/cli.mjs bench/data.ts "$RUN/fixture.json"
 
