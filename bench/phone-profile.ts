@@ -15,6 +15,7 @@
 //   BENCH_APP_URL=http://127.0.0.1:3000 DATABASE_URL=… node --import tsx bench/phone-profile.ts
 import http from 'node:http';
 import type { AddressInfo } from 'node:net';
+import { gzipSync } from 'node:zlib';
 import { chromium, type Browser } from 'playwright-core';
 import { createDb } from '../db/connect';
 import { seedDemo } from '../db/seed/demo';
@@ -125,15 +126,19 @@ async function staticFloor(path: string, cookie: string): Promise<{ url: string;
     .replace(/<script\b[^>]*>(?:(?!<\/script>)[\s\S])*?__next_f[\s\S]*?<\/script>/gi, '')
     .replace(/<link\b[^>]*\bas="script"[^>]*>/gi, '')
     .replace(/<link\b[^>]*rel="modulepreload"[^>]*>/gi, '');
+  // Text is sent gzipped, as the app sends it (next start compresses), so the floor pays the same bytes.
+  const send = (req: http.IncomingMessage, out: http.ServerResponse, status: number, type: string, body: Buffer) => {
+    const zip = /^(text\/|application\/(javascript|json)|image\/svg)/.test(type) && /\bgzip\b/.test(String(req.headers['accept-encoding'] ?? ''));
+    out.writeHead(status, { 'content-type': type, ...(zip ? { 'content-encoding': 'gzip', vary: 'accept-encoding' } : {}) });
+    out.end(zip ? gzipSync(body) : body);
+  };
   const server = http.createServer(async (req, out) => {
     if (req.url?.startsWith('/_next/static/')) {
       const up = await fetch(APP + req.url);
-      out.writeHead(up.status, { 'content-type': up.headers.get('content-type') ?? 'application/octet-stream' });
-      out.end(Buffer.from(await up.arrayBuffer()));
+      send(req, out, up.status, up.headers.get('content-type') ?? 'application/octet-stream', Buffer.from(await up.arrayBuffer()));
       return;
     }
-    out.writeHead(200, { 'content-type': 'text/html; charset=utf-8' });
-    out.end(html);
+    send(req, out, 200, 'text/html; charset=utf-8', Buffer.from(html));
   });
   await new Promise<void>((r) => server.listen(0, '127.0.0.1', r));
   const { port } = server.address() as AddressInfo;
