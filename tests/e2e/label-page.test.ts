@@ -68,4 +68,13 @@ describe('a label opened on a phone', () => {
     await page.getByLabel('Label code').press('Enter');
     await page.waitForURL(`**/kits/boxes/${box.id}`);
   });
+
+  test('signing out still works now that its client is fetched on the tap', async () => {
+    await page.getByRole('button', { name: 'More' }).click();
+    await page.getByRole('dialog').getByRole('button', { name: 'Sign out' }).click();
+    await page.waitForURL((u) => u.pathname === '/signin');
+    // The session is over on the server too: a label now asks for sign-in.
+    await page.goto(`/s/${box.code}`);
+    expect(new URL(page.url()).pathname).toBe('/signin');
+  });
 });
