@@ -36,6 +36,15 @@ export function firstLoadFromManifests(dist: string, route: string): JsSize | nu
   return sizeOf(dist, files, 'build manifests');
 }
 
+/**
+ * The framework's own share: Next.js's root main files (React, the router, the runtime), which every page of
+ * any app built with this Next.js loads first. The floor under every page's figure.
+ */
+export function frameworkFloor(dist: string): JsSize {
+  const build = JSON.parse(readFileSync(path.join(dist, 'build-manifest.json'), 'utf8')) as { rootMainFiles?: string[] };
+  return sizeOf(dist, build.rootMainFiles ?? [], 'framework floor (root main files)');
+}
+
 /** The same figure from the page as served: every /_next/static/…js script the HTML names. */
 export function firstLoadFromHtml(dist: string, html: string): JsSize {
   const files = new Set<string>();

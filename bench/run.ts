@@ -10,7 +10,7 @@ import os from 'node:os';
 import path from 'node:path';
 import pg from 'pg';
 import type { Fixture } from './data';
-import { firstLoadFromHtml, firstLoadFromManifests, type JsSize } from './first-load-js';
+import { firstLoadFromHtml, firstLoadFromManifests, frameworkFloor, type JsSize } from './first-load-js';
 import { load, warm, type Figures, type Target } from './load';
 
 const ROOT = path.resolve(__dirname, '..');
@@ -225,6 +225,8 @@ async function scanJsCase(member: Session | null) {
   }
   for (const s of sizes) say(`- ${s.source}: ${s.files} files, ${(s.rawBytes / 1024).toFixed(0)} kB raw, **${(s.gzipBytes / 1024).toFixed(1)} kB gzipped**`);
   const worst = Math.max(...sizes.map((s) => s.gzipBytes));
+  const floor = frameworkFloor(DIST);
+  say(`- ${floor.source}: ${floor.files} files, **${(floor.gzipBytes / 1024).toFixed(1)} kB gzipped**; the page is ${(worst / floor.gzipBytes).toFixed(2)} × the framework, ours ${((worst - floor.gzipBytes) / 1024).toFixed(1)} kB`);
   say(`- target ≤ 120 kB gzipped: ${verdict(worst <= 120 * 1024)}`);
   say();
 }
@@ -257,7 +259,9 @@ async function header() {
 
 async function main() {
   await header();
-  const members = await signInAll(fixture.members.map((m) => m.email));
+  // `npm run bench -- --phone`: only the two browser-side rows (the label on a phone, the scan page's JavaScript).
+  const phoneOnly = process.env.BENCH_ONLY === 'phone';
+  const members = phoneOnly ? [await signIn(fixture.members[0].email)] : await signInAll(fixture.members.map((m) => m.email));
   for (const probe of [`${APP}/api/scan/${encodeURIComponent(fixture.unitCodes[0])}`, `${APP}/api/bench-floor/scan/${encodeURIComponent(fixture.unitCodes[0])}`]) {
     const missing = await routeMissing(probe, { headers: { cookie: members[0].cookie } });
     if (missing) throw new Error(`cannot measure: ${missing} (the floors answer only with OHM_BENCH=1)`);
@@ -265,15 +269,18 @@ async function main() {
   const compareFile = process.env.BENCH_COMPARE;
   const compareTo = compareFile ? (JSON.parse(readFileSync(compareFile, 'utf8')) as Ratios) : undefined;
   if (compareTo) say(`Large shape: ${fixture.parts.toLocaleString('en')} parts in the bench space beside 50 spaces × 10,000 parts and 1,000,000 past loans; ratios compared with the one-space run just before.`);
-  const ratios = targetTable(await targetRounds(members), compareTo);
-  if (process.env.BENCH_RATIOS_OUT) writeFileSync(process.env.BENCH_RATIOS_OUT, JSON.stringify(ratios));
+  if (!phoneOnly) {
+    const ratios = targetTable(await targetRounds(members), compareTo);
+    if (process.env.BENCH_RATIOS_OUT) writeFileSync(process.env.BENCH_RATIOS_OUT, JSON.stringify(ratios));
+  }
   await scanJsCase(members[0]);
-  if (!compareTo) {
+  if (!compareTo) script('Label URL on a phone profile', 'bench/phone-profile.ts');
+  if (!compareTo && !phoneOnly) {
     // One naive pass per string is plenty: it is the slow side of the ratio by a wide margin.
     script('Suggestions: "what works with this" on 10,000 parts, ranked vs naive', 'bench/suggest.ts', { args: ['--naive-runs', '1'] });
     script('Label PDF, 1,000 labels', 'bench/labels.ts', { node: ['--expose-gc'] });
   }
-  const out = path.join(ROOT, `bench/out/${compareTo ? 'latest-large' : 'latest'}.md`);
+  const out = path.join(ROOT, `bench/out/${compareTo ? 'latest-large' : phoneOnly ? 'latest-phone' : 'latest'}.md`);
   mkdirSync(path.dirname(out), { recursive: true });
   writeFileSync(out, `${report.join('\n')}\n`);
   console.log(`\nfigures written to ${path.relative(ROOT, out)}`);

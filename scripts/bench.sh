@@ -10,6 +10,10 @@
 # adds the large shape beside it (bench/large.ts: 50 spaces × 10,000 parts, 1,000,000 past loans) and
 # measures again, printing each ratio beside its one-space value (target: within 10 %).
 #
+# `npm run bench -- --phone` measures only the browser-side rows: the scan page's first-load JavaScript and a
+# label's URL on a phone profile (bench/phone-profile.ts: Chromium at 390 px, 4× CPU, 150 ms / 1.6 Mb/s),
+# about 2 minutes after the build; its figures go to bench/out/latest-phone.md. The full run includes both.
+#
 # The cluster runs without fsync, as the test cluster does (throwaway data); OHM_BENCH_DURABLE=1 runs it
 # with PostgreSQL's durable defaults instead, as `npm start` does.
 source "$(dirname "$0")/lib.sh"
@@ -44,6 +48,8 @@ pg_start "$RUN/pg" "$PG_PORT" "$mode"
 pg_create_db "$PG_PORT" ohmstead_bench
 start_fakes "$RUN"
 node node_modules/tsx/dist/cli.mjs scripts/migrate.ts >/dev/null
+# The invented demo first (it is added only to an empty database): the phone profile opens its kit boxes' labels.
+node node_modules/tsx/dist/cli.mjs bench/phone-profile.ts --seed
 log "the bench shelf"
 node node_modules/tsx/dist/cli.mjs bench/data.ts "$RUN/fixture.json"
 
@@ -55,7 +61,10 @@ wait_http "$APP_BASE_URL/signin" 120 || { tail -50 "$RUN/app.log"; exit 1; }
 wait_http "http://127.0.0.1:$RAW_PORT/health" 60 || { cat "$RUN/raw-floor.log"; exit 1; }
 
 large="${OHM_BENCH_LARGE:-0}"
-for a in "$@"; do [ "$a" = --large ] && large=1; done
+for a in "$@"; do
+  [ "$a" = --large ] && large=1
+  [ "$a" = --phone ] && export BENCH_ONLY=phone
+done
 log "measuring (about 6 minutes)"
 status=0
 export BENCH_APP_URL="$APP_BASE_URL" BENCH_RAW_URL="http://127.0.0.1:$RAW_PORT" BENCH_FIXTURE="$RUN/fixture.json" BENCH_DIST_DIR=.next-bench

@@ -1,11 +1,7 @@
 'use client';
 import { QueryClient, QueryClientProvider } from '@tanstack/react-query';
 import { useState } from 'react';
-import { z } from 'zod';
-
-// zod compiles object parsers with `new Function` when it may; the pages' Content-Security-Policy does not
-// allow eval, so in the browser zod runs without that (and the attempt does not raise a CSP report).
-z.config({ jitless: true });
+import './zod-jitless';
 
 // One TanStack Query client per browser tab for client-side data fetching.
 export function Providers({ children }: { children: React.ReactNode }) {
