@@ -80,7 +80,8 @@ describe('README: a walk through the demo, on a phone', () => {
 
   test('steward: Today → Loans → Overdue round (send a reminder on screen) → Shelf receive, move, count, labels', async () => {
     const page = await person('tobiah@quillmere.example');
-    expect(await page.locator('main').innerText()).toMatch(/overdue/i);
+    // Today streams behind its loading shell: wait for its content rather than reading the shell.
+    await expect.poll(() => page.locator('main').innerText(), { timeout: 30_000 }).toMatch(/overdue/i);
     await openSection(page, 'Loans');
     await page.getByRole('link', { name: 'Overdue round' }).click();
     await page.waitForURL((u) => u.pathname === '/loans/round');
