@@ -4,6 +4,7 @@ import { formatDateTime } from '@/lib/format';
 import { CATEGORY_WORDS } from '@/lib/inventory/words';
 import { formatMoney } from '@/lib/money';
 import { CARD_TABLE } from '@/components/ui/card-table';
+import { Figure } from './figure';
 
 /** The month as an association files it: tax, sales per account code, write-offs and the honour box. */
 export function FilingSummary({
@@ -20,13 +21,8 @@ export function FilingSummary({
   month: string;
 }) {
   const m = (n: number) => formatMoney(n, currency);
-  const item = (label: string, value: string, testId: string) => (
-    <div key={label} className="rounded-lg border border-stone-200 p-2 dark:border-stone-700">
-      <dt className="muted text-xs">{label}</dt>
-      <dd className="text-lg font-bold tabular-nums" data-testid={testId}>
-        {value}
-      </dd>
-    </div>
+  const item = (label: string, value: string, testId?: string) => (
+    <Figure key={label} label={label} value={value} testId={testId} />
   );
   return (
     <div className="space-y-4">

@@ -1,6 +1,7 @@
 import type { ReconTotals } from '@/lib/reconcile/match';
 import { formatMoney } from '@/lib/money';
 import { reconWord } from './recon-status';
+import { Figure } from './figure';
 
 /** The month's figures side by side, in our words: card money through the processor, our own books. */
 export function Totals({
@@ -16,12 +17,7 @@ export function Totals({
   const p = totals.processor;
   const o = totals.ours;
   const item = (label: string, value: string, testId?: string) => (
-    <div key={label} className="rounded-lg border border-stone-200 p-2 dark:border-stone-700">
-      <dt className="muted text-xs">{label}</dt>
-      <dd className="text-lg font-bold tabular-nums" data-testid={testId}>
-        {value}
-      </dd>
-    </div>
+    <Figure key={label} label={label} value={value} testId={testId} />
   );
   return (
     <div className="grid gap-3 lg:grid-cols-3">
