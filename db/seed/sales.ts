@@ -1,3 +1,4 @@
+import { sql } from 'kysely';
 import type Stripe from 'stripe';
 import type { Db } from '@/db/connect';
 import { makeStripe } from '@/lib/payments/stripe';
@@ -80,20 +81,27 @@ export async function seedSalesMonth(
   // Deterministic, so the demo month is the same on every machine.
   const random = seededRandom(opts.seed ?? 20261);
   const pick = <T>(xs: T[]) => xs[Math.floor(random() * xs.length)];
+  // Stock summed per part (a part may sit in several bins), in a fixed order: the demo month must not
+  // depend on the order the database happens to return rows in.
   const shelf = await db
     .selectFrom('parts')
     .innerJoin('stock', 'stock.part_id', 'parts.id')
-    .select(['parts.id', 'parts.sku', 'parts.price_minor', 'stock.qty'])
+    .select(['parts.id', 'parts.sku', 'parts.price_minor', sql<number>`sum(stock.qty)::int`.as('qty')])
     .where('parts.space_id', '=', opts.spaceId)
     .where('parts.sellable', '=', true)
     .where('parts.tracking', '=', 'counted')
     .where('parts.price_minor', '>', 1)
-    .where('stock.qty', '>=', 1)
+    .groupBy(['parts.id', 'parts.sku', 'parts.price_minor'])
+    .having(sql`sum(stock.qty)`, '>=', 1)
+    .orderBy('parts.sku')
+    .orderBy('parts.id')
     .execute();
-  // Baskets draw on well-stocked parts only, so a month of sales never empties a bin.
+  // Baskets draw on well-stocked parts only, and what a basket takes is counted off, so a month of sales
+  // never asks for more than the shelf holds (whatever else the demo seeded before it).
   const catalog = shelf.filter((p) => p.qty >= 12);
   if (catalog.length < 3)
     throw new Error('seedSalesMonth: the space needs at least three sellable parts with stock');
+  const left = new Map(shelf.map((p) => [p.id, p.qty]));
   const planted = shelf.find((p) => p.sku === PLANTED_MISMATCH.sku) ?? catalog[0];
   const discount = Math.min(PLANTED_MISMATCH.discountMinor, Math.floor(planted.price_minor! / 4));
 
@@ -109,9 +117,19 @@ export async function seedSalesMonth(
 
   const basket = async (must?: string): Promise<PricedLine[]> => {
     const wanted = new Map<string, number>();
-    if (must) wanted.set(must, 1);
+    if (must && (left.get(must) ?? 0) >= 1) wanted.set(must, 1);
     const n = 1 + Math.floor(random() * 3);
-    while (wanted.size < n) wanted.set(pick(catalog).id, 1 + Math.floor(random() * 2));
+    // A bounded number of draws: a part with too little left is passed over, never asked for.
+    for (let tries = 0; wanted.size < n && tries < 20; tries++) {
+      const id = pick(catalog).id;
+      const qty = 1 + Math.floor(random() * 2);
+      if (!wanted.has(id) && (left.get(id) ?? 0) >= qty + 2) wanted.set(id, qty);
+    }
+    if (!wanted.size) {
+      const fullest = catalog.reduce((a, b) => ((left.get(b.id) ?? 0) > (left.get(a.id) ?? 0) ? b : a));
+      wanted.set(fullest.id, 1);
+    }
+    for (const [id, qty] of wanted) left.set(id, (left.get(id) ?? 0) - qty);
     return priceBasket(
       db,
       opts.spaceId,
