@@ -2,10 +2,9 @@ import 'server-only';
 import { sql } from 'kysely';
 import type { Db } from '@/db/connect';
 import { scoped } from '@/db/scoped';
-import { audit } from '@/lib/audit/log';
 import type { Ctx } from '@/lib/auth/roles';
 import { now } from '@/lib/clock';
-import { NotFoundError } from '@/lib/errors';
+import { patchSection, readSection } from '@/lib/settings/section';
 import { monthOf, monthRange, spaceClock, type Month } from '@/lib/sales/periods';
 
 // The monthly restocking budget (spaces.settings.restocking.monthlyBudgetMinor; null = no budget) and
@@ -21,12 +20,14 @@ export type BudgetFigures = {
   receivedMinor: number;
 };
 
+type RestockingSettings = { monthlyBudgetMinor: number | null };
+const readRestocking = (raw: unknown): RestockingSettings => {
+  const value = (raw as Record<string, unknown> | undefined)?.monthlyBudgetMinor;
+  return { monthlyBudgetMinor: typeof value === 'number' && Number.isInteger(value) && value >= 0 ? value : null };
+};
+
 export async function monthlyBudget(db: Db, spaceId: string): Promise<number | null> {
-  const row = await db.selectFrom('spaces').select('settings').where('id', '=', spaceId).executeTakeFirst();
-  if (!row) throw new NotFoundError('No such space.');
-  const value = ((row.settings as Record<string, unknown> | null)?.restocking as Record<string, unknown> | undefined)
-    ?.monthlyBudgetMinor;
-  return typeof value === 'number' && Number.isInteger(value) && value >= 0 ? value : null;
+  return (await readSection(db, spaceId, 'restocking', readRestocking)).monthlyBudgetMinor;
 }
 
 export async function budgetFigures(db: Db, ctx: Pick<Ctx, 'spaceId'>, at: Date = now()): Promise<BudgetFigures> {
@@ -56,23 +57,6 @@ export async function budgetFigures(db: Db, ctx: Pick<Ctx, 'spaceId'>, at: Date 
 
 /** An admin sets (or clears, with null) the monthly budget; audited with what it was. */
 export async function setMonthlyBudget(db: Db, ctx: Ctx, monthlyBudgetMinor: number | null) {
-  return db.transaction().execute(async (trx) => {
-    const before = await monthlyBudget(trx, ctx.spaceId);
-    await trx
-      .updateTable('spaces')
-      .set({
-        settings: sql`jsonb_set(settings, '{restocking}', ${JSON.stringify({ monthlyBudgetMinor })}::jsonb, true)`,
-      })
-      .where('id', '=', ctx.spaceId)
-      .execute();
-    await audit(trx, {
-      spaceId: ctx.spaceId,
-      actorId: ctx.userId,
-      action: 'restocking.budget_set',
-      targetType: 'space',
-      targetId: ctx.spaceId,
-      detail: { from: before, to: monthlyBudgetMinor },
-    });
-    return { budget: await budgetFigures(trx, ctx) };
-  });
+  await patchSection(db, ctx, 'restocking', readRestocking, () => ({ monthlyBudgetMinor }), 'restocking.budget_set');
+  return { budget: await budgetFigures(db, ctx) };
 }

@@ -9,7 +9,7 @@ import { NotFoundError } from '@/lib/errors';
 // the patch is merged, only that key is rewritten, and the audit row names each field that changed with
 // what it was. (No server-only here: the demo seed reads the money rules through this file.)
 
-export type SettingsSection = 'borrowing' | 'money';
+export type SettingsSection = 'borrowing' | 'money' | 'restocking';
 export type Changes = Record<string, { from: unknown; to: unknown }>;
 
 /** The stored section as `read` makes sense of it (a default per field). */
