@@ -101,7 +101,8 @@ describe.each(PEOPLE)('$email at 390 px', ({ email, roles }) => {
 
     await page.keyboard.press('Escape');
     await sheet.waitFor({ state: 'hidden' });
-    expect(await more.getAttribute('aria-expanded')).toBe('false');
+    // The button's state follows the dialog's close event a frame later.
+    await expect.poll(() => more.getAttribute('aria-expanded')).toBe('false');
     expect(await page.evaluate(() => document.activeElement?.textContent?.trim())).toBe('More');
   });
 

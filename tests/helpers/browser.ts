@@ -69,6 +69,9 @@ const axeSource = readFileSync(createRequire(import.meta.url).resolve('axe-core/
 
 /** axe-core in the page; returns the serious and critical violations (ids and first targets). */
 export async function seriousA11yViolations(page: Page): Promise<string[]> {
+  // A refresh after a server action streams the page's metadata again; give the <title> a moment to
+  // come back before judging (a page that never has one still fails below).
+  await page.waitForFunction(() => document.title.trim() !== '', null, { timeout: 5_000 }).catch(() => undefined);
   // Evaluated by the driver, not added as an inline <script> (the app's CSP refuses those).
   await page.evaluate(axeSource);
   const violations = await page.evaluate(async () => {
