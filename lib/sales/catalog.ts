@@ -29,7 +29,7 @@ export async function sellableCatalog(db: Db, spaceId: string): Promise<CatalogI
       'parts.sale_unit',
       'parts.price_minor',
     ])
-    .select(sql<number>`coalesce(sum(stock.qty), 0)::int`.as('on_shelf'))
+    .select(sql<number>`coalesce(sum(stock.qty), 0)`.as('on_shelf'))
     .where('parts.space_id', '=', spaceId)
     .where('parts.sellable', '=', true)
     .where('parts.tracking', '=', 'counted')

@@ -73,7 +73,7 @@ export async function todaySummary(db: Db, ctx: Ctx): Promise<TodaySummary> {
       .selectFrom('parts')
       .leftJoin('stock', 'stock.part_id', 'parts.id')
       .select(['parts.id', 'parts.name', 'parts.reorder_point'])
-      .select(sql<number>`coalesce(sum(stock.qty), 0)::int`.as('qty'))
+      .select(sql<number>`coalesce(sum(stock.qty), 0)`.as('qty'))
       .where('parts.space_id', '=', ctx.spaceId)
       .where('parts.tracking', '=', 'counted')
       .where('parts.archived_at', 'is', null)
