@@ -7,5 +7,8 @@ import { measureOf, qtyProblem } from './measure';
  */
 export function refuseQtyNotInUnit(qty: number, saleUnit: string, field: string, what = 'quantity'): void {
   const problem = qtyProblem(qty, measureOf(saleUnit));
-  if (problem) throw new InvalidError(`Check ${field}: the ${what} ${problem}.`, { [field]: [`the ${what} ${problem}`] });
+  if (problem)
+    throw new InvalidError(`Check ${field}: the ${what} ${problem}.`, {
+      [field]: [`the ${what} ${problem}`],
+    });
 }

@@ -21,14 +21,18 @@ export const MEASURE_CHOICES: Record<Measure, string> = {
   gram: 'By the gram',
 };
 
-export const isMeasure = (v: unknown): v is Measure => typeof v === 'string' && (MEASURES as readonly string[]).includes(v);
+export const isMeasure = (v: unknown): v is Measure =>
+  typeof v === 'string' && (MEASURES as readonly string[]).includes(v);
 
 /** A stored unit read defensively: anything unknown is 'each'. */
 export const measureOf = (v: string | null | undefined): Measure => (isMeasure(v) ? v : 'each');
 
 /** Words people type for a unit ("m", "metres", "grams") read as ours; null when it is none of them. */
 export function parseMeasure(input: string): Measure | null {
-  const s = input.trim().toLowerCase().replace(/^per\s+/, '');
+  const s = input
+    .trim()
+    .toLowerCase()
+    .replace(/^per\s+/, '');
   if (['', 'each', 'ea', 'item', 'items', 'piece', 'pieces', 'pc', 'pcs'].includes(s)) return 'each';
   if (['m', 'metre', 'metres', 'meter', 'meters'].includes(s)) return 'metre';
   if (['g', 'gram', 'grams', 'gramme', 'grammes'].includes(s)) return 'gram';
@@ -52,7 +56,8 @@ export const sumQty = (xs: number[]): number => roundQty(xs.reduce((a, b) => a +
  */
 export function qtyProblem(qty: number, measure: Measure): string | null {
   if (!Number.isFinite(qty)) return 'must be a number';
-  if (measure === 'each') return Number.isInteger(qty) ? null : 'must be a whole number (this part is counted in whole items)';
+  if (measure === 'each')
+    return Number.isInteger(qty) ? null : 'must be a whole number (this part is counted in whole items)';
   return hasAtMostThreeDecimals(qty)
     ? null
     : `may have at most ${MEASURE_DECIMALS} decimals (this part is counted in ${measure === 'metre' ? 'metres' : 'grams'})`;
