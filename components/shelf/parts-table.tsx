@@ -14,7 +14,7 @@ import type { PartPage, PartRow } from '@/lib/inventory/parts-list';
 import type { PartListQuery } from '@/lib/inventory/schemas';
 import { CATEGORIES, CATEGORY_WORDS, type PartSort } from '@/lib/inventory/words';
 import { formatQty } from '@/lib/inventory/measure';
-import { formatMoney, formatUnitPrice } from '@/lib/money';
+import { formatUnitPrice } from '@/lib/money';
 import { api } from './api';
 import { partsQueryString } from './query-string';
 import { ScrollRegion } from './scroll-region';

@@ -1,5 +1,5 @@
 'use client';
-import { useEffect, useState } from 'react';
+import { useState } from 'react';
 import { MEASURE_SYMBOL, parseQtyInput, qtyInputMode, qtyStep, type Measure } from '@/lib/inventory/measure';
 
 /**
@@ -30,10 +30,13 @@ export function MeasuredQtyInput({
   invalid?: boolean;
 }) {
   const [text, setText] = useState(value === null ? '' : String(value));
-  // A change from outside (another line's +/−, a reload) shows; a partly typed number does not flicker.
-  useEffect(() => {
-    setText((t) => (parseQtyInput(t) === value ? t : value === null ? '' : String(value)));
-  }, [value]);
+  const [shown, setShown] = useState(value);
+  // A change from outside (clamped to the shelf, a reload) shows; a partly typed number ("65.") does not
+  // flicker back. Adjusted while rendering, React's way of following a prop.
+  if (shown !== value) {
+    setShown(value);
+    if (parseQtyInput(text) !== value) setText(value === null ? '' : String(value));
+  }
   const symbol = MEASURE_SYMBOL[measure];
   return (
     <span className="inline-flex items-center gap-1">
