@@ -32,7 +32,7 @@ const onShelfWords = (item: CatalogItem) => formatQty(item.onShelf, item.saleUni
 const shelfLimit = (item: CatalogItem) =>
   item.onShelf === 0
     ? `${item.name} is not on the shelf.`
-    : `Only ${onShelfWords(item)} of ${item.name} on the shelf, and all of it is in the basket.`;
+    : `Only ${onShelfWords(item)} of ${item.name} on the shelf, and all of them are in the basket.`;
 
 // The bench's till, for a phone held in one hand: scan or type a label, or pick from the list; the
 // basket with big +/− targets; pay by card on the processor's page, or (a steward) record cash.
