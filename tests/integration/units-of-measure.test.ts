@@ -150,6 +150,9 @@ describe('ordering and receiving by the metre', () => {
     const tooFineOffer = await t.steward.post('/api/suppliers/offers', { supplierId, partId: ids.solder, packSize: 0.0005, packPriceMinor: 1 });
     expect(tooFineOffer.status).toBe(400);
     expect(await fieldsOf(tooFineOffer)).toHaveProperty('packSize');
+    const halfPack = await t.steward.post('/api/suppliers/offers', { supplierId, partId: t.shop.parts.pads.id, packSize: 1.5, packPriceMinor: 100 });
+    expect(halfPack.status).toBe(400);
+    expect((await fieldsOf(halfPack)).packSize?.[0]).toMatch(/whole number/);
 
     const created = (await (await t.steward.post('/api/orders', { supplierId, lines: [{ partId: ids.wire, packs: 1 }] })).json()) as {
       order?: { id: string };
