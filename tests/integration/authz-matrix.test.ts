@@ -36,6 +36,7 @@ export const MATRIX: Record<string, Row> = {
   'GET /api/books/reconciliation': { who: T, ok: 200, path: '/api/books/reconciliation?month=2026-11' },
   'POST /api/books/sweep': { who: T, ok: 200 },
   'POST /api/books/resolutions': { who: T, ok: 400, body: EMPTY },
+  'GET /api/books/spend': { who: ['treasurer', 'admin'], ok: 200, path: '/api/books/spend?month=2026-11' },
   'GET /api/calendar/[token]': { who: 'public', ok: 404 },
   'GET /api/calendar/link': { who: 'user', ok: 200 },
   'POST /api/calendar/link': { who: 'user', ok: 200 },

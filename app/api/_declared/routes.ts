@@ -5,6 +5,7 @@ import * as authNextauth from '../auth/[...nextauth]/route';
 import * as benchCheckCompare from '../bench-check/compare/route';
 import * as benchCheck from '../bench-check/route';
 import * as booksExport from '../books/export/route';
+import * as booksSpend from '../books/spend/route';
 import * as booksPeriods from '../books/periods/route';
 import * as booksReconciliation from '../books/reconciliation/route';
 import * as booksResolutions from '../books/resolutions/route';
@@ -112,6 +113,8 @@ export const ROUTES: RouteModules = {
   '/api/books/reconciliation': booksReconciliation,
   // Books (treasurer): notes that explain rows that do not match
   '/api/books/resolutions': booksResolutions,
+  // Books: the restocking spend as CSV (treasurers and admins)
+  '/api/books/spend': booksSpend,
   '/api/books/sweep': booksSweep,
   '/api/calendar/{token}': calendarToken,
   '/api/calendar/link': calendarLink,
