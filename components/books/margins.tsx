@@ -37,12 +37,12 @@ export function Margins({ rows, currency, label }: { rows: CategoryMargin[]; cur
                   {r.category === 'all' ? 'All categories' : CATEGORY_WORDS[r.category]}
                   {r.unknownLines ? (
                     <span className="block text-xs font-normal" data-testid="cost-unknown">
-                      Cost unknown for {r.unknownLines} line{r.unknownLines === 1 ? '' : 's'} ({m(r.unknownSoldMinor)} sold)
+                      {`Cost unknown for ${r.unknownLines} line${r.unknownLines === 1 ? '' : 's'} (${m(r.unknownSoldMinor)} sold)`}
                     </span>
                   ) : null}
                   {r.offerLines ? (
                     <span className="muted block text-xs font-normal">
-                      {r.offerLines} line{r.offerLines === 1 ? '' : 's'} costed at the supplier’s offer
+                      {`${r.offerLines} line${r.offerLines === 1 ? '' : 's'} costed at the supplier’s offer`}
                     </span>
                   ) : null}
                 </td>
