@@ -137,6 +137,8 @@ export const MATRIX: Record<string, Row> = {
   'PATCH /api/suppliers/[id]': { who: W, ok: [400, 404], body: { leadDays: -1 } },
   'POST /api/suppliers/offers': { who: W, ok: 400, body: EMPTY },
   'DELETE /api/suppliers/offers/[id]': { who: W, ok: 404 },
+  'GET /api/suppliers/offers/export': { who: W, ok: 200 },
+  'POST /api/suppliers/offers/import': { who: W, ok: 400, body: EMPTY },
   'GET /api/orders': { who: W, ok: 200 },
   'POST /api/orders': { who: W, ok: 400, body: EMPTY },
   'GET /api/orders/to-order': { who: W, ok: 200 },

@@ -62,6 +62,7 @@ beforeAll(async () => {
   ids.supplier = (
     await db.insertInto('suppliers').values({ space_id: s, name: 'Wrenfold Trading', email: 'orders@wrenfold.example' }).returning('id').executeTakeFirstOrThrow()
   ).id;
+  const dearer = await db.insertInto('suppliers').values({ space_id: s, name: 'Quayfold Parts' }).returning('id').executeTakeFirstOrThrow();
   await db
     .insertInto('supplier_offers')
     .values([
@@ -69,7 +70,7 @@ beforeAll(async () => {
       { space_id: s, supplier_id: ids.supplier, part_id: ids.pads, pack_size: 10, pack_price_minor: 400, preferred: true },
       { space_id: s, supplier_id: ids.supplier, part_id: ids.lead, pack_size: 25, pack_price_minor: 1000, preferred: true },
       // A dearer offer that is not preferred never decides a cost.
-      { space_id: s, supplier_id: ids.supplier, part_id: ids.lead, pack_size: 25, pack_price_minor: 5000, preferred: false },
+      { space_id: s, supplier_id: dearer.id, part_id: ids.lead, pack_size: 25, pack_price_minor: 5000, preferred: false },
     ])
     .execute();
   steward = await session(space.people.steward);

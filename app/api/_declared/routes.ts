@@ -92,6 +92,8 @@ import * as suppliers from '../suppliers/route';
 import * as suppliersId from '../suppliers/[id]/route';
 import * as suppliersOffers from '../suppliers/offers/route';
 import * as suppliersOffersId from '../suppliers/offers/[id]/route';
+import * as suppliersOffersExport from '../suppliers/offers/export/route';
+import * as suppliersOffersImport from '../suppliers/offers/import/route';
 import * as orders from '../orders/route';
 import * as ordersToOrder from '../orders/to-order/route';
 import * as ordersId from '../orders/[id]/route';
@@ -194,6 +196,8 @@ export const ROUTES: RouteModules = {
   '/api/suppliers/{id}': suppliersId,
   '/api/suppliers/offers': suppliersOffers,
   '/api/suppliers/offers/{id}': suppliersOffersId,
+  '/api/suppliers/offers/export': suppliersOffersExport,
+  '/api/suppliers/offers/import': suppliersOffersImport,
   '/api/orders': orders,
   '/api/orders/to-order': ordersToOrder,
   '/api/orders/{id}': ordersId,
