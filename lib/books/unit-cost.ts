@@ -33,8 +33,9 @@ export function unitCostAt(basis: CostBasis | undefined, at: Date): UnitCost | n
 /** x rounded half away from zero to a whole minor unit (x within a millionth of a half counts as a half). */
 export function roundHalfAwayFromZero(x: number): number {
   const a = Math.abs(x);
-  // Products of decimal quantities carry binary noise (0.1 × 3 = 0.30000000000000004): settle it first.
-  const settled = Math.round(a * 1e6) / 1e6;
+  // Products of decimal quantities carry binary noise (0.1 × 3 = 0.30000000000000004): settle it first
+  // (below 10⁹ minor units, where a millionth is still exact in a double).
+  const settled = a < 1e9 ? Math.round(a * 1e6) / 1e6 : a;
   const r = Math.floor(settled + 0.5);
   return r === 0 ? 0 : Math.sign(x) * r;
 }
