@@ -21,16 +21,18 @@ export function FilingSummary({
   month: string;
 }) {
   const m = (n: number) => formatMoney(n, currency);
-  const item = (label: string, value: string, testId?: string) => (
-    <Figure key={label} label={label} value={value} testId={testId} />
+  const item = (label: string, minor: number, testId: string) => (
+    <Figure key={label} label={label} value={m(minor)} testId={testId} minor={minor} />
   );
   return (
     <div className="space-y-4">
-      <dl className="grid grid-cols-2 gap-2 sm:grid-cols-4">
-        {item('Tax collected', m(totals.taxCollectedMinor), 'filing-tax-collected')}
-        {item('Tax given back', m(totals.taxRefundedMinor), 'filing-tax-refunded')}
-        {item('Honour box over/short', m(totals.boxDifferenceMinor), 'filing-box-difference')}
-        {item('Banked from the box', m(totals.boxBankedMinor), 'filing-box-banked')}
+      <dl className="grid grid-cols-2 gap-2 sm:grid-cols-3">
+        {item('Tax collected', totals.taxCollectedMinor, 'filing-tax-collected')}
+        {item('Tax given back', totals.taxRefundedMinor, 'filing-tax-refunded')}
+        {item('Honour box over/short', totals.boxDifferenceMinor, 'filing-box-difference')}
+        {item('Banked from the box', totals.boxBankedMinor, 'filing-box-banked')}
+        {item('Purchases received', totals.purchasesReceivedMinor, 'filing-purchases')}
+        {item('Written off at cost', totals.writeOffsAtCostMinor, 'filing-write-offs')}
       </dl>
       {totals.byCategory.length ? (
         <table className={`w-full ${CARD_TABLE}`}>
@@ -82,9 +84,13 @@ export function FilingSummary({
           </ul>
         )}
       </div>
-      <p className="muted text-sm">
-        {totals.writeOffLines} stock write-off{totals.writeOffLines === 1 ? '' : 's'} this month (lost, damaged, retired and
-        count differences) are listed in the export by quantity; their cost is blank until prices paid are recorded.
+      <p className="muted text-sm" data-testid="filing-write-off-words">
+        {totals.writeOffLines} stock write-off{totals.writeOffLines === 1 ? '' : 's'} this month (lost, damaged, retired,
+        charged damage and count differences), each at the price per unit last paid before it (else the preferred
+        offer’s).
+        {totals.writeOffsCostUnknown
+          ? ` ${totals.writeOffsCostUnknown} of them ha${totals.writeOffsCostUnknown === 1 ? 's' : 've'} no known cost and ${totals.writeOffsCostUnknown === 1 ? 'is' : 'are'} left out of the figure above (blank in the export).`
+          : ''}
       </p>
       <div className="flex flex-wrap gap-2">
         <a href={`/api/books/export?month=${month}&part=filing`} className="btn-quiet" download>

@@ -7,10 +7,12 @@ export function SpendBesideSales({
   rows,
   currency,
   label,
+  month,
 }: {
   rows: { category: PartCategory; soldMinor: number; spentMinor: number }[];
   currency: string;
   label: string;
+  month: string;
 }) {
   const money = (n: number) => formatMoney(n, currency);
   const sold = rows.reduce((n, r) => n + r.soldMinor, 0);
@@ -37,12 +39,15 @@ export function SpendBesideSales({
           ))}
           <li className="flex flex-wrap justify-between gap-x-3 py-1.5 font-bold">
             <span>All categories</span>
-            <span>
+            <span data-testid="spend-total" data-minor={spent}>
               sold {money(sold)} · spent {money(spent)}
             </span>
           </li>
         </ul>
       )}
+      <a href={`/api/books/spend?month=${month}`} className="btn-quiet" download>
+        Spend as CSV
+      </a>
     </section>
   );
 }

@@ -115,9 +115,16 @@ export async function seedDemo(db: Db, clock: Date = new Date()): Promise<{ seed
       .set({ settings: JSON.stringify({ borrowing: { presence: 'bench_handover' } }) })
       .where('id', '=', spaces.fernwick.id)
       .execute();
+    // Quillmere's money rules (lib/money-rules): an invented 6.5 % sales tax already inside its shelf
+    // prices, and its own account codes per category, so the demo month's sales carry tax in the books.
     await trx
       .updateTable('spaces')
-      .set({ settings: JSON.stringify({ borrowing: { presence: 'self_service' } }) })
+      .set({
+        settings: JSON.stringify({
+          borrowing: { presence: 'self_service' },
+          money: { taxMode: 'inclusive', taxRateBp: 650, taxName: 'Sales tax', accountCodes: { consumable: '4100', wire: '4110', heat_sink: '4120', led: '4130' } },
+        }),
+      })
       .where('id', '=', spaces.quillmere.id)
       .execute();
 

@@ -1,10 +1,13 @@
 import { sql } from 'kysely';
 import type { Db } from '@/db/connect';
+import { monthOf, monthRange, shiftMonth } from '@/lib/sales/periods';
 import { DEMO_PARTS } from './parts';
 
 // Quillmere's restocking, invented like the rest of the demo: three suppliers (no real firms), an offer
 // for every part they would sell us, a monthly budget, one order list part arrived and one with the
-// supplier past its expected day.
+// supplier past its expected day. In the demo month (last month) one list arrived in full at a price a little
+// below today's offers, and a bin count and a crushed pack were written off, so the month's books have
+// purchases, write-offs at cost and margins costed both ways (offer before the delivery, price paid after).
 
 const DAY = 86_400_000;
 
@@ -22,6 +25,8 @@ function offersFor(sku: string, category: string): { key: Key; pack: number }[] 
   if (category === 'heat_sink' || sku === 'CON-LENS30') return [{ key: 'brindle', pack: 5 }, { key: 'tallow', pack: 5 }];
   if (category === 'driver') return [{ key: 'tallow', pack: sku.startsWith('RES') ? 20 : 2 }];
   if (category === 'supply') return [{ key: 'tallow', pack: 1 }];
+  // Solder comes off a 250 g spool (sold by the gram at the counter).
+  if (sku === 'CON-SOLDER') return [{ key: 'sallow', pack: 250 }, { key: 'tallow', pack: 500 }];
   if (category === 'consumable' || category === 'kit_box') return [{ key: 'sallow', pack: 10 }, { key: 'tallow', pack: 10 }];
   return [];
 }
@@ -126,4 +131,88 @@ export async function seedRestock(
       .values({ space_id: spaceId, actor_id: steward, action, target_type: 'order_list', target_id: id, detail: JSON.stringify({ seeded: true }), created_at: new Date(clock.getTime() - at * DAY) })
       .execute();
   }
+  await seedDemoMonthStock(trx, spaceId, partIds, bins, supplierIds.sallow, steward, clock);
+}
+
+/**
+ * Last month at Quillmere: thermal pads and lever connectors arrived from Sallowbrook on the 6th (10:00
+ * local), a bin count on the 15th found 3 pads fewer than the books held, and a heat-shrink assortment was
+ * crushed on the 20th. The opening stock is written that much smaller (or larger), so the shelf today holds
+ * exactly what it held before these were added: only the history and the books change.
+ */
+async function seedDemoMonthStock(
+  trx: Db,
+  spaceId: string,
+  partIds: Record<string, string>,
+  bins: Record<string, string>,
+  supplierId: string,
+  steward: string,
+  clock: Date,
+): Promise<void> {
+  const { time_zone: tz } = await trx.selectFrom('spaces').select('time_zone').where('id', '=', spaceId).executeTakeFirstOrThrow();
+  const { from } = monthRange(shiftMonth(monthOf(clock, tz), -1), tz);
+  const day = (n: number, hour: number) => new Date(from.getTime() + (n - 1) * DAY + hour * 3_600_000);
+  const delivered = [
+    { sku: 'CON-TPAD', packs: 10, pack: 10, price: 130 },
+    { sku: 'CON-LEVER2', packs: 2, pack: 10, price: 210 },
+  ].filter((d) => partIds[d.sku]);
+  const writtenOff = [
+    { sku: 'CON-TPAD', qty: 3, reason: 'count' as const, at: day(15, 18), note: 'Bin count: 3 fewer than the books held' },
+    { sku: 'CON-HSHRINK', qty: 1, reason: 'damaged' as const, at: day(20, 19), note: 'Assortment crushed under a toolbox' },
+  ].filter((w) => partIds[w.sku]);
+  if (!delivered.length) return;
+
+  const list = await trx
+    .insertInto('order_lists')
+    .values({ space_id: spaceId, supplier_id: supplierId, state: 'all_in', currency: 'USD', created_by: steward, created_at: day(1, 11), sent_at: day(1, 12), sent_by: steward, expected_at: day(6, 18), closed_at: day(6, 10) })
+    .returning('id')
+    .executeTakeFirstOrThrow();
+  const receipt = await trx
+    .insertInto('order_receipts')
+    .values({ space_id: spaceId, order_id: list.id, idempotency_key: `seed-${list.id}`, received_by: steward, received_at: day(6, 10), result: JSON.stringify({ seeded: true }) })
+    .returning('id')
+    .executeTakeFirstOrThrow();
+  for (const d of delivered) {
+    const units = d.packs * d.pack;
+    const line = await trx
+      .insertInto('order_lines')
+      .values({ space_id: spaceId, order_id: list.id, part_id: partIds[d.sku], item_ref: `SAL-${d.sku}`, pack_size: d.pack, packs: d.packs, pack_price_minor: d.price, received_units: units })
+      .returning('id')
+      .executeTakeFirstOrThrow();
+    await trx
+      .insertInto('order_receipt_lines')
+      .values({ space_id: spaceId, receipt_id: receipt.id, line_id: line.id, part_id: partIds[d.sku], location_id: bins.consumables, units, cost_minor: d.packs * d.price })
+      .execute();
+    await trx
+      .insertInto('stock_movements')
+      .values({ space_id: spaceId, part_id: partIds[d.sku], location_id: bins.consumables, qty_delta: units, reason: 'receive', note: 'order list', ref_type: 'order_list', ref_id: list.id, actor_id: steward, created_at: day(6, 10) })
+      .execute();
+    await openingStockChange(trx, spaceId, partIds[d.sku], -units);
+  }
+  for (const w of writtenOff) {
+    await trx
+      .insertInto('stock_movements')
+      .values({ space_id: spaceId, part_id: partIds[w.sku], location_id: bins.consumables, qty_delta: -w.qty, reason: w.reason, note: w.note, actor_id: steward, created_at: w.at })
+      .execute();
+    await openingStockChange(trx, spaceId, partIds[w.sku], w.qty);
+  }
+  await trx
+    .insertInto('audit_log')
+    .values([
+      { space_id: spaceId, actor_id: steward, action: 'order.sent', target_type: 'order_list', target_id: list.id, detail: JSON.stringify({ seeded: true }), created_at: day(1, 12) },
+      { space_id: spaceId, actor_id: steward, action: 'order.received', target_type: 'order_list', target_id: list.id, detail: JSON.stringify({ seeded: true }), created_at: day(6, 10) },
+    ])
+    .execute();
+}
+
+/** Moves a part's opening-stock movement by `delta`, so its history still sums to what is on the shelf. */
+async function openingStockChange(trx: Db, spaceId: string, partId: string, delta: number): Promise<void> {
+  await trx
+    .updateTable('stock_movements')
+    .set((eb) => ({ qty_delta: eb('qty_delta', '+', delta) }))
+    .where('space_id', '=', spaceId)
+    .where('part_id', '=', partId)
+    .where('reason', '=', 'receive')
+    .where('note', '=', 'opening stock')
+    .execute();
 }

@@ -11,6 +11,8 @@ import { monthOf, monthRange, shiftMonth, type Month } from '@/lib/sales/periods
 import { saleRef } from '@/lib/sales/ref';
 import { applyRefund, refundMetadata, refundState, lockSale } from '@/lib/sales/refunds';
 import { seededRandom } from '@/lib/seeded-random';
+import { moneyRules, taxRuleOf } from '@/lib/money-rules/settings';
+import { refundAmountForLines, taxSale, taxWords } from '@/lib/sales/tax';
 
 // A month of invented consumable sales that exist both in our database and at the payments fake:
 // every card sale is a real checkout session paid on the fake (so its ledger holds the charge, the
@@ -79,6 +81,9 @@ export async function seedSalesMonth(
     .executeTakeFirstOrThrow();
   const currency = space.currency.trim();
   const { from, to } = monthRange(opts.month, space.time_zone);
+  // The space's tax rule as it stands, on every sale as the counter would put it (lib/sales/tax.ts).
+  const rules = await moneyRules(db, opts.spaceId);
+  const tax = taxRuleOf(rules);
   // Deterministic, so the demo month is the same on every machine.
   const random = seededRandom(opts.seed ?? 20261);
   const pick = <T>(xs: T[]) => xs[Math.floor(random() * xs.length)];
@@ -176,6 +181,7 @@ export async function seedSalesMonth(
             cashierId: opts.steward.id,
             lines,
             at,
+            tax,
           }),
         );
         out.cashSales.push(sale.id);
@@ -184,6 +190,7 @@ export async function seedSalesMonth(
       const isPlanted = at === plantedAt;
       const lines = await basket(isPlanted ? planted.id : undefined);
       await setFakeClock(fake, at);
+      const taxed = taxSale(basketTotal(lines), tax);
       const sale = await db
         .insertInto('sales')
         .values({
@@ -193,7 +200,10 @@ export async function seedSalesMonth(
           method: 'card',
           status: 'pending',
           currency,
-          total_minor: basketTotal(lines),
+          total_minor: taxed.totalMinor,
+          tax_mode: tax.mode,
+          tax_rate_bp: tax.rateBp,
+          tax_minor: taxed.taxMinor,
           created_at: at,
         })
         .returning('id')
@@ -216,6 +226,9 @@ export async function seedSalesMonth(
         saleUnit: l.saleUnit,
         unitPriceMinor: isPlanted && l.partId === planted.id ? l.unitPriceMinor - discount : l.unitPriceMinor,
       }));
+      // Tax added to shelf prices is its own line on the pay page, as at the counter (lib/sales/card.ts).
+      if (tax.mode === 'exclusive' && taxed.taxMinor > 0)
+        charged.push({ name: taxWords(rules.taxName, tax), qty: 1, saleUnit: 'each', unitPriceMinor: taxed.taxMinor });
       const session = await fake.stripe.checkout.sessions.create(
         checkoutParams({
           saleId: sale.id,
@@ -282,7 +295,7 @@ export async function seedSalesMonth(
         const refund = await fake.stripe.refunds.create(
           {
             payment_intent: pi,
-            amount: line.unit_price_minor,
+            amount: refundAmountForLines(line.unit_price_minor, tax),
             reason: 'requested_by_customer',
             metadata: refundMetadata({
               saleId: sale.id,

@@ -18,6 +18,7 @@ export const FILING_SECTIONS = [
   'tax refunded',
   'processor fee',
   'write-off',
+  'purchase received',
   'honour box count',
   'honour box banking',
 ] as const;
@@ -30,6 +31,8 @@ const COLUMNS = [
   'method',
   'recorded_at',
   'buyer',
+  'supplier',
+  'order_list',
   'item',
   'category',
   'account_code',
@@ -139,10 +142,26 @@ export function filingCsv(f: Filing, c: Ctx): string {
       item: w.part,
       category: CATEGORY_WORDS[w.category],
       account_code: w.accountCode,
-      qty: w.qtyDelta,
-      // No price paid is recorded against stock yet, so the cost is left blank rather than guessed.
-      amount_minor: '',
-      note: [w.reason, 'cost not recorded', w.note].filter(Boolean).join('; '),
+      // Units written off: positive for a loss, negative when a count found more than the books held.
+      qty: w.qty,
+      // At cost (lib/books/unit-cost.ts); blank when the cost is unknown, never a guessed 0.
+      amount_minor: w.costMinor ?? '',
+      note: [w.reason, w.costBasis, w.note].filter(Boolean).join('; '),
+    });
+  for (const p of f.purchases)
+    rows.push({
+      ...base,
+      section: 'purchase received',
+      when: when(p.receivedAt),
+      supplier: p.supplier,
+      order_list: p.orderRef,
+      item: p.part,
+      category: CATEGORY_WORDS[p.category],
+      account_code: p.accountCode,
+      qty: p.units,
+      // What was paid for the line; the price per unit can be a fraction of a minor unit, so it is not a column.
+      amount_minor: p.costMinor,
+      note: `packs of ${p.packSize}, listed at ${p.listPackPriceMinor} a pack`,
     });
   for (const b of f.boxCounts) {
     rows.push({
@@ -176,6 +195,8 @@ export function filingTotalsCsv(t: FilingTotals, c: Ctx): string {
     ['refund', 'cash refunds', t.cashRefundsMinor],
     ['tax refunded', 'tax given back', t.taxRefundedMinor],
     ['processor fee', 'processor fees', t.processorFeesMinor],
+    ['write-off', 'written off at cost', t.writeOffsAtCostMinor],
+    ['purchase received', 'purchases received at the price paid', t.purchasesReceivedMinor],
     ['honour box count', 'honour box over (+) or short (−)', t.boxDifferenceMinor],
     ['honour box banking', 'banked from the honour box', t.boxBankedMinor],
     ...t.byCategory.map((x): [string, string, number] => [

@@ -13,6 +13,12 @@ export type FilingTotals = {
   cashRefundsMinor: number;
   processorFeesMinor: number;
   writeOffLines: number;
+  /** Write-offs whose cost is known, at cost (a count that found more counts against them). */
+  writeOffsAtCostMinor: number;
+  /** Write-offs whose cost is unknown (left out of writeOffsAtCostMinor, never counted as 0). */
+  writeOffsCostUnknown: number;
+  /** Purchases received at the price paid: the same sum as the spend beside sales. */
+  purchasesReceivedMinor: number;
   boxDifferenceMinor: number;
   boxBankedMinor: number;
   byCategory: { category: PartCategory; accountCode: string; netMinor: number; taxMinor: number; grossMinor: number }[];
@@ -39,6 +45,9 @@ export function filingTotals(f: Filing): FilingTotals {
     cashRefundsMinor: sum(f.refunds.filter((r) => r.method === 'cash').map((r) => r.amountMinor)),
     processorFeesMinor: sum(f.fees.map((x) => x.feeMinor)),
     writeOffLines: f.writeOffs.length,
+    writeOffsAtCostMinor: sum(f.writeOffs.map((w) => w.costMinor ?? 0)),
+    writeOffsCostUnknown: f.writeOffs.filter((w) => w.costMinor === null).length,
+    purchasesReceivedMinor: sum(f.purchases.map((p) => p.costMinor)),
     boxDifferenceMinor: sum(f.boxCounts.map((c) => c.differenceMinor)),
     boxBankedMinor: sum(f.boxCounts.map((c) => c.banking?.amountMinor ?? 0)),
     byCategory: [...cats.values()].sort((a, b) => a.category.localeCompare(b.category)),

@@ -5,9 +5,11 @@ import { scoped } from '@/db/scoped';
 import type { PartCategory } from '@/db/types';
 import type { Ctx } from '@/lib/auth/roles';
 import { monthRange, spaceClock, type Month } from '@/lib/sales/periods';
+import { purchasesReceived } from './purchases';
 
 // The treasurer's month, money out beside money in, per part category: what arrived against order
-// lists at the price paid (recorded when received; no processor involved) and what was sold (card and
+// lists at the price paid (recorded when received; no processor involved; the same lines as the filing
+// file's purchases and the spend CSV, lib/restock/purchases.ts) and what was sold (card and
 // cash sales paid in the month, less the units refunded, at the price on the sale line).
 
 export type SpendRow = { category: PartCategory; soldMinor: number; spentMinor: number };
@@ -15,16 +17,8 @@ export type SpendRow = { category: PartCategory; soldMinor: number; spentMinor: 
 export async function spendBesideSales(db: Db, ctx: Pick<Ctx, 'spaceId'>, month: Month): Promise<{ rows: SpendRow[]; currency: string }> {
   const { timeZone, currency } = await spaceClock(db, ctx.spaceId);
   const { from, to } = monthRange(month, timeZone);
-  const [spent, sold] = await Promise.all([
-    scoped(db, ctx)
-      .selectFrom('order_receipt_lines')
-      .innerJoin('order_receipts', 'order_receipts.id', 'order_receipt_lines.receipt_id')
-      .innerJoin('parts', 'parts.id', 'order_receipt_lines.part_id')
-      .select(['parts.category', sql<number>`sum(order_receipt_lines.cost_minor)::int`.as('minor')])
-      .where('order_receipts.received_at', '>=', from)
-      .where('order_receipts.received_at', '<', to)
-      .groupBy('parts.category')
-      .execute(),
+  const [purchases, sold] = await Promise.all([
+    purchasesReceived(db, ctx, { from, to }),
     scoped(db, ctx)
       .selectFrom('sale_lines')
       .innerJoin('sales', 'sales.id', 'sale_lines.sale_id')
@@ -37,13 +31,15 @@ export async function spendBesideSales(db: Db, ctx: Pick<Ctx, 'spaceId'>, month:
       .groupBy('parts.category')
       .execute(),
   ]);
-  const categories = [...new Set([...spent, ...sold].map((r) => r.category))].sort();
+  const spentBy = new Map<PartCategory, number>();
+  for (const p of purchases) spentBy.set(p.category, (spentBy.get(p.category) ?? 0) + p.costMinor);
+  const categories = [...new Set([...spentBy.keys(), ...sold.map((r) => r.category)])].sort();
   return {
     currency,
     rows: categories.map((category) => ({
       category,
       soldMinor: sold.find((r) => r.category === category)?.minor ?? 0,
-      spentMinor: spent.find((r) => r.category === category)?.minor ?? 0,
+      spentMinor: spentBy.get(category) ?? 0,
     })),
   };
 }

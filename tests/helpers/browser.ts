@@ -130,9 +130,25 @@ export async function wcagViolations(page: Page, only?: 'colours'): Promise<stri
   );
 }
 
-/** Waits until CSS transitions and animations have finished (a change of colour scheme fades the buttons). */
+/**
+ * Waits until CSS transitions and animations have finished (a change of colour scheme fades the buttons).
+ * Only those on rendered elements: Chromium does not advance a transition inside a closed <details> (its
+ * content is skipped from rendering), so its `finished` never settles — that hung a page with buttons in a
+ * folded section for the whole test timeout. A cap of two seconds guards against any other such case.
+ */
 export async function settled(page: Page): Promise<void> {
   await page.evaluate(() =>
-    Promise.all(document.getAnimations().map((a) => a.finished.catch(() => undefined))),
+    Promise.race([
+      Promise.all(
+        document
+          .getAnimations()
+          .filter((a) => {
+            const target = (a.effect as KeyframeEffect | null)?.target;
+            return !target || target.checkVisibility();
+          })
+          .map((a) => a.finished.catch(() => undefined)),
+      ),
+      new Promise((resolve) => setTimeout(resolve, 2_000)),
+    ]),
   );
 }

@@ -19,6 +19,8 @@ import { ReconTable } from '@/components/books/recon-table';
 import { SalesChart } from '@/components/books/sales-chart';
 import { SalesTable } from '@/components/books/sales-table';
 import { SpendBesideSales } from '@/components/books/spend-beside-sales';
+import { Margins } from '@/components/books/margins';
+import { marginsOfMonth } from '@/lib/books/margins-month';
 import { SweepButton } from '@/components/books/sweep-button';
 import { ToInvestigate } from '@/components/books/to-investigate';
 import { Totals } from '@/components/books/totals';
@@ -72,6 +74,7 @@ export default async function BooksPage({
   const sales = await salesOfMonth(db, ctx.spaceId, month);
   const chart = await salesByMonthAndCategory(db, ctx.spaceId, month, 12);
   const spend = await spendBesideSales(db, ctx, month);
+  const margins = await marginsOfMonth(db, ctx, month);
   const ended = monthRange(month, timeZone).to <= now();
   const unresolved = report ? report.rows.filter(isUnresolved) : [];
 
@@ -160,7 +163,9 @@ export default async function BooksPage({
         <SalesTable sales={sales} currency={currency} timeZone={timeZone} />
       </section>
 
-      <SpendBesideSales rows={spend.rows} currency={spend.currency} label={label} />
+      <SpendBesideSales rows={spend.rows} currency={spend.currency} label={label} month={month} />
+
+      <Margins rows={margins.rows} currency={margins.currency} label={label} />
 
       <section aria-labelledby="chart" className="card space-y-3">
         <h2 id="chart" className="text-lg font-bold">

@@ -5,6 +5,7 @@ import * as authNextauth from '../auth/[...nextauth]/route';
 import * as benchCheckCompare from '../bench-check/compare/route';
 import * as benchCheck from '../bench-check/route';
 import * as booksExport from '../books/export/route';
+import * as booksSpend from '../books/spend/route';
 import * as booksPeriods from '../books/periods/route';
 import * as booksReconciliation from '../books/reconciliation/route';
 import * as booksResolutions from '../books/resolutions/route';
@@ -91,6 +92,8 @@ import * as suppliers from '../suppliers/route';
 import * as suppliersId from '../suppliers/[id]/route';
 import * as suppliersOffers from '../suppliers/offers/route';
 import * as suppliersOffersId from '../suppliers/offers/[id]/route';
+import * as suppliersOffersExport from '../suppliers/offers/export/route';
+import * as suppliersOffersImport from '../suppliers/offers/import/route';
 import * as orders from '../orders/route';
 import * as ordersToOrder from '../orders/to-order/route';
 import * as ordersId from '../orders/[id]/route';
@@ -112,6 +115,8 @@ export const ROUTES: RouteModules = {
   '/api/books/reconciliation': booksReconciliation,
   // Books (treasurer): notes that explain rows that do not match
   '/api/books/resolutions': booksResolutions,
+  // Books: the restocking spend as CSV (treasurers and admins)
+  '/api/books/spend': booksSpend,
   '/api/books/sweep': booksSweep,
   '/api/calendar/{token}': calendarToken,
   '/api/calendar/link': calendarLink,
@@ -191,6 +196,8 @@ export const ROUTES: RouteModules = {
   '/api/suppliers/{id}': suppliersId,
   '/api/suppliers/offers': suppliersOffers,
   '/api/suppliers/offers/{id}': suppliersOffersId,
+  '/api/suppliers/offers/export': suppliersOffersExport,
+  '/api/suppliers/offers/import': suppliersOffersImport,
   '/api/orders': orders,
   '/api/orders/to-order': ordersToOrder,
   '/api/orders/{id}': ordersId,

@@ -2,7 +2,7 @@ import Papa from 'papaparse';
 import { describe, expect, it } from 'vitest';
 import type { Filing } from '@/lib/reconcile/filing';
 import { filingTotals } from '@/lib/reconcile/filing-totals';
-import { filingCsv } from '@/lib/reconcile/filing-csv';
+import { filingCsv, filingTotalsCsv } from '@/lib/reconcile/filing-csv';
 
 // The filing file's shape on a hand-made month: one exclusive-tax card sale of two lines, one cash
 // honour-box line, a refund, a fee, a write-off and a box count. Figures worked by hand beside each check.
@@ -11,14 +11,25 @@ const at = new Date('2026-11-30T21:00:00Z'); // 15:00 in Chicago (UTC−06:00)
 const filing: Filing = {
   saleLines: [
     // Card sale: lines 100 + 100 at 8.25 % added: tax 16.5 → 17, spread by largest remainder 9 + 8.
-    { saleId: '00000000-0000-4000-8000-000000000001', at, method: 'card', channel: 'counter', buyer: 'Ines', part: 'Pad', category: 'consumable', accountCode: '4010', qty: 1, unitPriceMinor: 100, netMinor: 100, taxMinor: 9, grossMinor: 109, taxMode: 'exclusive', taxRateBp: 825 },
-    { saleId: '00000000-0000-4000-8000-000000000001', at, method: 'card', channel: 'counter', buyer: 'Ines', part: 'Twin lead', category: 'wire', accountCode: '4020', qty: 1, unitPriceMinor: 100, netMinor: 100, taxMinor: 8, grossMinor: 108, taxMode: 'exclusive', taxRateBp: 825 },
-    { saleId: '00000000-0000-4000-8000-000000000002', at, method: 'cash', channel: 'honour_box', buyer: 'Odile', part: 'Pad', category: 'consumable', accountCode: '4010', qty: 2, unitPriceMinor: 35, netMinor: 70, taxMinor: 0, grossMinor: 70, taxMode: 'exempt', taxRateBp: 0 },
+    { saleId: '00000000-0000-4000-8000-000000000001', partId: 'p-pad', refundedQty: 0, at, method: 'card', channel: 'counter', buyer: 'Ines', part: 'Pad', category: 'consumable', accountCode: '4010', qty: 1, unitPriceMinor: 100, netMinor: 100, taxMinor: 9, grossMinor: 109, taxMode: 'exclusive', taxRateBp: 825 },
+    { saleId: '00000000-0000-4000-8000-000000000001', partId: 'p-lead', refundedQty: 1, at, method: 'card', channel: 'counter', buyer: 'Ines', part: 'Twin lead', category: 'wire', accountCode: '4020', qty: 1, unitPriceMinor: 100, netMinor: 100, taxMinor: 8, grossMinor: 108, taxMode: 'exclusive', taxRateBp: 825 },
+    { saleId: '00000000-0000-4000-8000-000000000002', partId: 'p-pad', refundedQty: 0, at, method: 'cash', channel: 'honour_box', buyer: 'Odile', part: 'Pad', category: 'consumable', accountCode: '4010', qty: 2, unitPriceMinor: 35, netMinor: 70, taxMinor: 0, grossMinor: 70, taxMode: 'exempt', taxRateBp: 0 },
   ],
   refunds: [
     { refundId: 'r1', saleId: '00000000-0000-4000-8000-000000000001', at, method: 'card', amountMinor: 108, taxMinor: 8, categories: 'wire', accountCodes: '4020', restock: true, processorRefundId: 're_1' },
   ],
-  writeOffs: [{ at, reason: 'damaged', part: 'Pad', category: 'consumable', accountCode: '4010', qtyDelta: -3, note: 'crushed' }],
+  writeOffs: [
+    // 3 pads crushed at 33 each (the price last paid): 99 written off.
+    { at, reason: 'damaged', part: 'Pad', category: 'consumable', accountCode: '4010', qtyDelta: -3, qty: 3, costMinor: 99, costBasis: 'at the price last paid', note: 'crushed' },
+    // A bin count found 2 more than the books held: −66 written off.
+    { at, reason: 'count', part: 'Pad', category: 'consumable', accountCode: '4010', qtyDelta: 2, qty: -2, costMinor: -66, costBasis: 'at the price last paid', note: '' },
+    // A lost unit of a part nobody has a price for: cost unknown, left blank.
+    { at, reason: 'lost', part: 'Bench supply', category: 'supply', accountCode: '', qtyDelta: 0, qty: 1, costMinor: null, costBasis: 'cost unknown', note: 'not returned' },
+  ],
+  purchases: [
+    { receiptLineId: 'rl1', receivedAt: at, orderId: 'ab12cd34-0000-4000-8000-000000000009', orderRef: 'AB12CD34', supplier: 'Tallowmere Components', part: 'Pad', sku: 'PAD', category: 'consumable', accountCode: '4010', units: 30, packSize: 10, listPackPriceMinor: 330, costMinor: 1000, currency: 'USD', receivedBy: 'Odile' },
+    { receiptLineId: 'rl2', receivedAt: at, orderId: 'ab12cd34-0000-4000-8000-000000000009', orderRef: 'AB12CD34', supplier: 'Tallowmere Components', part: 'Twin lead', sku: 'LEAD', category: 'wire', accountCode: '4020', units: 25, packSize: 25, listPackPriceMinor: 1037, costMinor: 1037, currency: 'USD', receivedBy: 'Odile' },
+  ],
   boxCounts: [
     { id: 'c1', countedAt: at.toISOString(), countedBy: 'Odile', since: null, carriedMinor: 0, cashSalesMinor: 70, cashRefundsMinor: 0, expectedMinor: 70, countedMinor: 60, differenceMinor: -10, note: 'short', banking: { id: 'b1', amountMinor: 60, reference: 'Slip 1', bankedAt: at.toISOString(), bankedBy: 'Odile' } },
   ],
@@ -41,6 +52,7 @@ describe('the filing CSV', () => {
       'tax refunded',
       'processor fee',
       'write-off',
+      'purchase received',
       'honour box count',
       'honour box banking',
     ]);
@@ -48,7 +60,7 @@ describe('the filing CSV', () => {
     expect(rows[0]).toMatchObject({ account_code: '4010', net_minor: '100', tax_minor: '9', amount_minor: '109', currency: 'USD', tax_rule: 'exclusive 8.25 %' });
   });
 
-  it('sums by hand: sales 109 + 108 + 70 = 287; tax 17; refunds 108 (tax 8); fee 36; box −10 and 60 banked', () => {
+  it('sums by hand: sales 109 + 108 + 70 = 287; tax 17; refunds 108 (tax 8); fee 36; write-offs 99 − 66 = 33; purchases 1000 + 1037 = 2037; box −10 and 60 banked', () => {
     expect(sum('sale line')).toBe(287);
     expect(sum('tax collected')).toBe(17);
     expect(sum('refund')).toBe(108);
@@ -56,6 +68,8 @@ describe('the filing CSV', () => {
     expect(sum('processor fee')).toBe(36);
     expect(sum('honour box count')).toBe(-10);
     expect(sum('honour box banking')).toBe(60);
+    expect(sum('write-off')).toBe(33);
+    expect(sum('purchase received')).toBe(2037);
     const t = filingTotals(filing);
     expect(t).toMatchObject({
       cardSalesMinor: 217,
@@ -67,12 +81,39 @@ describe('the filing CSV', () => {
       processorFeesMinor: 36,
       boxDifferenceMinor: -10,
       boxBankedMinor: 60,
+      writeOffLines: 3,
+      writeOffsAtCostMinor: 33,
+      writeOffsCostUnknown: 1,
+      purchasesReceivedMinor: 2037,
     });
+    const totals = Papa.parse<Record<string, string>>(filingTotalsCsv(t, { month: '2026-11', timeZone: 'America/Chicago', currency: 'USD' }), {
+      header: true,
+      skipEmptyLines: true,
+    }).data;
+    const figure = (name: string) => totals.find((r) => r.figure === name)?.amount_minor;
+    expect(figure('written off at cost')).toBe('33');
+    expect(figure('purchases received at the price paid')).toBe('2037');
   });
 
-  it('leaves a write-off’s cost blank (no price paid recorded) rather than guessing, and says so', () => {
-    const w = rows.find((r) => r.section === 'write-off')!;
-    expect(w).toMatchObject({ qty: '-3', amount_minor: '', account_code: '4010' });
-    expect(w.note).toContain('cost not recorded');
+  it('values write-offs at cost, and leaves an unknown cost blank (never 0) saying so', () => {
+    const w = rows.filter((r) => r.section === 'write-off');
+    expect(w[0]).toMatchObject({ qty: '3', amount_minor: '99', account_code: '4010', note: 'damaged; at the price last paid; crushed' });
+    expect(w[1]).toMatchObject({ qty: '-2', amount_minor: '-66' });
+    expect(w[2]).toMatchObject({ qty: '1', amount_minor: '', item: 'Bench supply' });
+    expect(w[2].note).toContain('cost unknown');
+  });
+
+  it('lists purchases received at the price paid, with the supplier and the order list, on the space’s clock', () => {
+    const p = rows.filter((r) => r.section === 'purchase received');
+    expect(p[0]).toMatchObject({
+      when: '2026-11-30T15:00:00-06:00',
+      supplier: 'Tallowmere Components',
+      order_list: 'AB12CD34',
+      item: 'Pad',
+      account_code: '4010',
+      qty: '30',
+      amount_minor: '1000',
+      currency: 'USD',
+    });
   });
 });

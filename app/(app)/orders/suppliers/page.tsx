@@ -8,6 +8,7 @@ import { listSuppliers } from '@/lib/restock/suppliers';
 import { spaceClock } from '@/lib/sales/periods';
 import { PageTitle } from '@/components/ui/page-title';
 import { OfferForm, RemoveOffer, SupplierForm } from '@/components/restock/supplier-forms';
+import { OffersCsv } from '@/components/restock/offers-csv';
 
 export const metadata = { title: 'Suppliers' };
 
@@ -59,6 +60,7 @@ export default async function SuppliersPage() {
         </article>
       ))}
       <SupplierForm currency={currency} />
+      <OffersCsv />
       <OfferForm currency={currency} suppliers={suppliers.filter((s) => !s.archived).map((s) => ({ id: s.id, name: s.name }))} />
     </div>
   );
