@@ -4,6 +4,10 @@ import type { Database } from './types';
 
 // bigint (count(*), bigserial) as number: our counts stay far below 2^53.
 pg.types.setTypeParser(20, (v) => Number(v));
+// numeric as number: the quantities of counted stock (numeric(12,3), migration 0014) have at most three
+// decimals and twelve digits, well inside a double's exact range, so every stored value reads back as the
+// same JavaScript number (65.5 stays 65.5). Set once here so every query, sum() included, gets numbers.
+pg.types.setTypeParser(1700, (v) => Number(v));
 // date columns stay 'YYYY-MM-DD' strings: no time-zone shift.
 pg.types.setTypeParser(1082, (v) => v);
 

@@ -9,9 +9,9 @@ type Json<T = unknown> = ColumnType<T, string, string>;
 type JsonDefault<T = unknown> = ColumnType<T, string | undefined, string>;
 type JsonNullable<T = unknown> = ColumnType<T | null, string | null | undefined, string | null>;
 
-import type { ChainRole, LabelKind, LoanStatus, MovementReason, OrderState, PartCategory, Role, SaleStatus, TaxMode, UnitState } from '@/lib/domain';
+import type { ChainRole, LabelKind, LoanStatus, Measure, MovementReason, OrderState, PartCategory, Role, SaleStatus, TaxMode, UnitState } from '@/lib/domain';
 
-export type { ChainRole, LabelKind, LoanStatus, MovementReason, OrderState, PartCategory, Role, SaleStatus, TaxMode, UnitState };
+export type { ChainRole, LabelKind, LoanStatus, Measure, MovementReason, OrderState, PartCategory, Role, SaleStatus, TaxMode, UnitState };
 
 export interface SpacesTable {
   id: Generated<string>;
@@ -116,7 +116,8 @@ export interface PartsTable {
   sellable: Generated<boolean>;
   lendable: Generated<boolean>;
   price_minor: number | null;
-  sale_unit: Generated<string>;
+  /** The unit of measure (migration 0014); labelled parts are always 'each'. */
+  sale_unit: Generated<Measure>;
   reorder_point: Generated<number>;
   notes: Generated<string>;
   archived_at: TimestampNullable;
@@ -128,6 +129,7 @@ export interface StockTable {
   space_id: string;
   part_id: string;
   location_id: string;
+  /** numeric(12,3) since migration 0014, read as a number (db/connect.ts). */
   qty: Generated<number>;
   updated_at: TimestampDefault;
 }
@@ -292,6 +294,7 @@ export interface SaleLinesTable {
   space_id: string;
   part_id: string;
   location_id: string | null;
+  /** numeric(12,3): metres or grams may be fractions (migration 0014). */
   qty: number;
   unit_price_minor: number;
   refunded_qty: Generated<number>;
@@ -582,6 +585,7 @@ export interface OrderLinesTable {
   pack_size: number;
   packs: number;
   pack_price_minor: number;
+  /** numeric(12,3), like pack_size (migration 0014). */
   received_units: Generated<number>;
 }
 

@@ -12,6 +12,8 @@ export type LoanStatus = 'waiting' | 'out' | 'back_unchecked' | 'returned' | 're
 export type OrderState = 'draft' | 'sent' | 'part_in' | 'all_in' | 'called_off';
 /** How a space's shelf prices carry tax (issue 13): none, already inside the price, or added at the total. */
 export type TaxMode = 'exempt' | 'inclusive' | 'exclusive';
+/** What a counted part is counted and sold in (migration 0014): whole items, metres or grams. */
+export type Measure = 'each' | 'metre' | 'gram';
 export type SaleStatus = 'pending' | 'paid' | 'failed' | 'expired' | 'refunded' | 'partially_refunded' | 'reversed';
 export type MovementReason =
   | 'receive' | 'move_in' | 'move_out' | 'adjust' | 'count' | 'loan_out' | 'loan_return' | 'lost' | 'damaged'

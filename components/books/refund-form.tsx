@@ -5,7 +5,9 @@ import { useId, useState } from 'react';
 import { InlineError } from '@/components/people/form-field';
 import { callApi, errorText, type ApiError } from '@/components/loans/api';
 import type { SaleView } from '@/lib/sales/read';
-import { formatMoney } from '@/lib/money';
+import { formatQty, roundQty } from '@/lib/inventory/measure';
+import { formatMoney, formatUnitPrice, lineAmountMinor } from '@/lib/money';
+import { MeasuredQtyInput } from '@/components/ui/measured-qty-input';
 
 /** The treasurer's refund: some units of some lines, or everything left; optionally back on the shelf. */
 export function RefundForm({ sale, closedMonth }: { sale: SaleView; closedMonth: boolean }) {
@@ -19,7 +21,7 @@ export function RefundForm({ sale, closedMonth }: { sale: SaleView; closedMonth:
   const chosen = sale.lines
     .filter((l) => (qty[l.id] ?? 0) > 0)
     .map((l) => ({ saleLineId: l.id, qty: qty[l.id] }));
-  const chosenMinor = sale.lines.reduce((s, l) => s + (qty[l.id] ?? 0) * l.unitPriceMinor, 0);
+  const chosenMinor = sale.lines.reduce((s, l) => s + lineAmountMinor(qty[l.id] ?? 0, l.unitPriceMinor), 0);
   const refund = useMutation({
     mutationFn: (lines: { saleLineId: string; qty: number }[] | undefined) =>
       callApi<{ refund: { amountMinor: number } }>(`/api/sales/${sale.id}/refunds`, 'POST', {
@@ -66,26 +68,25 @@ export function RefundForm({ sale, closedMonth }: { sale: SaleView; closedMonth:
           {sale.lines.map((l) => (
             <tr key={l.id}>
               <td>
-                {l.name} <span className="muted">@ {money(l.unitPriceMinor)}</span>
+                {l.name} <span className="muted">@ {formatUnitPrice(l.unitPriceMinor, sale.currency, l.saleUnit)}</span>
               </td>
-              <td>{l.qty}</td>
-              <td>{l.refundedQty}</td>
+              <td>{formatQty(l.qty, l.saleUnit)}</td>
+              <td>{formatQty(l.refundedQty, l.saleUnit)}</td>
               <td>
                 <label htmlFor={`${id}-${l.id}`} className="sr-only">
                   Units of {l.name} to refund
                 </label>
-                <input
-                  id={`${id}-${l.id}`}
-                  type="number"
-                  min={0}
-                  max={l.leftQty}
-                  className="field w-24 min-h-9 py-1"
-                  value={qty[l.id] ?? 0}
-                  disabled={l.leftQty === 0}
-                  onChange={(e) =>
-                    setQty({ ...qty, [l.id]: Math.max(0, Math.min(l.leftQty, Number(e.target.value) || 0)) })
-                  }
-                />
+                {l.leftQty === 0 ? (
+                  <span className="muted">all refunded</span>
+                ) : (
+                  <MeasuredQtyInput
+                    id={`${id}-${l.id}`}
+                    measure={l.saleUnit}
+                    value={qty[l.id] ?? 0}
+                    className="field w-24 min-h-9 py-1"
+                    onChange={(q) => setQty({ ...qty, [l.id]: Math.max(0, Math.min(l.leftQty, roundQty(q ?? 0))) })}
+                  />
+                )}
                 {lineError(l.id) ? (
                   <p className="text-sm text-red-800 dark:text-red-300">{lineError(l.id)}</p>
                 ) : null}

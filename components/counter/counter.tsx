@@ -5,7 +5,9 @@ import { useCallback, useId, useMemo, useState } from 'react';
 import { useStoredBasket } from './basket-store';
 import { callApi, errorText, type ApiError } from '@/components/loans/api';
 import type { CatalogItem } from '@/lib/sales/catalog';
-import { formatMoney, formatUnitPrice } from '@/lib/money';
+import { formatQty, measureOf, roundQty } from '@/lib/inventory/measure';
+import { formatMoney, formatUnitPrice, lineAmountMinor } from '@/lib/money';
+import { MeasuredQtyInput } from '@/components/ui/measured-qty-input';
 import type { TaxMode } from '@/lib/domain';
 import { receiptTaxLines, taxSale } from '@/lib/sales/tax';
 import { CameraScan } from './camera-scan';
@@ -23,14 +25,14 @@ type Props = {
   minCardMinor: number;
 };
 
-const unitWord = (item: CatalogItem, n = 1) =>
-  item.saleUnit === 'each' ? '' : ` ${item.saleUnit}${n === 1 ? '' : 's'}`;
+/** "12", "65.5 m", "420 g": what is on the shelf in the part's own unit. */
+const onShelfWords = (item: CatalogItem) => formatQty(item.onShelf, item.saleUnit);
 
 /** Why the basket cannot take one more of an item: the shelf has no more of it. */
 const shelfLimit = (item: CatalogItem) =>
   item.onShelf === 0
     ? `${item.name} is not on the shelf.`
-    : `Only ${item.onShelf}${unitWord(item, item.onShelf)} of ${item.name} on the shelf, and all of them are in the basket.`;
+    : `Only ${onShelfWords(item)} of ${item.name} on the shelf, and all of them are in the basket.`;
 
 // The bench's till, for a phone held in one hand: scan or type a label, or pick from the list; the
 // basket with big +/− targets; pay by card on the processor's page, or (a steward) record cash.
@@ -56,7 +58,7 @@ export function Counter({ currency, items: initial, me, buyers, tax, minCardMino
     .filter((l): l is { item: CatalogItem; qty: number } => Boolean(l.item));
   // The same sum the server makes (lib/sales/tax.ts: once per sale, half away from zero).
   const taxed = taxSale(
-    lines.reduce((s, l) => s + l.qty * l.item.priceMinor, 0),
+    lines.reduce((s, l) => s + lineAmountMinor(l.qty, l.item.priceMinor), 0),
     tax,
   );
   const total = taxed.totalMinor;
@@ -68,7 +70,7 @@ export function Counter({ currency, items: initial, me, buyers, tax, minCardMino
   const add = useCallback(
     (item: CatalogItem, by = 1) => {
       const had = basket.get(item.id) ?? 0;
-      const wanted = Math.max(0, had + by);
+      const wanted = Math.max(0, roundQty(had + by));
       const qty = Math.min(item.onShelf, wanted);
       setBasket((b) => {
         const next = new Map(b);
@@ -121,7 +123,9 @@ export function Counter({ currency, items: initial, me, buyers, tax, minCardMino
       }),
     onSuccess: ({ sale }) => {
       emptyBasket();
-      setNote(`Recorded: you put ${money(sale.totalMinor)} in the honour box. Your receipt is on its way by e-mail.`);
+      setNote(
+        `Recorded: you put ${money(sale.totalMinor)} in the honour box. Your receipt is on its way by e-mail.`,
+      );
       void queryClient.invalidateQueries({ queryKey: ['counter-catalog'] });
     },
   });
@@ -187,48 +191,76 @@ export function Counter({ currency, items: initial, me, buyers, tax, minCardMino
           {lines.map((l, index) => (
             <li key={l.item.id} className="rounded-lg border border-stone-200 p-2 dark:border-stone-700">
               <p className="font-semibold break-words">{l.item.name}</p>
+              <p className="muted text-sm">{formatUnitPrice(l.item.priceMinor, currency, l.item.saleUnit)}</p>
               <div className="mt-1 flex items-center justify-between gap-2">
-                <div className="flex items-center gap-1">
-                  <button
-                    type="button"
-                    className="btn-quiet px-3"
-                    onClick={() => add(l.item, -1)}
-                    aria-label={`One fewer ${l.item.name}`}
-                  >
-                    <Minus aria-hidden className="size-5" />
-                  </button>
-                  <span
-                    className="min-w-10 text-center text-lg font-bold"
-                    aria-label={`Quantity of ${l.item.name}`}
-                  >
-                    {l.qty}
-                  </span>
-                  {/* At the shelf's stock "+" stays reachable and says why it adds nothing (below). */}
-                  <button
-                    type="button"
-                    className="btn-quiet px-3 aria-disabled:opacity-50"
-                    onClick={() => add(l.item, 1)}
-                    aria-disabled={l.qty >= l.item.onShelf || undefined}
-                    aria-describedby={l.qty >= l.item.onShelf ? `${ids}-limit-${l.item.id}` : undefined}
-                    aria-label={`One more ${l.item.name}`}
-                  >
-                    <Plus aria-hidden className="size-5" />
-                  </button>
-                  <button
-                    type="button"
-                    className="btn-quiet px-3"
-                    onClick={() => add(l.item, -l.qty)}
-                    aria-label={`Remove ${l.item.name}`}
-                  >
-                    <Trash2 aria-hidden className="size-5" />
-                  </button>
-                </div>
-                <span className="font-semibold tabular-nums">{money(l.qty * l.item.priceMinor)}</span>
+                {measureOf(l.item.saleUnit) !== 'each' ? (
+                  <div className="flex items-center gap-1">
+                    <label htmlFor={`${ids}-qty-${l.item.id}`} className="sr-only">
+                      {l.item.saleUnit === 'metre' ? 'Metres' : 'Grams'} of {l.item.name}
+                    </label>
+                    <MeasuredQtyInput
+                      id={`${ids}-qty-${l.item.id}`}
+                      measure={measureOf(l.item.saleUnit)}
+                      value={l.qty}
+                      min={0.001}
+                      invalid={Boolean(lineProblem(index))}
+                      onChange={(q) => {
+                        if (q !== null && q > 0) add(l.item, roundQty(q - l.qty));
+                      }}
+                    />
+                    <button
+                      type="button"
+                      className="btn-quiet px-3"
+                      onClick={() => add(l.item, -l.qty)}
+                      aria-label={`Remove ${l.item.name}`}
+                    >
+                      <Trash2 aria-hidden className="size-5" />
+                    </button>
+                  </div>
+                ) : (
+                  <div className="flex items-center gap-1">
+                    <button
+                      type="button"
+                      className="btn-quiet px-3"
+                      onClick={() => add(l.item, -1)}
+                      aria-label={`One fewer ${l.item.name}`}
+                    >
+                      <Minus aria-hidden className="size-5" />
+                    </button>
+                    <span
+                      className="min-w-10 text-center text-lg font-bold"
+                      aria-label={`Quantity of ${l.item.name}`}
+                    >
+                      {l.qty}
+                    </span>
+                    {/* At the shelf's stock "+" stays reachable and says why it adds nothing (below). */}
+                    <button
+                      type="button"
+                      className="btn-quiet px-3 aria-disabled:opacity-50"
+                      onClick={() => add(l.item, 1)}
+                      aria-disabled={l.qty >= l.item.onShelf || undefined}
+                      aria-describedby={l.qty >= l.item.onShelf ? `${ids}-limit-${l.item.id}` : undefined}
+                      aria-label={`One more ${l.item.name}`}
+                    >
+                      <Plus aria-hidden className="size-5" />
+                    </button>
+                    <button
+                      type="button"
+                      className="btn-quiet px-3"
+                      onClick={() => add(l.item, -l.qty)}
+                      aria-label={`Remove ${l.item.name}`}
+                    >
+                      <Trash2 aria-hidden className="size-5" />
+                    </button>
+                  </div>
+                )}
+                <span className="font-semibold tabular-nums">
+                  {money(lineAmountMinor(l.qty, l.item.priceMinor))}
+                </span>
               </div>
               {l.qty >= l.item.onShelf ? (
                 <p id={`${ids}-limit-${l.item.id}`} role="status" className="muted mt-1 text-sm">
-                  That is all {l.item.onShelf}
-                  {unitWord(l.item, l.item.onShelf)} on the shelf.
+                  That is all {onShelfWords(l.item)} on the shelf.
                 </p>
               ) : null}
               {lineProblem(index) ? (
@@ -241,9 +273,15 @@ export function Counter({ currency, items: initial, me, buyers, tax, minCardMino
         </ul>
         {lines.length
           ? taxLines.before.map((l) => (
-              <p key={l.label} className="flex items-baseline justify-between border-t border-stone-200 pt-2 dark:border-stone-700">
+              <p
+                key={l.label}
+                className="flex items-baseline justify-between border-t border-stone-200 pt-2 dark:border-stone-700"
+              >
                 <span>{l.label}</span>
-                <span className="tabular-nums" data-testid={l.label === 'Subtotal' ? 'basket-subtotal' : 'basket-tax'}>
+                <span
+                  className="tabular-nums"
+                  data-testid={l.label === 'Subtotal' ? 'basket-subtotal' : 'basket-tax'}
+                >
                   {money(l.minor)}
                 </span>
               </p>
@@ -295,7 +333,11 @@ export function Counter({ currency, items: initial, me, buyers, tax, minCardMino
           </p>
         ) : null}
         {belowCardMinimum ? (
-          <p role="status" className="rounded-lg border border-amber-700 bg-amber-50 p-2 text-sm text-amber-950 dark:bg-amber-950 dark:text-amber-100" data-testid="cash-only">
+          <p
+            role="status"
+            className="rounded-lg border border-amber-700 bg-amber-50 p-2 text-sm text-amber-950 dark:bg-amber-950 dark:text-amber-100"
+            data-testid="cash-only"
+          >
             Cash only for this basket: card payments start at {money(minCardMinor)} here, because on a smaller
             sale the card fees eat most of the money.
           </p>
@@ -358,8 +400,7 @@ export function Counter({ currency, items: initial, me, buyers, tax, minCardMino
               <div className="min-w-0">
                 <p className="font-semibold break-words">{i.name}</p>
                 <p className="muted text-sm">
-                  {formatUnitPrice(i.priceMinor, currency, i.saleUnit)} · {i.onShelf}
-                  {unitWord(i, i.onShelf)} on the shelf
+                  {formatUnitPrice(i.priceMinor, currency, i.saleUnit)} · {onShelfWords(i)} on the shelf
                   {i.onShelf > 0 && (basket.get(i.id) ?? 0) >= i.onShelf ? ', all in the basket' : ''}
                 </p>
               </div>

@@ -5,7 +5,8 @@ import Link from 'next/link';
 import { useEffect } from 'react';
 import { callApi, errorText } from '@/components/loans/api';
 import type { SaleView } from '@/lib/sales/read';
-import { formatMoney } from '@/lib/money';
+import { formatQty } from '@/lib/inventory/measure';
+import { formatMoney, lineAmountMinor } from '@/lib/money';
 import { receiptTaxLines } from '@/lib/sales/tax';
 import { formatDateTimeWithZone } from '@/lib/zoned-time';
 import { settleStoredBasket } from './basket-store';
@@ -88,9 +89,9 @@ export function SaleStatus({ saleId, cancelled, me }: { saleId: string; cancelle
         {sale.lines.map((l) => (
           <li key={l.id} className="flex justify-between gap-3 py-1.5">
             <span>
-              {l.qty} × {l.name}
+              {l.saleUnit === 'each' ? `${l.qty} ×` : `${formatQty(l.qty, l.saleUnit)} of`} {l.name}
             </span>
-            <span className="tabular-nums">{money(l.qty * l.unitPriceMinor)}</span>
+            <span className="tabular-nums">{money(lineAmountMinor(l.qty, l.unitPriceMinor))}</span>
           </li>
         ))}
       </ul>

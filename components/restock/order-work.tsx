@@ -6,7 +6,8 @@ import { CodeText } from '@/components/shelf/code-text';
 import { describedBy, Field, FormMessage } from '@/components/shelf/form-bits';
 import { PrintLabelsButton } from '@/components/shelf/print-labels-button';
 import { useApiForm } from '@/components/shelf/use-api-form';
-import type { OrderState } from '@/lib/domain';
+import type { Measure, OrderState } from '@/lib/domain';
+import { formatQty, MEASURE_SYMBOL, qtyInputMode, qtyStep } from '@/lib/inventory/measure';
 import { formatMoney, minorUnitExponent, parseMoney } from '@/lib/money';
 
 export type WorkLine = {
@@ -14,6 +15,8 @@ export type WorkLine = {
   partId: string;
   partName: string;
   tracking: 'counted' | 'unit';
+  /** Whole items, metres or grams: what arrives of metres and grams may be a fraction. */
+  saleUnit: Measure;
   packSize: number;
   packs: number;
   orderedUnits: number;
@@ -135,7 +138,7 @@ export function OrderWork({
           <ul className="space-y-3">
             {lines.map((l, i) => (
               <li key={l.id} className="flex flex-wrap items-end gap-3">
-                <Field id={`packs-${l.id}`} label={`${l.partName} — packs of ${l.packSize}`} error={form.err(`lines.${i}.packs`)}>
+                <Field id={`packs-${l.id}`} label={`${l.partName} — packs of ${formatQty(l.packSize, l.saleUnit)}`} error={form.err(`lines.${i}.packs`)}>
                   <input
                     id={`packs-${l.id}`}
                     name={`packs-${l.id}`}
@@ -199,17 +202,26 @@ export function OrderWork({
                 <p className="font-semibold break-words">
                   {l.partName}{' '}
                   <span className="muted text-sm font-normal">
-                    {l.receivedUnits} of {l.orderedUnits} arrived so far
+                    {formatQty(l.receivedUnits, l.saleUnit)} of {formatQty(l.orderedUnits, l.saleUnit)} arrived so far
                   </span>
                 </p>
                 <div className="grid gap-3 sm:grid-cols-3">
-                  <Field id={`units-${l.id}`} label={l.tracking === 'unit' ? 'Units (each gets a label)' : 'Units'} error={form.err(`lines.${i}.units`) ?? form.err(`lines.${i}.receivedBefore`)}>
+                  <Field id={`units-${l.id}`} label={
+                      l.tracking === 'unit'
+                        ? 'Units (each gets a label)'
+                        : l.saleUnit === 'metre'
+                          ? `Metres (${MEASURE_SYMBOL.metre})`
+                          : l.saleUnit === 'gram'
+                            ? `Grams (${MEASURE_SYMBOL.gram})`
+                            : 'Units'
+                    } error={form.err(`lines.${i}.units`) ?? form.err(`lines.${i}.receivedBefore`)}>
                     <input
                       id={`units-${l.id}`}
                       name={`units-${l.id}`}
                       type="number"
                       min={0}
-                      step={1}
+                      step={qtyStep(l.saleUnit)}
+                      inputMode={qtyInputMode(l.saleUnit)}
                       defaultValue={0}
                       className="field"
                       {...describedBy(`units-${l.id}`, form.err(`lines.${i}.units`) ?? form.err(`lines.${i}.receivedBefore`))}

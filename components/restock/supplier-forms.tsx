@@ -114,8 +114,8 @@ export function OfferForm({ currency, suppliers }: { currency: string; suppliers
         <Field id="o-ref" label="Their reference" error={f('itemRef')}>
           <input id="o-ref" name="itemRef" className="field" />
         </Field>
-        <Field id="o-pack" label="Pack size (units)" error={f('packSize')}>
-          <input id="o-pack" name="packSize" type="number" min={1} step={1} defaultValue={1} className="field" {...describedBy('o-pack', f('packSize'))} />
+        <Field id="o-pack" label="Pack size (items, or metres or grams for parts counted that way)" error={f('packSize')}>
+          <input id="o-pack" name="packSize" type="number" min={0.001} step={0.001} inputMode="decimal" defaultValue={1} className="field" {...describedBy('o-pack', f('packSize'))} />
         </Field>
         <Field id="o-price" label={`Price per pack (${currency})`} error={f('packPriceMinor')}>
           <input id="o-price" name="price" inputMode="decimal" className="field" {...describedBy('o-price', f('packPriceMinor'))} />

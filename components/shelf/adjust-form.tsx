@@ -1,5 +1,6 @@
 'use client';
 import { useRouter } from 'next/navigation';
+import { formatQty, qtyStep, type Measure } from '@/lib/inventory/measure';
 import { api } from './api';
 import { describedBy, Field, FormMessage } from './form-bits';
 import { useApiForm } from './use-api-form';
@@ -8,9 +9,12 @@ import { useApiForm } from './use-api-form';
 export function AdjustForm({
   partId,
   locations,
+  measure = 'each',
 }: {
   partId: string;
   locations: { id: string; name: string; qty?: number }[];
+  /** Metres and grams change by decimals; whole items by whole numbers. */
+  measure?: Measure;
 }) {
   const router = useRouter();
   const form = useApiForm();
@@ -31,7 +35,7 @@ export function AdjustForm({
             note: String(data.get('note') ?? ''),
           },
         }),
-      (r) => `Adjusted: ${r.qty} now in that bin.`,
+      (r) => `Adjusted: ${formatQty(r.qty, measure)} now in that bin.`,
     );
     if (r) {
       formEl.reset();
@@ -46,17 +50,22 @@ export function AdjustForm({
           {locations.map((l) => (
             <option key={l.id} value={l.id}>
               {l.name}
-              {l.qty !== undefined ? ` (${l.qty})` : ''}
+              {l.qty !== undefined ? ` (${formatQty(l.qty, measure)})` : ''}
             </option>
           ))}
         </select>
       </Field>
-      <Field id="adj-delta" label="Change (+ or −)" error={err('delta')}>
+      <Field
+        id="adj-delta"
+        label={`Change (+ or −)${measure === 'metre' ? ', in metres' : measure === 'gram' ? ', in grams' : ''}`}
+        error={err('delta')}
+      >
         <input
           id="adj-delta"
           name="delta"
           type="number"
-          step={1}
+          step={qtyStep(measure)}
+          inputMode={measure === 'each' ? undefined : 'text'}
           className="field"
           placeholder="-2"
           {...describedBy('adj-delta', err('delta'))}

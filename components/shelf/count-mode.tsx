@@ -2,6 +2,15 @@
 import { useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
 import { useEffect, useRef, useState } from 'react';
 import { pickBin } from '@/lib/inventory/find-bins';
+import {
+  formatQty,
+  MEASURE_SYMBOL,
+  qtyInputMode,
+  qtyProblem,
+  qtyStep,
+  roundQty,
+  type Measure,
+} from '@/lib/inventory/measure';
 import { api, ApiError } from './api';
 import { FormMessage } from './form-bits';
 import { PartPicker } from './part-picker';
@@ -14,6 +23,8 @@ type Line = {
   sku: string;
   expected: number;
   counted: number | null;
+  /** Whole items, metres or grams: metres and grams take decimals. */
+  measure: Measure;
   current: number;
   variance: number | null;
 };
@@ -111,9 +122,14 @@ export function CountMode({
   });
   const pending = useRef<ReturnType<typeof setTimeout> | null>(null);
   useEffect(() => {
-    // A figure that is not a whole number ≥ 0 waits on screen until it is corrected.
+    // A figure that does not fit its part's unit (a fraction of whole items, more than three decimals of
+    // metres or grams, below zero) waits on screen until it is corrected.
+    const unitOf = new Map((count.data?.lines ?? []).map((l) => [l.partId, l.measure]));
     const valid = Object.fromEntries(
-      Object.entries(draft).filter(([, v]) => v === '' || (Number.isInteger(Number(v)) && Number(v) >= 0)),
+      Object.entries(draft).filter(
+        ([partId, v]) =>
+          v === '' || (Number(v) >= 0 && qtyProblem(Number(v), unitOf.get(partId) ?? 'each') === null),
+      ),
     );
     if (!countId || !Object.keys(valid).length) return;
     if (pending.current) clearTimeout(pending.current);
@@ -242,7 +258,7 @@ export function CountMode({
   const differences = c.lines.filter((l) => {
     const typed = draft[l.partId];
     const counted = typed === undefined ? l.counted : typed === '' ? null : Number(typed);
-    return counted !== null && counted !== l.current;
+    return counted !== null && roundQty(counted - l.current) !== 0;
   }).length;
 
   return (
@@ -267,34 +283,41 @@ export function CountMode({
                 {c.lines.map((l, i) => {
                   const typed = draft[l.partId];
                   const value = typed ?? (l.counted === null ? '' : String(l.counted));
-                  const diff = value === '' || Number.isNaN(Number(value)) ? null : Number(value) - l.current;
+                  const diff =
+                    value === '' || Number.isNaN(Number(value)) ? null : roundQty(Number(value) - l.current);
+                  const symbol = MEASURE_SYMBOL[l.measure];
                   return (
                     <tr key={l.partId}>
                       <td>
                         {l.name} <span className="muted font-mono text-xs">{l.sku}</span>
                       </td>
-                      <td className="tabular-nums">{l.current}</td>
+                      <td className="tabular-nums">{formatQty(l.current, l.measure)}</td>
                       <td>
                         <label className="sr-only" htmlFor={`count-${i}`}>
                           Counted {l.name}
+                          {l.measure === 'metre' ? ', in metres' : l.measure === 'gram' ? ', in grams' : ''}
                         </label>
-                        <input
-                          id={`count-${i}`}
-                          type="number"
-                          min={0}
-                          inputMode="numeric"
-                          className="field w-28"
-                          value={value}
-                          aria-invalid={message.fields?.[`lines.${i}.counted`] ? true : undefined}
-                          onChange={(e) => setDraft((d) => ({ ...d, [l.partId]: e.target.value }))}
-                        />
+                        <span className="inline-flex items-center gap-1">
+                          <input
+                            id={`count-${i}`}
+                            type="number"
+                            min={0}
+                            step={qtyStep(l.measure)}
+                            inputMode={qtyInputMode(l.measure)}
+                            className="field w-28"
+                            value={value}
+                            aria-invalid={message.fields?.[`lines.${i}.counted`] ? true : undefined}
+                            onChange={(e) => setDraft((d) => ({ ...d, [l.partId]: e.target.value }))}
+                          />
+                          {symbol ? <span aria-hidden>{symbol}</span> : null}
+                        </span>
                       </td>
                       <td
                         className={
                           diff ? 'font-bold text-amber-900 tabular-nums dark:text-amber-200' : 'tabular-nums'
                         }
                       >
-                        {diff === null ? '—' : diff > 0 ? `+${diff}` : diff}
+                        {diff === null ? '—' : `${diff > 0 ? '+' : ''}${formatQty(diff, l.measure)}`}
                       </td>
                     </tr>
                   );

@@ -91,8 +91,9 @@ export function ImportWizard() {
         <p className="muted text-sm">
           Columns: <code>sku</code> (required), <code>name</code>, <code>category</code>,{' '}
           <code>tracking</code> (counted or unit), <code>reorder_point</code>, <code>price</code>,{' '}
-          <code>sellable</code>, <code>lendable</code>, <code>sale_unit</code>, <code>notes</code>,{' '}
-          <code>location</code> (bin code or name), <code>qty</code>, and specs as{' '}
+          <code>sellable</code>, <code>lendable</code>, <code>sale_unit</code> (each, metre or gram),{' '}
+          <code>notes</code>, <code>location</code> (bin code or name), <code>qty</code> (metres and grams may
+          have up to 3 decimals), and specs as{' '}
           <code>spec.&lt;field&gt;</code> (e.g. <code>spec.maxInputVolts</code>). An existing SKU updates that
           part and adds the quantity. Row numbers match your spreadsheet (the header is row 1).{' '}
           <a

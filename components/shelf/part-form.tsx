@@ -1,4 +1,5 @@
 'use client';
+import { MEASURE_CHOICES, MEASURES } from '@/lib/inventory/measure';
 import { useRouter } from 'next/navigation';
 import { useState } from 'react';
 import type { PartCategory } from '@/lib/domain';
@@ -96,7 +97,8 @@ export function PartForm({
       sellable,
       lendable: data.get('lendable') === 'on',
       priceMinor,
-      saleUnit: String(data.get('saleUnit') ?? 'each') || 'each',
+      // Labelled units are always whole items; counted parts may be counted in metres or grams.
+      saleUnit: tracking === 'unit' ? 'each' : String(data.get('saleUnit') ?? 'each') || 'each',
       reorderPoint: Number(data.get('reorderPoint') || 0),
       notes: String(data.get('notes') ?? ''),
     };
@@ -274,6 +276,17 @@ export function PartForm({
             {...describedBy('reorderPoint', err('reorderPoint'), 'hint')}
           />
         </Field>
+        {tracking === 'counted' ? (
+          <Field id="saleUnit" label="Counted and sold in" error={err('saleUnit')}>
+            <select id="saleUnit" name="saleUnit" className="field" defaultValue={initial.saleUnit}>
+              {MEASURES.map((m) => (
+                <option key={m} value={m}>
+                  {MEASURE_CHOICES[m]}
+                </option>
+              ))}
+            </select>
+          </Field>
+        ) : null}
         <label className="flex min-h-11 items-center gap-2 self-end">
           <input type="checkbox" name="lendable" defaultChecked={initial.lendable} className="size-5" /> Can
           be lent
@@ -305,9 +318,6 @@ export function PartForm({
                 }
                 {...describedBy('price', err('priceMinor'))}
               />
-            </Field>
-            <Field id="saleUnit" label="Sold per" error={err('saleUnit')}>
-              <input id="saleUnit" name="saleUnit" className="field" defaultValue={initial.saleUnit} />
             </Field>
           </>
         ) : null}

@@ -2,9 +2,17 @@
 import { useQuery } from '@tanstack/react-query';
 import { useEffect, useState } from 'react';
 import type { PartPage } from '@/lib/inventory/parts-list';
+import { formatQty } from '@/lib/inventory/measure';
 import { api } from './api';
 
-export type PickedPart = { id: string; name: string; sku: string; tracking: 'counted' | 'unit' };
+export type PickedPart = {
+  id: string;
+  name: string;
+  sku: string;
+  tracking: 'counted' | 'unit';
+  /** Whole items, metres or grams (missing: whole items). */
+  saleUnit?: string;
+};
 
 /** Finds a part by name, SKU or scanned code (the server searches all three). */
 export function PartPicker({
@@ -76,7 +84,7 @@ export function PartPicker({
                 {p.name} <span className="muted font-mono text-xs">{p.sku}</span>
                 <span className="muted text-xs">
                   {' '}
-                  · {p.tracking === 'unit' ? `${p.onHand} units on shelf` : `${p.onHand} on hand`}
+                  · {p.tracking === 'unit' ? `${p.onHand} units on shelf` : `${formatQty(p.onHand, p.saleUnit)} on hand`}
                 </span>
               </button>
             </li>

@@ -3,6 +3,7 @@ import { clsx } from 'clsx';
 import type { PartPage } from '@/lib/inventory/part-page';
 import { LAYOUTS } from '@/labels/layouts';
 import { formatDateTime } from '@/lib/format';
+import { formatQty, measureOf } from '@/lib/inventory/measure';
 import { CATEGORY_WORDS } from '@/lib/inventory/words';
 import { formatUnitPrice } from '@/lib/money';
 import { PageTitle } from '@/components/ui/page-title';
@@ -76,10 +77,10 @@ export function PartView({ data, highlight }: { data: PartPage; highlight?: stri
             ) : null}
             <dt className="muted">On hand</dt>
             <dd>
-              <strong className="text-lg tabular-nums">{d.onHand}</strong>
-              {part.tracking === 'unit'
-                ? ' units on the shelf'
-                : ` ${part.saleUnit === 'each' ? '' : part.saleUnit}`}
+              <strong className="text-lg tabular-nums">
+                {formatQty(d.onHand, part.tracking === 'unit' ? 'each' : part.saleUnit)}
+              </strong>
+              {part.tracking === 'unit' ? ' units on the shelf' : ''}
               {d.below ? (
                 <span className="ml-2 rounded border border-amber-700 px-1 text-xs font-semibold text-amber-950 dark:text-amber-200">
                   below reorder point ({part.reorderPoint})
@@ -235,6 +236,7 @@ export function PartView({ data, highlight }: { data: PartPage; highlight?: stri
               {locs.length ? (
                 <AdjustForm
                   partId={part.id}
+                  measure={measureOf(part.saleUnit)}
                   locations={locs.map((l) => ({
                     ...l,
                     qty: d.stock.find((s) => s.locationId === l.id)?.qty ?? 0,

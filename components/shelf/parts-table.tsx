@@ -13,7 +13,8 @@ import { ArrowDown, ArrowUp, ArrowUpDown, Download } from 'lucide-react';
 import type { PartPage, PartRow } from '@/lib/inventory/parts-list';
 import type { PartListQuery } from '@/lib/inventory/schemas';
 import { CATEGORIES, CATEGORY_WORDS, type PartSort } from '@/lib/inventory/words';
-import { formatMoney } from '@/lib/money';
+import { formatQty } from '@/lib/inventory/measure';
+import { formatUnitPrice } from '@/lib/money';
 import { api } from './api';
 import { partsQueryString } from './query-string';
 import { ScrollRegion } from './scroll-region';
@@ -67,7 +68,7 @@ function columns(currency: string): ColumnDef<PartRow>[] {
         const r = row.original;
         return (
           <span className="whitespace-nowrap tabular-nums">
-            {r.onHand}
+            {formatQty(r.onHand, r.tracking === 'unit' ? 'each' : r.saleUnit)}
             {r.tracking === 'unit' ? <span className="muted"> of {r.unitsTotal} units</span> : null}
             {r.below ? (
               <span className="ml-2 rounded border border-amber-700 px-1 text-xs font-semibold text-amber-950 dark:text-amber-200">
@@ -89,7 +90,7 @@ function columns(currency: string): ColumnDef<PartRow>[] {
       cell: ({ row }) =>
         row.original.priceMinor === null
           ? '—'
-          : `${formatMoney(row.original.priceMinor, currency)}${row.original.saleUnit !== 'each' ? ` / ${row.original.saleUnit}` : ''}`,
+          : formatUnitPrice(row.original.priceMinor, currency, row.original.saleUnit),
     },
   ];
 }

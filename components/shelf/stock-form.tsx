@@ -1,4 +1,5 @@
 'use client';
+import { formatQty, qtyInputMode, qtyStep } from '@/lib/inventory/measure';
 import { useQueryClient } from '@tanstack/react-query';
 import Link from 'next/link';
 import { useState } from 'react';
@@ -50,7 +51,7 @@ export function StockForm({
         setNewUnits({ partName: p.name, codes: r.units.map((u) => u.code) });
         return `${r.units.length} new unit${r.units.length === 1 ? '' : 's'} of ${p.name} labelled. Print their labels below.`;
       }
-      return `Received. That bin now holds ${r.qty} of ${p.name}.`;
+      return `Received. That bin now holds ${formatQty(r.qty, p.saleUnit)} of ${p.name}.`;
     }
     const r = await api<{ fromQty: number; toQty: number }>('/api/stock/move', {
       body: {
@@ -118,15 +119,24 @@ export function StockForm({
             {mode === 'move' ? binSelect('toLocationId', 'To bin') : null}
             <Field
               id="qty"
-              label={part?.tracking === 'unit' ? 'New units to label' : 'Quantity'}
+              label={
+                part?.tracking === 'unit'
+                  ? 'New units to label'
+                  : part?.saleUnit === 'metre'
+                    ? 'Metres (m)'
+                    : part?.saleUnit === 'gram'
+                      ? 'Grams (g)'
+                      : 'Quantity'
+              }
               error={err('qty') ?? err('count')}
             >
               <input
                 id="qty"
                 name="qty"
                 type="number"
-                min={1}
-                step={1}
+                min={part?.tracking === 'unit' ? 1 : 0}
+                step={qtyStep(part?.tracking === 'unit' ? 'each' : (part?.saleUnit ?? 'each'))}
+                inputMode={qtyInputMode(part?.tracking === 'unit' ? 'each' : (part?.saleUnit ?? 'each'))}
                 defaultValue={1}
                 className="field"
                 required

@@ -1,4 +1,4 @@
-import type { PartCategory } from '@/db/types';
+import type { Measure, PartCategory } from '@/db/types';
 
 // Generic part descriptions with believable specs; no brands, no manufacturer part numbers.
 export type DemoPart = {
@@ -8,10 +8,10 @@ export type DemoPart = {
   tracking: 'counted' | 'unit';
   specs: Record<string, unknown>;
   bin: 'drivers' | 'leds' | 'supplies' | 'consumables' | 'tools';
-  qty?: number; // counted parts: stock in the bin
+  qty?: number; // counted parts: stock in the bin, in the part's unit (metres and grams may be fractions)
   units?: number; // labelled parts: how many units
-  priceMinor?: number; // sellable consumables
-  saleUnit?: string;
+  priceMinor?: number; // sellable consumables: per item, per metre or per gram
+  saleUnit?: Measure;
   reorder?: number;
 };
 
@@ -60,15 +60,15 @@ export const DEMO_PARTS: DemoPart[] = [
   { sku: 'HS-BAR-200', name: 'Aluminium heat-sink bar, 200 mm, takes six stars', category: 'heat_sink', tracking: 'counted', bin: 'consumables', qty: 10, priceMinor: 650, reorder: 3, specs: { celsiusPerWatt: 2.5, lengthMm: 200 } },
   { sku: 'HS-RND-40', name: 'Round finned heat sink, 40 mm, one star', category: 'heat_sink', tracking: 'counted', bin: 'consumables', qty: 25, priceMinor: 180, reorder: 8, specs: { celsiusPerWatt: 9, lengthMm: 40 } },
   { sku: 'HS-FIN-60', name: 'Finned heat sink, 60 × 60 mm', category: 'heat_sink', tracking: 'counted', bin: 'consumables', qty: 6, priceMinor: 320, reorder: 2, specs: { celsiusPerWatt: 4, lengthMm: 60 } },
-  { sku: 'WIRE-TWIN-22', name: 'Red/black twin lead, 22 AWG (per metre)', category: 'wire', tracking: 'counted', bin: 'consumables', qty: 80, priceMinor: 60, saleUnit: 'metre', reorder: 20, specs: { awg: 22, colour: 'red/black' } },
-  { sku: 'WIRE-SIL-18R', name: 'Silicone hook-up wire, 18 AWG, red (per metre)', category: 'wire', tracking: 'counted', bin: 'consumables', qty: 40, priceMinor: 80, saleUnit: 'metre', reorder: 10, specs: { awg: 18, colour: 'red' } },
+  { sku: 'WIRE-TWIN-22', name: 'Red/black twin lead, 22 AWG (per metre)', category: 'wire', tracking: 'counted', bin: 'consumables', qty: 65.5, priceMinor: 160, saleUnit: 'metre', reorder: 20, specs: { awg: 22, colour: 'red/black' } },
+  { sku: 'WIRE-SIL-18R', name: 'Silicone hook-up wire, 18 AWG, red (per metre)', category: 'wire', tracking: 'counted', bin: 'consumables', qty: 37.5, priceMinor: 80, saleUnit: 'metre', reorder: 10, specs: { awg: 18, colour: 'red' } },
   { sku: 'WIRE-SIL-18B', name: 'Silicone hook-up wire, 18 AWG, black (per metre)', category: 'wire', tracking: 'counted', bin: 'consumables', qty: 40, priceMinor: 80, saleUnit: 'metre', reorder: 10, specs: { awg: 18, colour: 'black' } },
   { sku: 'WIRE-SOL-24', name: 'Solid-core hook-up wire, 24 AWG (per metre)', category: 'wire', tracking: 'counted', bin: 'consumables', qty: 100, priceMinor: 20, saleUnit: 'metre', reorder: 25, specs: { awg: 24 } },
   // Consumables
   { sku: 'CON-HSHRINK', name: 'Heat-shrink tubing assortment, 2:1', category: 'consumable', tracking: 'counted', bin: 'consumables', qty: 15, priceMinor: 300, reorder: 5, specs: {} },
   { sku: 'CON-TPAD', name: 'Thermal adhesive pad for 20 mm star', category: 'consumable', tracking: 'counted', bin: 'consumables', qty: 120, priceMinor: 25, reorder: 40, specs: {} },
   { sku: 'CON-TPASTE', name: 'Thermal paste sachet, 1 g', category: 'consumable', tracking: 'counted', bin: 'consumables', qty: 2, priceMinor: 75, reorder: 10, specs: {} },
-  { sku: 'CON-SOLDER', name: 'Lead-free solder wire, 0.7 mm, 10 g tube', category: 'consumable', tracking: 'counted', bin: 'consumables', qty: 18, priceMinor: 350, reorder: 6, specs: {} },
+  { sku: 'CON-SOLDER', name: 'Lead-free solder wire, 0.7 mm, off the spool (by the gram)', category: 'consumable', tracking: 'counted', bin: 'consumables', qty: 420, priceMinor: 14, saleUnit: 'gram', reorder: 150, specs: {} },
   { sku: 'CON-M3', name: 'M3 × 8 mm screws with nuts, bag of 20', category: 'consumable', tracking: 'counted', bin: 'consumables', qty: 22, priceMinor: 120, reorder: 5, specs: {} },
   { sku: 'CON-TERM2', name: '2-way screw terminal block, 5 mm pitch', category: 'consumable', tracking: 'counted', bin: 'consumables', qty: 60, priceMinor: 30, reorder: 20, specs: {} },
   { sku: 'CON-JACK', name: 'Panel DC barrel socket, 5.5 × 2.1 mm', category: 'consumable', tracking: 'counted', bin: 'consumables', qty: 30, priceMinor: 85, reorder: 10, specs: {} },

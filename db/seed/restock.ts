@@ -25,6 +25,8 @@ function offersFor(sku: string, category: string): { key: Key; pack: number }[] 
   if (category === 'heat_sink' || sku === 'CON-LENS30') return [{ key: 'brindle', pack: 5 }, { key: 'tallow', pack: 5 }];
   if (category === 'driver') return [{ key: 'tallow', pack: sku.startsWith('RES') ? 20 : 2 }];
   if (category === 'supply') return [{ key: 'tallow', pack: 1 }];
+  // Solder comes off a 250 g spool (sold by the gram at the counter).
+  if (sku === 'CON-SOLDER') return [{ key: 'sallow', pack: 250 }, { key: 'tallow', pack: 500 }];
   if (category === 'consumable' || category === 'kit_box') return [{ key: 'sallow', pack: 10 }, { key: 'tallow', pack: 10 }];
   return [];
 }

@@ -2,6 +2,7 @@ import { sql } from 'kysely';
 import type Stripe from 'stripe';
 import type { Db } from '@/db/connect';
 import { makeStripe } from '@/lib/payments/stripe';
+import { roundQty } from '@/lib/inventory/measure';
 import { basketTotal, priceBasket, type PricedLine } from '@/lib/sales/basket';
 import { writeCashSale } from '@/lib/sales/cash';
 import { checkoutIdempotencyKey, checkoutParams } from '@/lib/sales/checkout';
@@ -91,12 +92,12 @@ export async function seedSalesMonth(
   const shelf = await db
     .selectFrom('parts')
     .innerJoin('stock', 'stock.part_id', 'parts.id')
-    .select(['parts.id', 'parts.sku', 'parts.price_minor', sql<number>`sum(stock.qty)::int`.as('qty')])
+    .select(['parts.id', 'parts.sku', 'parts.price_minor', 'parts.sale_unit', sql<number>`sum(stock.qty)`.as('qty')])
     .where('parts.space_id', '=', opts.spaceId)
     .where('parts.sellable', '=', true)
     .where('parts.tracking', '=', 'counted')
     .where('parts.price_minor', '>', 1)
-    .groupBy(['parts.id', 'parts.sku', 'parts.price_minor'])
+    .groupBy(['parts.id', 'parts.sku', 'parts.price_minor', 'parts.sale_unit'])
     .having(sql`sum(stock.qty)`, '>=', 1)
     .orderBy('parts.sku')
     .orderBy('parts.id')
@@ -107,6 +108,15 @@ export async function seedSalesMonth(
   if (catalog.length < 3)
     throw new Error('seedSalesMonth: the space needs at least three sellable parts with stock');
   const left = new Map(shelf.map((p) => [p.id, p.qty]));
+  const unitOf = new Map(shelf.map((p) => [p.id, p.sale_unit]));
+  // What one person takes of a part, from one draw: one or two items, a length of wire off the reel
+  // (1 to 2.5 m in half metres), or some solder off the spool (10 to 25 g).
+  const amount = (id: string, r: number) => {
+    const unit = unitOf.get(id);
+    if (unit === 'metre') return 1 + Math.floor(r * 4) / 2;
+    if (unit === 'gram') return [10, 15, 20, 25][Math.floor(r * 4)];
+    return 1 + Math.floor(r * 2);
+  };
   const planted = shelf.find((p) => p.sku === PLANTED_MISMATCH.sku) ?? catalog[0];
   const discount = Math.min(PLANTED_MISMATCH.discountMinor, Math.floor(planted.price_minor! / 4));
 
@@ -122,19 +132,19 @@ export async function seedSalesMonth(
 
   const basket = async (must?: string): Promise<PricedLine[]> => {
     const wanted = new Map<string, number>();
-    if (must && (left.get(must) ?? 0) >= 1) wanted.set(must, 1);
+    if (must && (left.get(must) ?? 0) >= amount(must, 0)) wanted.set(must, amount(must, 0));
     const n = 1 + Math.floor(random() * 3);
     // A bounded number of draws: a part with too little left is passed over, never asked for.
     for (let tries = 0; wanted.size < n && tries < 20; tries++) {
       const id = pick(catalog).id;
-      const qty = 1 + Math.floor(random() * 2);
+      const qty = amount(id, random());
       if (!wanted.has(id) && (left.get(id) ?? 0) >= qty + 2) wanted.set(id, qty);
     }
     if (!wanted.size) {
       const fullest = catalog.reduce((a, b) => ((left.get(b.id) ?? 0) > (left.get(a.id) ?? 0) ? b : a));
-      wanted.set(fullest.id, 1);
+      wanted.set(fullest.id, amount(fullest.id, 0));
     }
-    for (const [id, qty] of wanted) left.set(id, (left.get(id) ?? 0) - qty);
+    for (const [id, qty] of wanted) left.set(id, roundQty((left.get(id) ?? 0) - qty));
     return priceBasket(
       db,
       opts.spaceId,
@@ -213,11 +223,12 @@ export async function seedSalesMonth(
       const charged = lines.map((l) => ({
         name: l.name,
         qty: l.qty,
+        saleUnit: l.saleUnit,
         unitPriceMinor: isPlanted && l.partId === planted.id ? l.unitPriceMinor - discount : l.unitPriceMinor,
       }));
       // Tax added to shelf prices is its own line on the pay page, as at the counter (lib/sales/card.ts).
       if (tax.mode === 'exclusive' && taxed.taxMinor > 0)
-        charged.push({ name: taxWords(rules.taxName, tax), qty: 1, unitPriceMinor: taxed.taxMinor });
+        charged.push({ name: taxWords(rules.taxName, tax), qty: 1, saleUnit: 'each', unitPriceMinor: taxed.taxMinor });
       const session = await fake.stripe.checkout.sessions.create(
         checkoutParams({
           saleId: sale.id,

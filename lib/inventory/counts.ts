@@ -6,6 +6,7 @@ import { audit } from '@/lib/audit/log';
 import type { Ctx } from '@/lib/auth/roles';
 import { now } from '@/lib/clock';
 import { ConflictError, InvalidError, NotFoundError } from '@/lib/errors';
+import { measureOf, qtyProblem, roundQty } from './measure';
 import type { countLinesSchema } from './schemas';
 import { assertId, findLocation } from './scope';
 import { inTransaction } from './tx';
@@ -100,7 +101,11 @@ export async function getCount(db: Db, ctx: Pick<Ctx, 'spaceId'>, id: string) {
   const ids = count.lines.map((l) => l.partId);
   const [parts, stock] = ids.length
     ? await Promise.all([
-        scoped(db, ctx).selectFrom('parts').select(['id', 'name', 'sku', 'code']).where('id', 'in', ids).execute(),
+        scoped(db, ctx)
+          .selectFrom('parts')
+          .select(['id', 'name', 'sku', 'code', 'sale_unit'])
+          .where('id', 'in', ids)
+          .execute(),
         scoped(db, ctx)
           .selectFrom('stock')
           .select(['part_id', 'qty'])
@@ -119,8 +124,9 @@ export async function getCount(db: Db, ctx: Pick<Ctx, 'spaceId'>, id: string) {
       name: p?.name ?? '(removed part)',
       sku: p?.sku ?? '',
       code: p?.code ?? null,
+      measure: measureOf(p?.sale_unit),
       current,
-      variance: l.counted === null ? null : l.counted - current,
+      variance: l.counted === null ? null : roundQty(l.counted - current),
     };
   });
   return { ...count, lines };
@@ -148,6 +154,7 @@ export async function saveCountLines(db: Db, ctx: Ctx, id: string, input: z.outp
   return inTransaction(db, async (trx) => {
     const count = await lockOpenCount(trx, ctx, id);
     const lines = [...count.lines];
+    await refuseQtyNotInUnit(trx, ctx, input.lines);
     const newIds = input.lines.map((l) => l.partId).filter((p) => !lines.some((l) => l.partId === p));
     if (newIds.length) {
       const parts = await scoped(trx, ctx)
@@ -181,6 +188,20 @@ export async function saveCountLines(db: Db, ctx: Ctx, id: string, input: z.outp
       .execute();
     return { id, lines: lines.length };
   });
+}
+
+/** 400 naming `lines.N.counted` when a count has a fraction of a part counted in whole items. */
+async function refuseQtyNotInUnit(trx: Db, ctx: Ctx, input: { partId: string; counted: number | null }[]) {
+  const ids = [...new Set(input.filter((l) => l.counted !== null).map((l) => l.partId))];
+  if (!ids.length) return;
+  const parts = await scoped(trx, ctx).selectFrom('parts').select(['id', 'sale_unit']).where('id', 'in', ids).execute();
+  const unitOf = new Map(parts.map((p) => [p.id, measureOf(p.sale_unit)]));
+  const fields: Record<string, string[]> = {};
+  input.forEach((l, i) => {
+    const problem = l.counted === null ? null : qtyProblem(l.counted, unitOf.get(l.partId) ?? 'each');
+    if (problem) fields[`lines.${i}.counted`] = [`the count ${problem}`];
+  });
+  if (Object.keys(fields).length) throw new InvalidError(`Check ${Object.keys(fields).join(', ')}.`, fields);
 }
 
 /** Makes the counted figures the bin's stock; each difference becomes a 'count' movement. */
@@ -221,7 +242,7 @@ export async function postCount(db: Db, ctx: Ctx, id: string) {
           space_id: ctx.spaceId,
           part_id: line.partId,
           location_id: count.location_id,
-          qty_delta: line.counted - before,
+          qty_delta: roundQty(line.counted - before),
           reason: 'count',
           ref_type: 'stock_count',
           ref_id: id,

@@ -18,7 +18,7 @@ async function importContext(db: Db, ctx: Pick<Ctx, 'spaceId'>, lock = false): P
     db.selectFrom('spaces').select('currency').where('id', '=', ctx.spaceId).executeTakeFirstOrThrow(),
     scoped(db, ctx)
       .selectFrom('parts')
-      .select(['id', 'sku', 'category', 'tracking', 'specs'])
+      .select(['id', 'sku', 'category', 'tracking', 'specs', 'sale_unit'])
       .where('space_id', '=', ctx.spaceId)
       .$if(lock, (qb) => qb.forUpdate())
       .execute(),

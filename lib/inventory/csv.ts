@@ -5,6 +5,7 @@ import Papa from 'papaparse';
 import type { PartCategory } from '@/db/types';
 import { csvUnguard, writeCsv } from '@/lib/csv';
 import { minorUnitExponent, parseMoney } from '@/lib/money';
+import { measureOf, parseMeasure, parseQtyInput, qtyProblem, type Measure } from './measure';
 import { CATEGORIES, CATEGORY_WORDS } from './schemas';
 import { parseSpecs } from './specs';
 import { SPEC_FIELDS } from './words';
@@ -36,6 +37,8 @@ export type ExistingPart = {
   category: PartCategory;
   tracking: 'counted' | 'unit';
   specs: Record<string, unknown>;
+  /** Its unit of measure; missing reads as 'each'. */
+  sale_unit?: string;
 };
 export type ImportContext = {
   currency: string;
@@ -56,7 +59,7 @@ export type ImportRow = {
   specs?: Record<string, unknown>;
   reorderPoint?: number;
   priceMinor?: number | null;
-  saleUnit?: string;
+  saleUnit?: Measure;
   sellable?: boolean;
   lendable?: boolean;
   notes?: string;
@@ -230,15 +233,23 @@ export function checkImport(csv: string, ctx: ImportContext): ImportCheck {
     if (out.sellable && out.priceMinor == null && !existing && !rowErrors.some((e) => e.field === 'price'))
       err('price', 'a part on sale needs a price');
     const saleUnit = cell('sale_unit');
-    if (saleUnit) out.saleUnit = saleUnit.slice(0, 30);
+    if (saleUnit) {
+      const unit = parseMeasure(saleUnit);
+      if (!unit) err('sale_unit', 'sale unit is each, metre or gram');
+      else if (unit !== 'each' && tracking === 'unit') err('sale_unit', 'labelled units are always each');
+      else out.saleUnit = unit;
+    }
+    const rowMeasure = out.saleUnit ?? measureOf(existing?.sale_unit);
     const notes = cell('notes');
     if (notes) out.notes = notes.slice(0, 2000);
 
     const qtyText = cell('qty');
     const loc = cell('location');
     if (qtyText) {
-      const qty = wholeNumber(qtyText);
-      if (Number.isNaN(qty)) err('qty', 'quantity is a whole number, 0 or more');
+      const qty = parseQtyInput(qtyText) ?? NaN;
+      const problem = Number.isNaN(qty) ? null : qtyProblem(qty, rowMeasure);
+      if (Number.isNaN(qty)) err('qty', 'quantity is a number, 0 or more');
+      else if (problem) err('qty', `quantity ${problem}`);
       else if (tracking === 'unit' && qty > 500) err('qty', 'at most 500 new units per row');
       else out.qty = qty;
       if (qty > 0 && !loc && tracking === 'counted') err('location', 'say which bin the stock goes in');

@@ -43,7 +43,7 @@ const escapeLike = (s: string) => s.replace(/[\\%_]/g, (c) => `\\${c}`);
 const stockTotals = (db: Db, spaceId: string) =>
   scoped(db, { spaceId })
     .selectFrom('stock')
-    .select(['part_id', sql<number>`sum(qty)::int`.as('n')])
+    .select(['part_id', sql<number>`sum(qty)`.as('n')])
     .where('space_id', '=', spaceId)
     .groupBy('part_id');
 /** Labelled units on the shelf, per part of the space. */
@@ -127,7 +127,7 @@ async function rowsFor(db: Db, spaceId: string, ids: string[]): Promise<PartRow[
     .select((eb) => [
       eb
         .selectFrom('stock')
-        .select(sql<number>`coalesce(sum(qty), 0)::int`.as('n'))
+        .select(sql<number>`coalesce(sum(qty), 0)`.as('n'))
         .whereRef('stock.part_id', '=', 'parts.id')
         .as('stockQty'),
       eb

@@ -1,6 +1,7 @@
 import 'server-only';
 import { randomUUID } from 'node:crypto';
 import type { z } from 'zod';
+import { sql } from 'kysely';
 import type { Db } from '@/db/connect';
 import { scoped } from '@/db/scoped';
 import type { PartUpdate } from '@/db/types';
@@ -39,6 +40,9 @@ function checkPrice(sellable: boolean, priceMinor: number | null): void {
 export async function createPart(db: Db, ctx: Ctx, input: PartCreate) {
   const specs = checkSpecs(input.category, input.specs);
   checkPrice(input.sellable, input.priceMinor);
+  if (input.tracking === 'unit' && input.saleUnit !== 'each') {
+    throw new InvalidError('Labelled units are one thing each.', { saleUnit: ['labelled units are always each'] });
+  }
   if (input.tracking === 'counted' && input.units > 0) {
     throw new InvalidError('Counted parts have no labelled units; receive stock instead.', {
       units: ['only labelled parts have units'],
@@ -134,6 +138,26 @@ export async function updatePart(db: Db, ctx: Ctx, id: string, patch: PartPatch)
         );
       }
       set.tracking = patch.tracking;
+    }
+
+    const unitAfter = patch.saleUnit ?? current.sale_unit;
+    if ((patch.tracking ?? current.tracking) === 'unit' && unitAfter !== 'each') {
+      throw new InvalidError('Labelled units are one thing each.', { saleUnit: ['labelled units are always each'] });
+    }
+    if (unitAfter === 'each' && current.sale_unit !== 'each') {
+      // Back to whole items only while no bin holds a fraction (65.5 m cannot become 65.5 items).
+      const fraction = await scoped(trx, ctx)
+        .selectFrom('stock')
+        .select('qty')
+        .where('part_id', '=', id)
+        .where(sql<boolean>`qty <> trunc(qty)`)
+        .limit(1)
+        .executeTakeFirst();
+      if (fraction) {
+        throw new ConflictError('A bin holds a fraction of this part; count it in whole items first.', {
+          saleUnit: [`a bin holds ${fraction.qty}: whole items cannot be fractions`],
+        });
+      }
     }
 
     if (patch.sku !== undefined) set.sku = patch.sku;

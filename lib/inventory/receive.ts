@@ -4,6 +4,7 @@ import type { Db } from '@/db/connect';
 import { audit } from '@/lib/audit/log';
 import type { Ctx } from '@/lib/auth/roles';
 import { InvalidError } from '@/lib/errors';
+import { refuseQtyNotInUnit } from './measure-check';
 import type { addUnitsSchema, receiveSchema } from './schemas';
 import { findLocation, findPart } from './scope';
 import { addToBin, recordMovement } from './stock';
@@ -25,15 +26,19 @@ export type Arrival =
 export async function receiveOnShelf(
   trx: Db,
   ctx: Ctx,
-  part: { id: string; sku: string; tracking: 'counted' | 'unit' },
+  part: { id: string; sku: string; tracking: 'counted' | 'unit'; sale_unit?: string },
   input: {
     qty: number;
+    /** The field a quantity that does not fit the part's unit is named by (default `qty`). */
+    qtyField?: string;
     locationId: string | null;
     note?: string;
     serialPrefix?: string;
     ref?: { type: string; id: string };
   },
 ): Promise<Arrival> {
+  // Labelled units are one thing each; metres and grams may be fractions (migration 0014).
+  refuseQtyNotInUnit(input.qty, part.tracking === 'unit' ? 'each' : (part.sale_unit ?? 'each'), input.qtyField ?? 'qty');
   if (input.locationId) await findLocation(trx, ctx, input.locationId);
   if (part.tracking === 'unit') {
     const units = await insertUnits(trx, ctx, part, input.qty, input.locationId, input.serialPrefix, {
@@ -97,6 +102,7 @@ export async function addUnits(db: Db, ctx: Ctx, partId: string, input: z.output
     }
     const got = await receiveOnShelf(trx, ctx, part, {
       qty: input.count,
+      qtyField: 'count',
       locationId: input.locationId ?? null,
       serialPrefix: input.serialPrefix,
     });

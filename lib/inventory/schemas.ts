@@ -3,6 +3,7 @@
 import { z } from 'zod';
 import { idSchema } from '@/lib/ids';
 
+import { MEASURES } from './measure';
 import { CATEGORIES, LOCATION_KINDS, PART_SORTS, TRACKING } from './words';
 
 export { CATEGORIES, CATEGORY_WORDS, LOCATION_KINDS, PART_SORTS, TRACKING, type PartSort } from './words';
@@ -25,6 +26,16 @@ const flag = z.preprocess(
 export const uuid = idSchema;
 const wholeQty = (what: string) =>
   z.number({ error: `${what} must be a number` }).int(`${what} must be a whole number`);
+/**
+ * A quantity of counted stock: metres and grams take up to three decimals (migration 0014). Whether the
+ * part takes a fraction at all is the service's check (lib/inventory/measure.ts `qtyProblem`), which
+ * names the same field: a part counted in whole items refuses 1.5.
+ */
+export const measuredQty = (what: string) =>
+  z
+    .number({ error: `${what} must be a number` })
+    .multipleOf(0.001, `${what} may have at most 3 decimals`);
+const measure = z.enum(MEASURES, { error: 'choose each, metre or gram' });
 
 // ---------------------------------------------------------------- parts table
 
@@ -66,7 +77,7 @@ const partFields = {
   sellable: z.boolean().default(false),
   lendable: z.boolean().default(true),
   priceMinor: price.nullable().default(null),
-  saleUnit: z.string().trim().min(1).max(30).default('each'),
+  saleUnit: measure.default('each'),
   reorderPoint: wholeQty('reorder point')
     .min(0, 'reorder point must not be negative')
     .max(1_000_000)
@@ -93,7 +104,7 @@ export const partUpdateSchema = z
     sellable: z.boolean(),
     lendable: z.boolean(),
     priceMinor: price.nullable(),
-    saleUnit: z.string().trim().min(1).max(30),
+    saleUnit: measure,
     reorderPoint: wholeQty('reorder point').min(0, 'reorder point must not be negative').max(1_000_000),
     notes: z.string().max(2000),
     archived: z.boolean(),
@@ -109,8 +120,8 @@ export const addUnitsSchema = z.object({
 
 // ---------------------------------------------------------------- stock
 
-const qtyPositive = wholeQty('quantity')
-  .min(1, 'quantity must be at least 1')
+const qtyPositive = measuredQty('quantity')
+  .positive('quantity must be more than 0')
   .max(1_000_000, 'quantity is too large');
 const note = z.string().trim().max(500).default('');
 
@@ -133,7 +144,7 @@ export const ADJUST_REASONS = ['adjust', 'lost', 'damaged'] as const;
 export const adjustSchema = z.object({
   partId: uuid,
   locationId: uuid,
-  delta: wholeQty('change')
+  delta: measuredQty('change')
     .min(-1_000_000)
     .max(1_000_000)
     .refine((d) => d !== 0, 'the change must not be zero'),
@@ -186,7 +197,7 @@ export const countLinesSchema = z.object({
     .array(
       z.object({
         partId: uuid,
-        counted: wholeQty('count').min(0, 'a count cannot be negative').max(1_000_000).nullable(),
+        counted: measuredQty('count').min(0, 'a count cannot be negative').max(1_000_000).nullable(),
       }),
     )
     .max(2000),

@@ -42,7 +42,7 @@ export async function findPartSummary(db: Db, ctx: Scope, id: string | undefined
   if (!isId(id)) return null;
   const p = await scoped(db, ctx)
     .selectFrom('parts')
-    .select(['id', 'name', 'sku', 'tracking'])
+    .select(['id', 'name', 'sku', 'tracking', 'sale_unit as saleUnit'])
     .where('id', '=', id)
     .where('space_id', '=', ctx.spaceId)
     .executeTakeFirst();

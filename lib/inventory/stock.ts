@@ -8,6 +8,7 @@ import type { Ctx } from '@/lib/auth/roles';
 import { now } from '@/lib/clock';
 import { ConflictError, InvalidError } from '@/lib/errors';
 import type { adjustSchema, moveSchema } from './schemas';
+import { refuseQtyNotInUnit } from './measure-check';
 import { findLocation, findPart } from './scope';
 import { inTransaction } from './tx';
 
@@ -110,7 +111,8 @@ export async function recordMovement(
 /** Moves n from one bin to another: both rows locked in a fixed order, so opposite moves cannot deadlock. */
 export async function moveStock(db: Db, ctx: Ctx, input: z.output<typeof moveSchema>) {
   return inTransaction(db, async (trx) => {
-    await countedPart(trx, ctx, input.partId);
+    const part = await countedPart(trx, ctx, input.partId);
+    refuseQtyNotInUnit(input.qty, part.sale_unit, 'qty');
     await findLocation(trx, ctx, input.fromLocationId);
     await findLocation(trx, ctx, input.toLocationId);
     await scoped(trx, ctx)
@@ -157,7 +159,8 @@ export async function adjustStock(db: Db, ctx: Ctx, input: z.output<typeof adjus
     });
   }
   return inTransaction(db, async (trx) => {
-    await countedPart(trx, ctx, input.partId);
+    const part = await countedPart(trx, ctx, input.partId);
+    refuseQtyNotInUnit(input.delta, part.sale_unit, 'delta', 'change');
     await findLocation(trx, ctx, input.locationId);
     const qty =
       input.delta > 0

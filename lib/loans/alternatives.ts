@@ -40,7 +40,7 @@ async function freeSuppliesAndDrivers(db: Db, spaceId: string): Promise<ShelfRow
     .select((eb) => [
       sql<number>`(case when parts.tracking = 'unit'
         then (select count(*) from units u where u.space_id = parts.space_id and u.part_id = parts.id and u.state = 'on_shelf' and u.kit_box_id is null)
-        else (select coalesce(sum(s.qty), 0) from stock s where s.space_id = parts.space_id and s.part_id = parts.id) end)::int`.as('free'),
+        else (select floor(coalesce(sum(s.qty), 0)) from stock s where s.space_id = parts.space_id and s.part_id = parts.id) end)::int`.as('free'),
       eb
         .selectFrom('units as u')
         .select('u.code')

@@ -2,7 +2,8 @@ import 'server-only';
 import type { Db } from '@/db/connect';
 import { scoped } from '@/db/scoped';
 import { env } from '@/lib/env';
-import { formatMoney } from '@/lib/money';
+import { formatQty } from '@/lib/inventory/measure';
+import { formatMoney, formatUnitPrice, lineAmountMinor } from '@/lib/money';
 import { saleRef } from '@/lib/sales/ref';
 import { formatDateTimeWithZone } from '@/lib/zoned-time';
 import { sendMail } from './server';
@@ -31,10 +32,12 @@ export type ReceiptData = {
 export function receiptMessage(r: ReceiptData, appBaseUrl: string) {
   const ref = saleRef(r.saleId);
   const money = (n: number) => formatMoney(n, r.currency);
+  // "3 × Cable ties", "2.5 m of Twin lead": a line's amount is round(qty × price), half away from zero.
   const qty = (l: ReceiptData['lines'][number]) =>
-    l.saleUnit === 'each' ? `${l.qty} ×` : `${l.qty} ${l.saleUnit}${l.qty === 1 ? '' : 's'} ×`;
+    l.saleUnit === 'each' ? `${l.qty} ×` : `${formatQty(l.qty, l.saleUnit)} of`;
+  const amount = (l: ReceiptData['lines'][number]) => money(lineAmountMinor(l.qty, l.unitPriceMinor));
   const rows = r.lines.map(
-    (l) => `  ${qty(l)} ${l.name} @ ${money(l.unitPriceMinor)} = ${money(l.qty * l.unitPriceMinor)}`,
+    (l) => `  ${qty(l)} ${l.name} @ ${formatUnitPrice(l.unitPriceMinor, r.currency, l.saleUnit)} = ${amount(l)}`,
   );
   const when = formatDateTimeWithZone(r.paidAt, r.timeZone);
   const taxLines = receiptTaxLines({ ...r.tax, totalMinor: r.totalMinor });
@@ -54,7 +57,7 @@ export function receiptMessage(r: ReceiptData, appBaseUrl: string) {
       `<table><tbody>${r.lines
         .map(
           (l) =>
-            `<tr><td>${esc(qty(l))} ${esc(l.name)}</td><td style="text-align:right">${esc(money(l.qty * l.unitPriceMinor))}</td></tr>`,
+            `<tr><td>${esc(qty(l))} ${esc(l.name)}</td><td style="text-align:right">${esc(amount(l))}</td></tr>`,
         )
         .join('')}${taxLines.before.map(htmlLine).join('')}<tr><td><strong>Total</strong></td><td style="text-align:right"><strong>${esc(money(r.totalMinor))}</strong></td></tr>${taxLines.after.map(htmlLine).join('')}</tbody></table>` +
       `<p>Reference: ${esc(ref)} · <a href="${esc(link)}">See the sale</a></p>`,

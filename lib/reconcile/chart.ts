@@ -24,7 +24,7 @@ export async function salesByMonthAndCategory(
     .select([
       sql<string>`to_char(sales.paid_at at time zone ${timeZone}, 'YYYY-MM')`.as('month'),
       'parts.category',
-      sql<number>`sum(sale_lines.qty * sale_lines.unit_price_minor)::int`.as('minor'),
+      sql<number>`sum(round(sale_lines.qty * sale_lines.unit_price_minor))::int`.as('minor'),
     ])
     .where('sales.space_id', '=', spaceId)
     .where('sales.status', 'in', ['paid', 'partially_refunded', 'refunded'])

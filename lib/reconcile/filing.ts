@@ -5,6 +5,7 @@ import type { Ctx } from '@/lib/auth/roles';
 import type { PartCategory, TaxMode } from '@/lib/domain';
 import { writeOffsAtCost } from '@/lib/books/write-offs';
 import { boxCounts, type BoxCount } from '@/lib/honour-box/box';
+import { lineAmountMinor } from '@/lib/money';
 import { moneyRules } from '@/lib/money-rules/settings';
 import { purchasesReceived, type PurchaseLine } from '@/lib/restock/purchases';
 import { monthRange } from '@/lib/sales/periods';
@@ -194,7 +195,8 @@ export async function filingSaleLines(
   for (const r of lineRows) bySale.set(r.sale_id, [...(bySale.get(r.sale_id) ?? []), r]);
   const saleLines: FilingSaleLine[] = [];
   for (const rows of bySale.values()) {
-    const shelf = rows.map((r) => r.qty * r.unit_price_minor);
+    // A line's shelf amount: round(qty × unit price), half away from zero (metres and grams may be fractions).
+    const shelf = rows.map((r) => lineAmountMinor(r.qty, r.unit_price_minor));
     const shares = allocateTax(shelf, rows[0].tax_minor);
     rows.forEach((r, i) => {
       // Exclusive: the line's shelf amount is its net and its tax share is added. Inclusive: the share

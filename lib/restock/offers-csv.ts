@@ -4,6 +4,7 @@
 // spreadsheet's (the header is row 1); errors are `rows.<row>.<field>`. Pure (papaparse + zod), so the
 // preview and the commit check rows by the very same rules.
 import Papa from 'papaparse';
+import { qtyProblem, type Measure } from '@/lib/inventory/measure';
 import { csvUnguard, writeCsv } from '@/lib/csv';
 import { minorUnitExponent, parseMoney } from '@/lib/money';
 import type { RowError } from '@/lib/inventory/csv';
@@ -46,6 +47,8 @@ export type OfferImportContext = {
   suppliers: Map<string, string>;
   /** Part ids by SKU, exactly as stored. */
   parts: Map<string, string>;
+  /** Each part's unit by part id (migration 0014): a pack of whole items is a whole number. */
+  units?: Map<string, Measure>;
 };
 export type OfferImportRow = {
   row: number;
@@ -121,6 +124,10 @@ export function checkOffersImport(csv: string, ctx: OfferImportContext): OfferIm
     const packSize = offerSchema.shape.packSize.safeParse(sizeText === '' ? undefined : Number(sizeText));
     if (!sizeText) err('pack_size', 'pack size is required');
     else if (!packSize.success) err('pack_size', firstMessage(packSize));
+    else if (partId && ctx.units) {
+      const problem = qtyProblem(packSize.data, ctx.units.get(partId) ?? 'each');
+      if (problem) err('pack_size', `pack size ${problem}`);
+    }
 
     const priceText = cell('pack_price');
     const minor = priceText ? parseMoney(priceText.replace(/^[^\d]+/, ''), ctx.currency) : null;

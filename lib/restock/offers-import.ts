@@ -18,12 +18,13 @@ async function importContext(db: Db, ctx: Ctx, lock = false): Promise<OfferImpor
   const [{ currency }, suppliers, parts] = await Promise.all([
     spaceClock(db, ctx.spaceId),
     scoped(db, ctx).selectFrom('suppliers').select(['id', 'name']).$if(lock, (q) => q.forUpdate()).execute(),
-    scoped(db, ctx).selectFrom('parts').select(['id', 'sku']).where('archived_at', 'is', null).execute(),
+    scoped(db, ctx).selectFrom('parts').select(['id', 'sku', 'sale_unit', 'tracking']).where('archived_at', 'is', null).execute(),
   ]);
   return {
     currency,
     suppliers: new Map(suppliers.map((s) => [s.name.toLowerCase(), s.id])),
     parts: new Map(parts.map((p) => [p.sku, p.id])),
+    units: new Map(parts.map((p) => [p.id, p.tracking === 'unit' ? 'each' : p.sale_unit])),
   };
 }
 

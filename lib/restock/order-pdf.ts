@@ -1,5 +1,6 @@
 import { PDFDocument, StandardFonts, type PDFFont, type PDFPage } from 'pdf-lib';
 import { drawable } from '@/labels/text-fit';
+import { formatQty } from '@/lib/inventory/measure';
 import { formatDate } from '@/lib/format';
 import { formatMoney } from '@/lib/money';
 import { ORDER_STATE_WORDS } from './order-words';
@@ -70,7 +71,7 @@ export async function orderPdf(order: OrderDetail, spaceName: string, timeZone: 
     }
     write(l.itemRef || '-', cols.ref, 9, text, 76);
     write(l.partName, cols.desc, 9, text, 230);
-    right(`${l.packs} × ${l.packSize}`, cols.qty + 20, 9);
+    right(`${l.packs} × ${formatQty(l.packSize, l.saleUnit)}`, cols.qty + 20, 9);
     right(money(l.packPriceMinor), cols.price + 20, 9);
     right(money(l.lineTotalMinor), cols.total, 9);
     y -= 14;

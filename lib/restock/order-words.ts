@@ -1,5 +1,6 @@
 // Order list states in our own words, for screens, mail and the audit trail. Pure.
 import type { OrderState } from '@/lib/domain';
+import { divRoundHalfUp } from '@/lib/money';
 
 export type { OrderState };
 
@@ -14,8 +15,11 @@ export const ORDER_STATE_WORDS: Record<OrderState, string> = {
 /**
  * What a receipt line cost: units × pack price ÷ pack size, in minor units, rounded half up to the
  * nearest minor unit (half up: 0.5 goes away from zero; amounts here are never negative). Integer
- * arithmetic, so no binary fraction decides a cent: floor((2·units·price + pack) / (2·pack)).
+ * arithmetic, so no binary fraction decides a cent: units and pack size (metres and grams may carry
+ * three decimals, migration 0014) are taken in thousandths, then floor((2·units·price + pack) / (2·pack)).
  */
 export function receivedCostMinor(units: number, packPriceMinor: number, packSize: number): number {
-  return Math.floor((2 * units * packPriceMinor + packSize) / (2 * packSize));
+  const u = BigInt(Math.round(units * 1000));
+  const pack = BigInt(Math.round(packSize * 1000));
+  return Number(divRoundHalfUp(u * BigInt(packPriceMinor), pack));
 }

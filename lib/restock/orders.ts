@@ -7,6 +7,7 @@ import { audit } from '@/lib/audit/log';
 import type { Ctx } from '@/lib/auth/roles';
 import { now } from '@/lib/clock';
 import { ConflictError, InvalidError, NotFoundError } from '@/lib/errors';
+import { roundQty, type Measure } from '@/lib/inventory/measure';
 import { assertId } from '@/lib/inventory/scope';
 import { inTransaction } from '@/lib/inventory/tx';
 import { budgetFigures, type BudgetFigures } from './budget';
@@ -24,7 +25,7 @@ export type OrderLine = {
   partName: string;
   partSku: string;
   tracking: 'counted' | 'unit';
-  saleUnit: string;
+  saleUnit: Measure;
   itemRef: string;
   packSize: number;
   packs: number;
@@ -97,7 +98,7 @@ export async function orderLines(db: Db, ctx: Ctx, orderId: string): Promise<Ord
     itemRef: r.item_ref,
     packSize: r.pack_size,
     packs: r.packs,
-    orderedUnits: r.packs * r.pack_size,
+    orderedUnits: roundQty(r.packs * r.pack_size),
     receivedUnits: r.received_units,
     packPriceMinor: r.pack_price_minor,
     lineTotalMinor: r.packs * r.pack_price_minor,

@@ -94,6 +94,7 @@ export async function receiveOrder(db: Db, ctx: Ctx, id: string, input: OrderRec
       const part = await findPart(trx, ctx, line.partId);
       const arrival = await receiveOnShelf(trx, ctx, part, {
         qty: l.units,
+        qtyField: `lines.${i}.units`,
         locationId: l.locationId,
         note: `order list ${id.slice(0, 8).toUpperCase()}`,
         ref: { type: 'order_list', id },

@@ -16,6 +16,13 @@ const whole = (what: string, min: number, max: number) =>
     .min(min, `${what} must be at least ${min}`)
     .max(max, `${what} must be at most ${max}`);
 
+/** Metres and grams may be fractions (at most three decimals, migration 0014); whole items are checked by the service. */
+const measured = (what: string, max: number) =>
+  z
+    .number({ error: `${what} must be a number` })
+    .multipleOf(0.001, `${what} may have at most 3 decimals`)
+    .max(max, `${what} must be at most ${max}`);
+
 export const supplierSchema = z.object({
   name: z.string({ error: 'name is required' }).trim().min(1, 'name is required').max(120, 'name is at most 120 characters'),
   website: z
@@ -36,7 +43,7 @@ export const offerSchema = z.object({
   supplierId: idSchema,
   partId: idSchema,
   itemRef: z.string().trim().max(80, 'their reference is at most 80 characters').default(''),
-  packSize: whole('pack size', 1, 100_000),
+  packSize: measured('pack size', 100_000).positive('pack size must be more than 0'),
   packPriceMinor: minor('price per pack'),
   preferred: z.boolean().default(false),
 });
@@ -85,12 +92,12 @@ export const approveSchema = z.object({
 
 export const receiveLineInput = z.object({
   lineId: idSchema,
-  units: whole('units', 1, 1_000_000),
+  units: measured('units', 1_000_000).positive('units must be more than 0'),
   /** What the pack really cost, when it differs from the order (minor units). */
   packPriceMinor: minor('price paid per pack').optional(),
   locationId: idSchema.nullable().default(null),
   /** How many units of the line the steward's screen showed as already received (guards two at once). */
-  receivedBefore: whole('received before', 0, 10_000_000),
+  receivedBefore: measured('received before', 10_000_000).min(0, 'received before must be at least 0'),
 });
 
 export const orderReceiveSchema = z.object({

@@ -8,6 +8,7 @@ import { formatDate } from '@/lib/format';
 import { ConflictError, ForbiddenError, InvalidError } from '@/lib/errors';
 import { sendMail } from '@/lib/mail/server';
 import { formatMoney } from '@/lib/money';
+import { formatQty } from '@/lib/inventory/measure';
 import { inTransaction } from '@/lib/inventory/tx';
 import { spaceClock } from '@/lib/sales/periods';
 import { budgetFigures } from './budget';
@@ -109,7 +110,7 @@ export async function sendOrder(db: Db, ctx: Ctx, id: string, input: { approvalN
       '',
       ...lines.map(
         (l) =>
-          `- ${l.packs} × pack of ${l.packSize}: ${l.partName}${l.itemRef ? ` (your ref. ${l.itemRef})` : ''} — ${formatMoney(l.lineTotalMinor, currency)}`,
+          `- ${l.packs} × pack of ${formatQty(l.packSize, l.saleUnit)}: ${l.partName}${l.itemRef ? ` (your ref. ${l.itemRef})` : ''} — ${formatMoney(l.lineTotalMinor, currency)}`,
       ),
       '',
       `Total as listed: ${formatMoney(total, currency)} (${currency}).`,

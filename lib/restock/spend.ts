@@ -23,7 +23,7 @@ export async function spendBesideSales(db: Db, ctx: Pick<Ctx, 'spaceId'>, month:
       .selectFrom('sale_lines')
       .innerJoin('sales', 'sales.id', 'sale_lines.sale_id')
       .innerJoin('parts', 'parts.id', 'sale_lines.part_id')
-      .select(['parts.category', sql<number>`sum((sale_lines.qty - sale_lines.refunded_qty) * sale_lines.unit_price_minor)::int`.as('minor')])
+      .select(['parts.category', sql<number>`sum(round((sale_lines.qty - sale_lines.refunded_qty) * sale_lines.unit_price_minor))::int`.as('minor')])
       .where('sales.status', 'in', ['paid', 'partially_refunded', 'refunded'])
       .where('sales.reverses_sale_id', 'is', null)
       .where('sales.paid_at', '>=', from)

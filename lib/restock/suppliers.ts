@@ -6,6 +6,8 @@ import { audit } from '@/lib/audit/log';
 import { hasRole, type Ctx } from '@/lib/auth/roles';
 import { now } from '@/lib/clock';
 import { ConflictError, ForbiddenError, NotFoundError } from '@/lib/errors';
+import { refuseQtyNotInUnit } from '@/lib/inventory/measure-check';
+import type { Measure } from '@/lib/inventory/measure';
 import { assertId, findPart } from '@/lib/inventory/scope';
 import { inTransaction, isUniqueViolation } from '@/lib/inventory/tx';
 import type { offerSchema, supplierPatchSchema, supplierSchema } from './schemas';
@@ -36,6 +38,8 @@ export type OfferRow = {
   partSku: string;
   itemRef: string;
   packSize: number;
+  /** The part's unit: a pack of 25 m, of 250 g, or of 10 items. */
+  saleUnit: Measure;
   packPriceMinor: number;
   preferred: boolean;
 };
@@ -68,6 +72,7 @@ export async function listSuppliers(db: Db, ctx: Ctx): Promise<SupplierRow[]> {
         'supplier_offers.preferred',
         'parts.name as part_name',
         'parts.sku as part_sku',
+        'parts.sale_unit',
       ])
       .orderBy('parts.name')
       .execute(),
@@ -93,6 +98,7 @@ export async function listSuppliers(db: Db, ctx: Ctx): Promise<SupplierRow[]> {
           partSku: o.part_sku,
           itemRef: o.item_ref,
           packSize: o.pack_size,
+          saleUnit: o.sale_unit,
           packPriceMinor: o.pack_price_minor,
           preferred: o.preferred,
         })),
@@ -172,7 +178,9 @@ export async function saveOffer(db: Db, ctx: Ctx, input: z.output<typeof offerSc
   requireBuyer(ctx);
   return inTransaction(db, async (trx) => {
     await findSupplier(trx, ctx, input.supplierId);
-    await findPart(trx, ctx, input.partId);
+    const part = await findPart(trx, ctx, input.partId);
+    // A pack of wire may be 12.5 m; a pack of whole items is a whole number of them.
+    refuseQtyNotInUnit(input.packSize, part.tracking === 'unit' ? 'each' : part.sale_unit, 'packSize', 'pack size');
     if (input.preferred) {
       await scoped(trx, ctx)
         .updateTable('supplier_offers')

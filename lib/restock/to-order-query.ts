@@ -24,7 +24,7 @@ export async function partFigures(db: Db, ctx: Ctx): Promise<PartIn[]> {
     .select((eb) => [
       eb
         .selectFrom('stock')
-        .select(sql<number>`coalesce(sum(stock.qty), 0)::int`.as('n'))
+        .select(sql<number>`coalesce(sum(stock.qty), 0)`.as('n'))
         .whereRef('stock.part_id', '=', 'parts.id')
         .as('stockQty'),
       eb
@@ -44,7 +44,7 @@ export async function partFigures(db: Db, ctx: Ctx): Promise<PartIn[]> {
         .selectFrom('order_lines')
         .innerJoin('order_lists', 'order_lists.id', 'order_lines.order_id')
         .select(
-          sql<number>`coalesce(sum(greatest(order_lines.packs * order_lines.pack_size - order_lines.received_units, 0)), 0)::int`.as('n'),
+          sql<number>`coalesce(sum(greatest(order_lines.packs * order_lines.pack_size - order_lines.received_units, 0)), 0)`.as('n'),
         )
         .whereRef('order_lines.part_id', '=', 'parts.id')
         .where('order_lists.state', 'in', OPEN_STATES)
@@ -52,7 +52,7 @@ export async function partFigures(db: Db, ctx: Ctx): Promise<PartIn[]> {
       eb
         .selectFrom('sale_lines')
         .innerJoin('sales', 'sales.id', 'sale_lines.sale_id')
-        .select(sql<number>`coalesce(sum(sale_lines.qty - sale_lines.refunded_qty), 0)::int`.as('n'))
+        .select(sql<number>`coalesce(sum(sale_lines.qty - sale_lines.refunded_qty), 0)`.as('n'))
         .whereRef('sale_lines.part_id', '=', 'parts.id')
         .where('sales.status', 'in', ['paid', 'partially_refunded'])
         .where('sales.paid_at', '>=', since)

@@ -1,3 +1,5 @@
+import { roundQty } from '@/lib/inventory/measure';
+
 // What to order: a pure function from the shelf's figures and the suppliers' offers to order lines,
 // grouped by supplier. No I/O; lib/restock/to-order-query.ts gathers the figures.
 //
@@ -79,6 +81,8 @@ export const SALES_WINDOW_DAYS = 90;
 
 /** Ceiling of a / b for non-negative integers, without floating point. */
 const ceilDiv = (a: number, b: number) => Math.floor((a + b - 1) / b);
+/** Metres and grams carry up to three decimals (migration 0014): quantities are compared in thousandths. */
+const milli = (x: number) => Math.round(x * 1000);
 
 /** The offer an order uses: the preferred one, else the lowest price per unit (ties: the smaller pack). */
 export function chooseOffer(offers: OfferIn[]): OfferIn | null {
@@ -94,21 +98,21 @@ export function chooseOffer(offers: OfferIn[]): OfferIn | null {
 
 /** Demand over the lead time from the last 90 days' sales, rounded up (see the header). */
 export const leadTimeDemand = (sold90: number, leadDays: number) =>
-  sold90 <= 0 || leadDays <= 0 ? 0 : ceilDiv(sold90 * leadDays, SALES_WINDOW_DAYS);
+  sold90 <= 0 || leadDays <= 0 ? 0 : ceilDiv(milli(sold90) * leadDays, SALES_WINDOW_DAYS * 1000);
 
 export function lineFor(part: PartIn): ToOrderLine | null {
   const offer = chooseOffer(part.offers);
   const leadDays = offer?.leadDays ?? 0;
   const leadDemand = leadTimeDemand(part.sold90, leadDays);
-  const unmetHolds = Math.max(0, part.waitingHolds - part.onHand);
-  const short = part.reorderPoint + leadDemand + unmetHolds - part.onHand - part.onOrder;
+  const unmetHolds = Math.max(0, Math.ceil(roundQty(part.waitingHolds - part.onHand)));
+  const short = roundQty(part.reorderPoint + leadDemand + unmetHolds - part.onHand - part.onOrder);
   if (short <= 0) return null;
   const reasons: Reason[] = [];
   if (part.onHand < part.reorderPoint) reasons.push('below');
   if (unmetHolds > 0) reasons.push('holds');
   if (leadDemand > 0) reasons.push('sales');
   const packSize = offer?.packSize ?? 1;
-  const packs = ceilDiv(short, packSize);
+  const packs = ceilDiv(milli(short), milli(packSize));
   return {
     partId: part.partId,
     name: part.name,
@@ -125,7 +129,7 @@ export function lineFor(part: PartIn): ToOrderLine | null {
     itemRef: offer?.itemRef ?? '',
     packSize,
     packs,
-    units: packs * packSize,
+    units: roundQty(packs * packSize),
     packPriceMinor: offer ? offer.packPriceMinor : null,
     lineTotalMinor: offer ? packs * offer.packPriceMinor : 0,
   };

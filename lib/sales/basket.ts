@@ -3,12 +3,14 @@ import type { Db } from '@/db/connect';
 import { scoped } from '@/db/scoped';
 import type { PartCategory } from '@/db/types';
 import { ConflictError, InvalidError, type FieldErrors } from '@/lib/errors';
+import { formatQty, qtyProblem, roundQty, type Measure } from '@/lib/inventory/measure';
+import { lineAmountMinor } from '@/lib/money';
 
 export type PricedLine = {
   partId: string;
   name: string;
   category: PartCategory;
-  saleUnit: string;
+  saleUnit: Measure;
   qty: number;
   unitPriceMinor: number;
 };
@@ -26,7 +28,7 @@ export async function priceBasket(
   const wanted = new Map<string, { qty: number; index: number }>();
   lines.forEach((l, index) => {
     const seen = wanted.get(l.partId);
-    wanted.set(l.partId, { qty: (seen?.qty ?? 0) + l.qty, index: seen?.index ?? index });
+    wanted.set(l.partId, { qty: roundQty((seen?.qty ?? 0) + l.qty), index: seen?.index ?? index });
   });
   const ids = [...wanted.keys()];
   const parts = await scoped(db, { spaceId })
@@ -35,7 +37,7 @@ export async function priceBasket(
     .select((eb) =>
       eb
         .selectFrom('stock')
-        .select(sql<number>`coalesce(sum(stock.qty), 0)::int`.as('q'))
+        .select(sql<number>`coalesce(sum(stock.qty), 0)`.as('q'))
         .whereRef('stock.part_id', '=', 'parts.id')
         .as('on_shelf'),
     )
@@ -58,10 +60,14 @@ export async function priceBasket(
       invalid[`lines.${index}.partId`] = [`${p.name} is not for sale at the counter.`];
       continue;
     }
+    // Metres and grams may be fractions; a part sold as whole items refuses 1.5 (migration 0014).
+    const problem = qtyProblem(qty, p.sale_unit);
+    if (problem) {
+      invalid[`lines.${index}.qty`] = [`The quantity of ${p.name} ${problem}.`];
+      continue;
+    }
     if (qty > (p.on_shelf ?? 0)) {
-      short[`lines.${index}.qty`] = [
-        `Only ${p.on_shelf ?? 0} ${p.sale_unit === 'each' ? 'left' : `${p.sale_unit}s left`} on the shelf.`,
-      ];
+      short[`lines.${index}.qty`] = [`Only ${formatQty(p.on_shelf ?? 0, p.sale_unit)} left on the shelf.`];
       continue;
     }
     priced.push({
@@ -79,5 +85,6 @@ export async function priceBasket(
   return priced;
 }
 
+/** Each line is round(qty × unit price), half away from zero (lib/money.ts lineAmountMinor); the total is their sum. */
 export const basketTotal = (lines: { qty: number; unitPriceMinor: number }[]) =>
-  lines.reduce((sum, l) => sum + l.qty * l.unitPriceMinor, 0);
+  lines.reduce((sum, l) => sum + lineAmountMinor(l.qty, l.unitPriceMinor), 0);

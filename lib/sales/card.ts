@@ -116,7 +116,7 @@ export async function startCardSale(
         spaceId: ctx.spaceId,
         currency: sale.currency,
         lines: [
-          ...lines.map((l) => ({ name: l.name, qty: l.qty, unitPriceMinor: l.unitPriceMinor })),
+          ...lines.map((l) => ({ name: l.name, qty: l.qty, unitPriceMinor: l.unitPriceMinor, saleUnit: l.saleUnit })),
           ...(taxLine ? [taxLine] : []),
         ],
         appBaseUrl: deps.appBaseUrl,

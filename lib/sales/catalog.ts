@@ -2,7 +2,7 @@ import 'server-only';
 import { sql } from 'kysely';
 import type { Db } from '@/db/connect';
 import { scoped } from '@/db/scoped';
-import type { PartCategory } from '@/db/types';
+import type { Measure, PartCategory } from '@/db/types';
 
 export type CatalogItem = {
   id: string;
@@ -10,7 +10,7 @@ export type CatalogItem = {
   sku: string;
   code: string | null;
   category: PartCategory;
-  saleUnit: string;
+  saleUnit: Measure;
   priceMinor: number;
   onShelf: number;
 };
@@ -29,7 +29,7 @@ export async function sellableCatalog(db: Db, spaceId: string): Promise<CatalogI
       'parts.sale_unit',
       'parts.price_minor',
     ])
-    .select(sql<number>`coalesce(sum(stock.qty), 0)::int`.as('on_shelf'))
+    .select(sql<number>`coalesce(sum(stock.qty), 0)`.as('on_shelf'))
     .where('parts.space_id', '=', spaceId)
     .where('parts.sellable', '=', true)
     .where('parts.tracking', '=', 'counted')

@@ -1,7 +1,7 @@
 import 'server-only';
 import type { Db } from '@/db/connect';
 import { scoped } from '@/db/scoped';
-import type { SaleStatus, TaxMode } from '@/db/types';
+import type { Measure, SaleStatus, TaxMode } from '@/db/types';
 import { moneyRules } from '@/lib/money-rules/settings';
 import type { Ctx } from '@/lib/auth/roles';
 import { saleFor } from './access';
@@ -37,6 +37,7 @@ export type SaleView = {
     name: string;
     qty: number;
     unitPriceMinor: number;
+    saleUnit: Measure;
     refundedQty: number;
     leftQty: number;
   }[];
@@ -108,6 +109,7 @@ export async function saleView(db: Db, ctx: Ctx, saleId: string): Promise<SaleVi
       name: names.find((n) => n.id === l.id)?.name ?? 'Part',
       qty: l.qty,
       unitPriceMinor: l.unit_price_minor,
+      saleUnit: l.sale_unit,
       refundedQty: l.refunded,
       leftQty: l.left,
     })),

@@ -7,6 +7,8 @@ import { hasRole, type Ctx } from '@/lib/auth/roles';
 import { audit } from '@/lib/audit/log';
 import { now } from '@/lib/clock';
 import { ConflictError, ForbiddenError, InvalidError, type FieldErrors } from '@/lib/errors';
+import { qtyProblem, roundQty, type Measure } from '@/lib/inventory/measure';
+import { lineAmountMinor } from '@/lib/money';
 import { saleFor } from './access';
 import { isClosedAt } from './periods';
 import { processorError } from './processor-errors';
@@ -22,6 +24,7 @@ type LineState = {
   location_id: string | null;
   qty: number;
   unit_price_minor: number;
+  sale_unit: Measure;
   refunded: number;
   left: number;
 };
@@ -58,18 +61,26 @@ export async function refundState(db: Db, sale: TaxedSale): Promise<RefundState>
   const refunds = await refundsOfSale(db, sale).select(['amount_minor', 'lines', 'tax_minor']).execute();
   const perLine = new Map<string, number>();
   for (const r of refunds)
-    for (const l of r.lines) perLine.set(l.saleLineId, (perLine.get(l.saleLineId) ?? 0) + l.qty);
+    for (const l of r.lines) perLine.set(l.saleLineId, roundQty((perLine.get(l.saleLineId) ?? 0) + l.qty));
   const refundedMinor = refunds.reduce((s, r) => s + r.amount_minor, 0);
   const lines = await scoped(db, { spaceId: sale.space_id })
     .selectFrom('sale_lines')
-    .select(['id', 'part_id', 'location_id', 'qty', 'unit_price_minor'])
-    .where('sale_id', '=', sale.id)
-    .orderBy('id')
+    .innerJoin('parts', 'parts.id', 'sale_lines.part_id')
+    .select([
+      'sale_lines.id',
+      'sale_lines.part_id',
+      'sale_lines.location_id',
+      'sale_lines.qty',
+      'sale_lines.unit_price_minor',
+      'parts.sale_unit',
+    ])
+    .where('sale_lines.sale_id', '=', sale.id)
+    .orderBy('sale_lines.id')
     .execute();
   return {
     lines: lines.map((l) => {
       const refunded = Math.min(l.qty, perLine.get(l.id) ?? 0);
-      return { ...l, refunded, left: l.qty - refunded };
+      return { ...l, refunded, left: roundQty(l.qty - refunded) };
     }),
     refundedMinor,
     leftMinor: Math.max(0, sale.total_minor - refundedMinor),
@@ -93,11 +104,13 @@ export function planRefund(
   } else {
     const asked = new Map<string, { qty: number; index: number }>();
     lines.forEach((l, index) =>
-      asked.set(l.saleLineId, { qty: (asked.get(l.saleLineId)?.qty ?? 0) + l.qty, index }),
+      asked.set(l.saleLineId, { qty: roundQty((asked.get(l.saleLineId)?.qty ?? 0) + l.qty), index }),
     );
     for (const [saleLineId, { qty, index }] of asked) {
       const line = state.lines.find((l) => l.id === saleLineId);
+      const problem = line ? qtyProblem(qty, line.sale_unit) : null;
       if (!line) fields[`lines.${index}.saleLineId`] = ['Not a line of this sale.'];
+      else if (problem) fields[`lines.${index}.qty`] = [`The quantity ${problem}.`];
       else if (qty > line.left)
         fields[`lines.${index}.qty`] = [`Only ${line.left} left to refund on this line.`];
       else planned.push({ saleLineId, qty });
@@ -105,7 +118,8 @@ export function planRefund(
   }
   if (Object.keys(fields).length) throw new InvalidError(`Check ${Object.keys(fields).join(', ')}.`, fields);
   const byLine = new Map(state.lines.map((l) => [l.id, l]));
-  const linesMinor = planned.reduce((s, p) => s + p.qty * byLine.get(p.saleLineId)!.unit_price_minor, 0);
+  // Each line's share is round(qty × unit price), half away from zero, as when it was sold.
+  const linesMinor = planned.reduce((s, p) => s + lineAmountMinor(p.qty, byLine.get(p.saleLineId)!.unit_price_minor), 0);
   // Lines at shelf prices, plus the tax when it was added at the total (the sale's own rule). When the
   // plan takes back every line still out, it is all the money left, so per-sale rounding leaves no cent.
   const takesAll = state.lines.every(

@@ -5,9 +5,18 @@ import { z } from 'zod';
 
 export const MAX_BASKET_LINES = 40;
 
+// Metres and grams may be fractions (three decimals at most, migration 0014); a part sold as whole
+// items refuses one in the service (lib/sales/basket.ts), naming the same field.
+const saleQty = (max: number) =>
+  z
+    .number({ error: 'A number, please.' })
+    .multipleOf(0.001, 'At most 3 decimals.')
+    .positive('More than 0.')
+    .max(max, `At most ${max} at once.`);
+
 export const saleLineInput = z.object({
   partId: z.uuid('Choose an item from the list.'),
-  qty: z.number().int('Whole numbers only.').min(1, 'At least 1.').max(999, 'At most 999 at once.'),
+  qty: saleQty(999),
 });
 
 export const startSaleInput = z.object({
@@ -29,7 +38,7 @@ export const refundInput = z.object({
     .array(
       z.object({
         saleLineId: z.uuid('Unknown line.'),
-        qty: z.number().int('Whole numbers only.').min(1, 'At least 1.').max(10_000, 'At most 10000.'),
+        qty: saleQty(10_000),
       }),
     )
     .min(1, 'Choose at least one line.')

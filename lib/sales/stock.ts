@@ -1,6 +1,7 @@
 import { sql } from 'kysely';
 import type { Db } from '@/db/connect';
 import { scoped } from '@/db/scoped';
+import { roundQty } from '@/lib/inventory/measure';
 
 export type Shortfall = { partId: string; saleLineId: string; wanted: number; taken: number };
 
@@ -41,8 +42,8 @@ export async function takeStock(
     let remaining = line.qty;
     let firstBin: string | null = null;
     for (const bin of bins) {
-      if (remaining === 0) break;
-      const take = Math.min(bin.qty, remaining);
+      if (remaining <= 0) break;
+      const take = roundQty(Math.min(bin.qty, remaining));
       await scoped(trx, { spaceId: input.spaceId })
         .updateTable('stock')
         .set({ qty: sql`qty - ${take}`, updated_at: sql`now()` })
@@ -65,18 +66,19 @@ export async function takeStock(
         })
         .execute();
       firstBin ??= bin.location_id;
-      remaining -= take;
+      // Metres and grams are fractions: kept to three decimals so 0.1 + 0.2 leaves nothing behind.
+      remaining = roundQty(remaining - take);
     }
     if (firstBin)
       await scoped(trx, { spaceId: input.spaceId }).updateTable('sale_lines').set({ location_id: firstBin }).where('id', '=', line.id).execute();
     if (remaining > 0) {
       if (!input.allowShort)
-        return [{ partId: line.part_id, saleLineId: line.id, wanted: line.qty, taken: line.qty - remaining }];
+        return [{ partId: line.part_id, saleLineId: line.id, wanted: line.qty, taken: roundQty(line.qty - remaining) }];
       short.push({
         partId: line.part_id,
         saleLineId: line.id,
         wanted: line.qty,
-        taken: line.qty - remaining,
+        taken: roundQty(line.qty - remaining),
       });
     }
   }

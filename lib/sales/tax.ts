@@ -1,4 +1,5 @@
 import type { TaxMode } from '@/lib/domain';
+import { divRoundHalfUp } from '@/lib/money';
 
 // Tax on a sale, in integer minor units (ISO 4217 minor units of the sale's currency). Pure.
 //
@@ -16,10 +17,7 @@ export type TaxedTotal = { linesMinor: number; taxMinor: number; totalMinor: num
 
 export const EXEMPT: TaxRule = { mode: 'exempt', rateBp: 0 };
 
-/** round(a / b) half away from zero, for a ≥ 0 and b > 0, exact in integers. */
-export function divRoundHalfUp(a: bigint, b: bigint): bigint {
-  return (2n * a + b) / (2n * b);
-}
+export { divRoundHalfUp };
 
 /** The tax and the amount to pay for a sale whose lines sum to `linesMinor`. */
 export function taxSale(linesMinor: number, rule: TaxRule): TaxedTotal {

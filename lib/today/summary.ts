@@ -3,6 +3,7 @@ import { sql } from 'kysely';
 import type { Db } from '@/db/connect';
 import { scoped } from '@/db/scoped';
 import { hasRole, type Ctx } from '@/lib/auth/roles';
+import type { Measure } from '@/lib/domain';
 import { now } from '@/lib/clock';
 import { boxesOutOfService, type OutOfServiceBox } from '@/lib/kits/upkeep';
 import { budgetFigures, type BudgetFigures } from '@/lib/restock/budget';
@@ -13,7 +14,7 @@ export type TodaySummary = {
   myLoans: { id: string; name: string; dueAt: Date; overdue: boolean }[];
   steward?: {
     overdue: number;
-    belowReorder: { id: string; name: string; qty: number; reorderPoint: number }[];
+    belowReorder: { id: string; name: string; qty: number; reorderPoint: number; saleUnit: Measure }[];
     inRepair: number;
     /** Kit boxes out of service (in repair), each with what it lacks and its last short return. */
     boxesOut: OutOfServiceBox[];
@@ -72,8 +73,8 @@ export async function todaySummary(db: Db, ctx: Ctx): Promise<TodaySummary> {
     const belowReorder = await scoped(db, ctx)
       .selectFrom('parts')
       .leftJoin('stock', 'stock.part_id', 'parts.id')
-      .select(['parts.id', 'parts.name', 'parts.reorder_point'])
-      .select(sql<number>`coalesce(sum(stock.qty), 0)::int`.as('qty'))
+      .select(['parts.id', 'parts.name', 'parts.reorder_point', 'parts.sale_unit'])
+      .select(sql<number>`coalesce(sum(stock.qty), 0)`.as('qty'))
       .where('parts.space_id', '=', ctx.spaceId)
       .where('parts.tracking', '=', 'counted')
       .where('parts.archived_at', 'is', null)
@@ -91,7 +92,13 @@ export async function todaySummary(db: Db, ctx: Ctx): Promise<TodaySummary> {
       .executeTakeFirstOrThrow();
     summary.steward = {
       overdue: overdue.n,
-      belowReorder: belowReorder.map((p) => ({ id: p.id, name: p.name, qty: p.qty, reorderPoint: p.reorder_point })),
+      belowReorder: belowReorder.map((p) => ({
+        id: p.id,
+        name: p.name,
+        qty: p.qty,
+        reorderPoint: p.reorder_point,
+        saleUnit: p.sale_unit,
+      })),
       inRepair: repair.n,
       boxesOut: await boxesOutOfService(db, ctx),
       toOrder: (await whatToOrder(db, ctx)).lineCount,

@@ -1,4 +1,5 @@
 import Link from 'next/link';
+import { formatQty } from '@/lib/inventory/measure';
 import { db } from '@/db';
 import { requirePageRole } from '@/lib/auth/guard';
 import { hasRole } from '@/lib/auth/roles';
@@ -87,12 +88,14 @@ export default async function RestockPage() {
                       {l.name}
                     </Link>
                     <span>
-                      {l.packs} × pack of {l.packSize} = {l.units}
+                      {l.packs} × pack of {formatQty(l.packSize, l.saleUnit)} = {formatQty(l.units, l.saleUnit)}
                       {l.packPriceMinor !== null ? ` · ${money(l.lineTotalMinor)}` : ''}
                     </span>
                   </div>
                   <p className="muted">
-                    {l.onHand} on hand{l.onOrder ? `, ${l.onOrder} on order` : ''}, reorder at {l.reorderPoint}
+                    {formatQty(l.onHand, l.saleUnit)} on hand
+                    {l.onOrder ? `, ${formatQty(l.onOrder, l.saleUnit)} on order` : ''}, reorder at{' '}
+                    {formatQty(l.reorderPoint, l.saleUnit)}
                     {l.leadDemand ? `, about ${l.leadDemand} sold over the lead time` : ''}
                     {l.unmetHolds ? `, ${l.unmetHolds} more wanted by members waiting` : ''} — {l.reasons.map((r) => REASON_WORDS[r]).join('; ')}
                   </p>

@@ -1,4 +1,5 @@
 import Link from 'next/link';
+import { formatQty } from '@/lib/inventory/measure';
 import { db } from '@/db';
 import { requirePageUser } from '@/lib/auth/guard';
 import { todaySummary } from '@/lib/today/summary';
@@ -100,7 +101,8 @@ export default async function TodayPage() {
             <ul className="mt-3 text-sm">
               {s.steward.belowReorder.slice(0, 6).map((p) => (
                 <li key={p.id}>
-                  <Link href={`/shelf/parts/${p.id}`}>{p.name}</Link>: {p.qty} left (reorder at {p.reorderPoint})
+                  <Link href={`/shelf/parts/${p.id}`}>{p.name}</Link>: {formatQty(p.qty, p.saleUnit)} left (reorder at{' '}
+                  {formatQty(p.reorderPoint, p.saleUnit)})
                 </li>
               ))}
             </ul>

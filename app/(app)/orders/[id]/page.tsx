@@ -13,6 +13,7 @@ import { spaceClock } from '@/lib/sales/periods';
 import { PageTitle } from '@/components/ui/page-title';
 import { notFoundUnlessFound } from '@/components/shelf/not-found';
 import { OrderWork } from '@/components/restock/order-work';
+import { formatQty } from '@/lib/inventory/measure';
 
 export const metadata = { title: 'Order list' };
 
@@ -54,8 +55,9 @@ export default async function OrderPage({ params }: { params: Promise<{ id: stri
                 <span>{money(l.lineTotalMinor)}</span>
               </div>
               <p className="muted">
-                {l.packs} × pack of {l.packSize} at {money(l.packPriceMinor)}
-                {l.itemRef ? ` · their ref. ${l.itemRef}` : ''} · {l.receivedUnits} of {l.orderedUnits} arrived
+                {l.packs} × pack of {formatQty(l.packSize, l.saleUnit)} at {money(l.packPriceMinor)}
+                {l.itemRef ? ` · their ref. ${l.itemRef}` : ''} · {formatQty(l.receivedUnits, l.saleUnit)} of{' '}
+                {formatQty(l.orderedUnits, l.saleUnit)} arrived
               </p>
             </li>
           ))}
@@ -66,7 +68,7 @@ export default async function OrderPage({ params }: { params: Promise<{ id: stri
             <ul className="text-sm">
               {order.receipts.map((r) => (
                 <li key={r.id}>
-                  {formatDateTime(r.receivedAt, timeZone)}: {r.units} units, {money(r.costMinor)}
+                  {formatDateTime(r.receivedAt, timeZone)}: {formatQty(r.units)} {r.units === 1 ? 'unit' : 'units'}, {money(r.costMinor)}
                   {r.by ? ` (${r.by})` : ''}
                 </li>
               ))}
@@ -83,6 +85,7 @@ export default async function OrderPage({ params }: { params: Promise<{ id: stri
           partId: l.partId,
           partName: l.partName,
           tracking: l.tracking,
+          saleUnit: l.saleUnit,
           packSize: l.packSize,
           packs: l.packs,
           orderedUnits: l.orderedUnits,

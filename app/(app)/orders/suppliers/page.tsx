@@ -1,4 +1,5 @@
 import Link from 'next/link';
+import { formatQty } from '@/lib/inventory/measure';
 import { db } from '@/db';
 import { requirePageRole } from '@/lib/auth/guard';
 import { countOf } from '@/lib/format';
@@ -48,7 +49,7 @@ export default async function SuppliersPage() {
                 <li key={o.id} className="flex flex-wrap items-center justify-between gap-2 py-2 text-sm">
                   <span className="min-w-0 break-words">
                     <Link href={`/shelf/parts/${o.partId}`}>{o.partName}</Link>
-                    {o.itemRef ? ` · ${o.itemRef}` : ''} · pack of {o.packSize} at {money(o.packPriceMinor)}
+                    {o.itemRef ? ` · ${o.itemRef}` : ''} · pack of {formatQty(o.packSize, o.saleUnit)} at {money(o.packPriceMinor)}
                     {o.preferred ? <strong> · ordered from here</strong> : null}
                   </span>
                   <RemoveOffer offerId={o.id} label={`Remove the offer for ${o.partName}`} />
