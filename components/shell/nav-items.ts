@@ -33,13 +33,18 @@ const PHONE_ORDER = [
   '/shelf',
   '/orders',
   '/kits',
+  '/signoffs',
   '/bench-check',
   '/settings',
 ];
 export const PHONE_BAR_SIZE = 4;
 
+// A section the order does not name ranks after every named one (indexOf's -1 once put Sign-offs first).
+const rank = (href: string) => {
+  const i = PHONE_ORDER.indexOf(href);
+  return i === -1 ? PHONE_ORDER.length : i;
+};
+
 export function phoneBar(items: NavItem[]): NavItem[] {
-  return [...items]
-    .sort((a, b) => PHONE_ORDER.indexOf(a.href) - PHONE_ORDER.indexOf(b.href))
-    .slice(0, PHONE_BAR_SIZE);
+  return [...items].sort((a, b) => rank(a.href) - rank(b.href)).slice(0, PHONE_BAR_SIZE);
 }
