@@ -39,6 +39,8 @@ export function BorrowingRulesForm({
   const [rules, setRules] = useState<BorrowingRules>(initial);
   const [newDate, setNewDate] = useState('');
   const [owingText, setOwingText] = useState(amountText(initial.refuseWhenOwingOverMinor, currency));
+  const [lateDayText, setLateDayText] = useState(amountText(initial.lateFee?.perOpeningDayMinor ?? null, currency));
+  const [lateCapText, setLateCapText] = useState(amountText(initial.lateFee?.capMinor ?? null, currency));
   const [fields, setFields] = useState<Record<string, string[]>>({});
   const [note, setNote] = useState<{ kind: 'ok' | 'error'; text: string } | null>(null);
   const [saving, setSaving] = useState(false);
@@ -62,11 +64,26 @@ export function BorrowingRulesForm({
         setNote({ kind: 'error', text: 'Check the amount a member may owe.' });
         return;
       }
+      // Late fee: both amounts, or neither (off).
+      const lateOff = lateDayText.trim() === '' && lateCapText.trim() === '';
+      const perDay = lateOff ? null : parseMoney(lateDayText, currency);
+      const cap = lateOff ? null : parseMoney(lateCapText, currency);
+      if (!lateOff && (perDay === null || cap === null)) {
+        setFields({
+          ...(perDay === null ? { 'lateFee.perOpeningDayMinor': [`an amount in ${currency}, e.g. ${amountText(100, currency)}`] } : {}),
+          ...(cap === null ? { 'lateFee.capMinor': [`an amount in ${currency}, e.g. ${amountText(1000, currency)}`] } : {}),
+        });
+        setNote({ kind: 'error', text: 'Give both late-fee amounts, or leave both empty for no late fee.' });
+        return;
+      }
       const { rules: saved } = await sendJson<{ rules: BorrowingRules }>('/api/settings/borrowing', 'PATCH', {
         ...rules,
         refuseWhenOwingOverMinor: owing,
+        lateFee: perDay !== null && cap !== null ? { perOpeningDayMinor: perDay, capMinor: cap } : null,
       });
       setOwingText(amountText(saved.refuseWhenOwingOverMinor, currency));
+      setLateDayText(amountText(saved.lateFee?.perOpeningDayMinor ?? null, currency));
+      setLateCapText(amountText(saved.lateFee?.capMinor ?? null, currency));
       setRules(saved);
       setNote({ kind: 'ok', text: 'Borrowing rules saved.' });
       router.refresh();
@@ -113,6 +130,35 @@ export function BorrowingRulesForm({
           {fieldError('refuseWhenOwingOverMinor') ? (
             <p className="text-sm text-red-800 dark:text-red-300">{fieldError('refuseWhenOwingOverMinor')}</p>
           ) : null}
+        </div>
+        <div className="space-y-1">
+          <p className="label">Late fee ({currency}; both empty: no late fee)</p>
+          <div className="flex flex-wrap gap-3">
+            <label className="space-y-1">
+              <span className="block text-sm">Per opening day late</span>
+              <input
+                inputMode="decimal"
+                className="field max-w-32"
+                value={lateDayText}
+                onChange={(e) => setLateDayText(e.target.value)}
+                aria-invalid={fieldError('lateFee.perOpeningDayMinor') ? true : undefined}
+              />
+            </label>
+            <label className="space-y-1">
+              <span className="block text-sm">Never more than</span>
+              <input
+                inputMode="decimal"
+                className="field max-w-32"
+                value={lateCapText}
+                onChange={(e) => setLateCapText(e.target.value)}
+                aria-invalid={fieldError('lateFee.capMinor') ? true : undefined}
+              />
+            </label>
+          </div>
+          <p className="muted text-sm">
+            Charged once when a late return is checked in: only the days the space was open count.
+          </p>
+          {fieldError('lateFee') ? <p className="text-sm text-red-800 dark:text-red-300">{fieldError('lateFee')}</p> : null}
         </div>
         <div role="radiogroup" aria-labelledby={`${ids}-presence`} className="space-y-2">
           <p id={`${ids}-presence`} className="label">

@@ -65,6 +65,26 @@ export const borrowingRulesSchema = z
       .min(0, 'refuseWhenOwingOverMinor: 0 or more')
       .max(99_999_999, 'refuseWhenOwingOverMinor: at most 99999999')
       .nullable(),
+    /**
+     * A late fee where the space wants one (null: off, the default): so much per opening day late, never
+     * more than the cap, in the space's currency (ISO 4217 minor units). Raised once when a late return
+     * is confirmed (lib/charges/late-fee.ts).
+     */
+    lateFee: z
+      .object({
+        perOpeningDayMinor: z
+          .number({ error: 'lateFee.perOpeningDayMinor: a whole number of minor units' })
+          .int('lateFee.perOpeningDayMinor: a whole number of minor units')
+          .min(1, 'lateFee.perOpeningDayMinor: at least 1')
+          .max(99_999_999, 'lateFee.perOpeningDayMinor: at most 99999999'),
+        capMinor: z
+          .number({ error: 'lateFee.capMinor: a whole number of minor units' })
+          .int('lateFee.capMinor: a whole number of minor units')
+          .min(1, 'lateFee.capMinor: at least 1')
+          .max(99_999_999, 'lateFee.capMinor: at most 99999999'),
+      })
+      .strict()
+      .nullable(),
     /** The scheduled sweep leaves a member alone this long after any reminder, by hand or scheduled. */
     reminderPauseHours: z
       .number({ error: 'reminderPauseHours: a whole number of hours' })
@@ -87,6 +107,7 @@ export type BorrowingRulesInput = z.input<typeof borrowingRulesSchema>;
 export const DEFAULT_RULES: BorrowingRules = {
   refuseWhileOverdue: true,
   refuseWhenOwingOverMinor: null,
+  lateFee: null,
   reminderPauseHours: 12,
   presence: 'self_service',
   week: null,
