@@ -1,5 +1,7 @@
 import { z } from 'zod';
 import { isRealDay } from '@/lib/inductions/schemas';
+import type { PartCategory } from '@/lib/domain';
+import { CATEGORIES } from '@/lib/inventory/words';
 
 // The rules a space sets for who may borrow, and when things fall due. Kept in `spaces.settings.borrowing`
 // (one JSON object), read with defaults so a space that never saved them lends as before.
@@ -51,6 +53,13 @@ export const PRESENCE_NAMES: Record<Presence, string> = {
 
 export const MAX_CLOSED_DATES = 400;
 
+const categoryDeposit = (c: string) =>
+  z
+    .number({ error: `categoryDepositsMinor.${c}: a whole number of minor units` })
+    .int(`categoryDepositsMinor.${c}: a whole number of minor units`)
+    .min(1, `categoryDepositsMinor.${c}: at least 1`)
+    .max(99_999_999, `categoryDepositsMinor.${c}: at most 99999999`);
+
 export const borrowingRulesSchema = z
   .object({
     /** No new loan while one of the member's loans is past its due date. */
@@ -85,6 +94,19 @@ export const borrowingRulesSchema = z
       })
       .strict()
       .nullable(),
+    /**
+     * Deposits on loose parts: an amount per part category (ISO 4217 minor units), taken when a loose
+     * borrow includes parts of that category — once per category, summed over the categories in the loan.
+     * A kit box's deposit is its template's alone.
+     */
+    categoryDepositsMinor: z
+      .object(
+        Object.fromEntries(CATEGORIES.map((c) => [c, categoryDeposit(c).optional()])) as Record<
+          PartCategory,
+          z.ZodOptional<ReturnType<typeof categoryDeposit>>
+        >,
+      )
+      .strict(),
     /** The scheduled sweep leaves a member alone this long after any reminder, by hand or scheduled. */
     reminderPauseHours: z
       .number({ error: 'reminderPauseHours: a whole number of hours' })
@@ -108,6 +130,7 @@ export const DEFAULT_RULES: BorrowingRules = {
   refuseWhileOverdue: true,
   refuseWhenOwingOverMinor: null,
   lateFee: null,
+  categoryDepositsMinor: {},
   reminderPauseHours: 12,
   presence: 'self_service',
   week: null,

@@ -274,20 +274,16 @@ describe('a deposit release the processor did not take', () => {
     const t = await steward.post('/api/kits/templates', {
       name: 'Retry test lamp',
       depositMinor: 4000,
-      lines: [
-        { partId: parts.supply24.id, qty: 1, chainRole: 'supply' },
-        { partId: parts.driver.id, qty: 1, chainRole: 'driver' },
-      ],
+      lines: [{ partId: parts.meter.id, qty: 1 }],
     });
     expect(t.status).toBe(201);
     const templateId = (await json<{ template: { id: string } }>(t)).template.id;
-    await makeUnit(db, fx.space.id, parts.supply24.id, fx.bin.id);
-    await makeUnit(db, fx.space.id, parts.driver.id, fx.bin.id);
+    await makeUnit(db, fx.space.id, parts.meter.id, fx.bin.id);
     const box = await steward.post('/api/kits/boxes', { templateId });
     expect(box.status).toBe(201);
     const boxId = (await json<{ box: { id: string } }>(box)).box.id;
     const borrowed = await alice.post('/api/loans', { kitBoxId: boxId });
-    expect(borrowed.status).toBe(201);
+    expect(borrowed.status, await borrowed.clone().text()).toBe(201);
     const loanId = (await json<{ loan: { id: string } }>(borrowed)).loan.id;
     const deposit = () => db.selectFrom('deposits').selectAll().where('loan_id', '=', loanId).executeTakeFirstOrThrow();
     expect((await payOnFake(fake, (await deposit()).checkout_session_id!)).status).toBe(200);
@@ -327,5 +323,34 @@ describe('a deposit release the processor did not take', () => {
     expect(refunds.data.map((r) => r.amount)).toEqual([4000]);
     expect(d.refund_id).toBe(refunds.data[0].id);
     expect(await auditOf('deposit.released', loanId)).toHaveLength(1);
+  });
+});
+
+describe('deposits on part categories', () => {
+  test('a loose borrow with parts of a category that asks for a deposit waits for it; other parts do not', async () => {
+    const set = await admin.post('/api/settings/borrowing', { categoryDepositsMinor: { meter: 2500, wire: 300 } }, 'PATCH');
+    expect(set.status).toBe(200);
+    const bad = await admin.post('/api/settings/borrowing', { categoryDepositsMinor: { meter: 0 } }, 'PATCH');
+    expect(bad.status).toBe(400);
+    expect((await json<ErrorBody>(bad)).error.fields).toHaveProperty(['categoryDepositsMinor.meter']);
+    try {
+      const meter = await makeUnit(db, fx.space.id, parts.meter.id, fx.bin.id);
+      const res = await bruno.post('/api/loans', { unitIds: [meter.id] });
+      expect(res.status).toBe(201);
+      const { loan } = await json<{ loan: { id: string; status: string; deposit: { url: string; amountMinor: number } | null } }>(res);
+      expect(loan.status).toBe('waiting');
+      expect(loan.deposit).toMatchObject({ amountMinor: 2500 });
+      const d = await db.selectFrom('deposits').selectAll().where('loan_id', '=', loan.id).executeTakeFirstOrThrow();
+      expect((await payOnFake(fake, d.checkout_session_id!)).status).toBe(200);
+      await waitFor('the loan to start', async () => (await db.selectFrom('loans').select('status').where('id', '=', loan.id).executeTakeFirstOrThrow()).status === 'out');
+
+      // A supply (no deposit on its category) is lent at once.
+      const supply = await makeUnit(db, fx.space.id, parts.supply24.id, fx.bin.id);
+      const plain = await bruno.post('/api/loans', { unitIds: [supply.id] });
+      expect(plain.status).toBe(201);
+      expect((await json<{ loan: { status: string; deposit: unknown } }>(plain)).loan).toMatchObject({ status: 'out', deposit: null });
+    } finally {
+      await admin.post('/api/settings/borrowing', { categoryDepositsMinor: {} }, 'PATCH');
+    }
   });
 });
