@@ -37,10 +37,16 @@ export async function up(db: Kysely<unknown>): Promise<void> {
 
   await sql`alter table charges drop constraint if exists charges_kind_check`.execute(db);
   await sql`alter table charges add constraint charges_kind_check check (kind in ('missing','damaged','late'))`.execute(db);
+  // The scheduled retry looks for releases left pending (lib/deposits/jobs.ts), and the Books' month for the
+  // deposits whose split was fixed in it (lib/charges/month.ts).
+  await sql`create index deposits_release_pending_idx on deposits (release_started_at) where status = 'releasing'`.execute(db);
+  await sql`create index deposits_space_release_started_idx on deposits (space_id, release_started_at)`.execute(db);
   await sql`create unique index charges_one_late_fee_uq on charges (space_id, loan_id) where kind = 'late'`.execute(db);
 }
 
 export async function down(db: Kysely<unknown>): Promise<void> {
+  await sql`drop index if exists deposits_space_release_started_idx`.execute(db);
+  await sql`drop index if exists deposits_release_pending_idx`.execute(db);
   await sql`drop index if exists charges_one_late_fee_uq`.execute(db);
   await sql`delete from charges where kind = 'late'`.execute(db);
   await sql`alter table charges drop constraint if exists charges_kind_check`.execute(db);
