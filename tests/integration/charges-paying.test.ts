@@ -301,6 +301,9 @@ describe('a deposit release the processor did not take', () => {
     expect((await deposit()).status).toBe('releasing');
     const page = await (await steward.get(`/loans/${loanId}`)).text();
     expect(page).toContain('release pending');
+    const today = await (await steward.get('/today')).text();
+    expect(today).toContain('Deposits waiting to go back');
+    expect(today).toContain(`href="/loans/${loanId}"`);
 
     // The retry while the processor is still down: nothing changes, it is counted as still pending.
     const tooSoon = await runDepositReleaseRetry(db, () => stripeOn(down), { now: new Date(), spaceIds: [fx.space.id], graceMs: 0 });
