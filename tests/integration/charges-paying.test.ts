@@ -338,6 +338,10 @@ describe('deposits on part categories', () => {
     expect((await json<ErrorBody>(bad)).error.fields).toHaveProperty(['categoryDepositsMinor.meter']);
     try {
       const meter = await makeUnit(db, fx.space.id, parts.meter.id, fx.bin.id);
+      // The check before borrowing says so.
+      const preview = await bruno.post('/api/loans/preview', { unitIds: [meter.id] });
+      expect(preview.status).toBe(200);
+      expect((await json<{ preview: { deposit: unknown } }>(preview)).preview.deposit).toEqual({ amountMinor: 2500, currency: 'USD' });
       const res = await bruno.post('/api/loans', { unitIds: [meter.id] });
       expect(res.status).toBe(201);
       const { loan } = await json<{ loan: { id: string; status: string; deposit: { url: string; amountMinor: number } | null } }>(res);
@@ -349,6 +353,8 @@ describe('deposits on part categories', () => {
 
       // A supply (no deposit on its category) is lent at once.
       const supply = await makeUnit(db, fx.space.id, parts.supply24.id, fx.bin.id);
+      const quiet = await json<{ preview: { deposit: unknown } }>(await bruno.post('/api/loans/preview', { unitIds: [supply.id] }));
+      expect(quiet.preview.deposit).toBeNull();
       const plain = await bruno.post('/api/loans', { unitIds: [supply.id] });
       expect(plain.status).toBe(201);
       expect((await json<{ loan: { status: string; deposit: unknown } }>(plain)).loan).toMatchObject({ status: 'out', deposit: null });
