@@ -44,6 +44,7 @@ export const SPACE_TABLES = [
   'order_receipt_lines',
   'honour_box_counts',
   'honour_box_bankings',
+  'charge_payments',
 ] as const satisfies readonly (keyof Database)[];
 
 export type SpaceTable = (typeof SPACE_TABLES)[number];

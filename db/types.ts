@@ -483,6 +483,8 @@ export interface Database {
   order_lines: OrderLinesTable;
   order_receipts: OrderReceiptsTable;
   order_receipt_lines: OrderReceiptLinesTable;
+  // Paying charges (migration 0016)
+  charge_payments: ChargePaymentsTable;
 }
 
 export type DepositStatus = 'pending' | 'held' | 'releasing' | 'released' | 'ended';
@@ -517,7 +519,8 @@ export interface ChargesTable {
   user_id: string;
   loan_id: string | null;
   loan_line_id: string | null;
-  kind: 'missing' | 'damaged';
+  /** 'late': a late fee (migration 0016), at most one per loan. */
+  kind: 'missing' | 'damaged' | 'late';
   item: string;
   note: Generated<string>;
   amount_minor: number;
@@ -526,6 +529,26 @@ export interface ChargesTable {
   settled_minor: Generated<number>;
   created_by: string | null;
   created_at: TimestampDefault;
+}
+
+export type ChargePaymentStatus = 'pending' | 'paid' | 'ended';
+
+/** Money a member paid towards their charges (migration 0016): by card (pending → paid | ended) or cash (paid). */
+export interface ChargePaymentsTable {
+  id: Generated<string>;
+  space_id: string;
+  user_id: string;
+  method: 'card' | 'cash';
+  amount_minor: number;
+  currency: string;
+  status: Generated<ChargePaymentStatus>;
+  checkout_session_id: string | null;
+  checkout_url: string | null;
+  payment_intent_id: string | null;
+  created_by: string | null;
+  created_at: TimestampDefault;
+  paid_at: TimestampNullable;
+  ended_at: TimestampNullable;
 }
 
 /** Where a space buys its parts (migration 0012). */

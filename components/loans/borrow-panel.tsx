@@ -190,7 +190,8 @@ export function BorrowPanel({
       ) : null}
       {deposit ? (
         <p className="text-sm" data-testid="deposit-note">
-          This kit takes a deposit of <strong>{deposit}</strong>, paid by card before it is lent. It comes back to the
+          {'kitBoxId' in selection ? 'This kit takes' : 'These parts take'} a deposit of <strong>{deposit}</strong>, paid
+          by card before it is lent. It comes back to the
           card when a steward has checked the return; a charge for anything missing or damaged is kept from it.
         </p>
       ) : null}

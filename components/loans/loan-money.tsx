@@ -7,7 +7,7 @@ import type { LoanMoney } from '@/lib/deposits/read';
 const DEPOSIT_WORDS: Record<string, string> = {
   pending: 'not paid yet',
   held: 'paid; held until the return is checked',
-  releasing: 'being given back',
+  releasing: 'release pending: being given back to the card',
   released: 'settled',
   ended: 'not paid; the borrow was given up',
 };
@@ -51,7 +51,7 @@ export function LoanMoneyCard({ deposit, charges, isMine }: LoanMoney & { isMine
       ) : null}
       {owed > 0 ? (
         <p className="font-semibold text-red-800 dark:text-red-300">
-          Still owed: {formatMoney(owed, cur)}{isMine ? ' — settle it with a steward.' : '.'}
+          Still owed: {formatMoney(owed, cur)}{isMine ? ' — pay it by card below, or in cash to a steward.' : '.'}
         </p>
       ) : null}
     </section>

@@ -10,6 +10,7 @@ import { CheckReport } from '@/components/kits/check-report';
 import { Alternatives } from './alternatives';
 import { callApi } from './api';
 import { BorrowPanel } from './borrow-panel';
+import { formatMoney } from '@/lib/money';
 import { ErrorNote } from './error-note';
 import { OwnLeds, type OwnLedsValue } from './own-leds';
 import { OwnDriver, OwnSupply } from './own-supply-driver';
@@ -304,6 +305,7 @@ export function LooseBorrow({
             userId={userId}
             lendTo={borrowerId}
             inductions={p.inductions}
+            deposit={p.deposit ? formatMoney(p.deposit.amountMinor, p.deposit.currency) : null}
           />
         </>
       ) : null}

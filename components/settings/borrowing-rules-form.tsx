@@ -13,6 +13,7 @@ import {
 } from '@/lib/rules/schema';
 import { FormNote } from '@/components/people/form-field';
 import { formatMoney, minorUnitExponent, parseMoney } from '@/lib/money';
+import { CATEGORIES, CATEGORY_WORDS } from '@/lib/inventory/words';
 import { ApiError, errorText, sendJson } from '@/components/people/send-json';
 
 // Who may borrow and when things fall due: the space's standing rule, how things change hands, the
@@ -39,6 +40,11 @@ export function BorrowingRulesForm({
   const [rules, setRules] = useState<BorrowingRules>(initial);
   const [newDate, setNewDate] = useState('');
   const [owingText, setOwingText] = useState(amountText(initial.refuseWhenOwingOverMinor, currency));
+  const [lateDayText, setLateDayText] = useState(amountText(initial.lateFee?.perOpeningDayMinor ?? null, currency));
+  const [lateCapText, setLateCapText] = useState(amountText(initial.lateFee?.capMinor ?? null, currency));
+  const depositTexts = (r: BorrowingRules) =>
+    Object.fromEntries(CATEGORIES.map((c) => [c, amountText(r.categoryDepositsMinor[c] ?? null, currency)]));
+  const [catDeposits, setCatDeposits] = useState<Record<string, string>>(depositTexts(initial));
   const [fields, setFields] = useState<Record<string, string[]>>({});
   const [note, setNote] = useState<{ kind: 'ok' | 'error'; text: string } | null>(null);
   const [saving, setSaving] = useState(false);
@@ -62,11 +68,43 @@ export function BorrowingRulesForm({
         setNote({ kind: 'error', text: 'Check the amount a member may owe.' });
         return;
       }
+      // Late fee: both amounts, or neither (off).
+      const lateOff = lateDayText.trim() === '' && lateCapText.trim() === '';
+      const perDay = lateOff ? null : parseMoney(lateDayText, currency);
+      const cap = lateOff ? null : parseMoney(lateCapText, currency);
+      if (!lateOff && (perDay === null || cap === null)) {
+        setFields({
+          ...(perDay === null ? { 'lateFee.perOpeningDayMinor': [`an amount in ${currency}, e.g. ${amountText(100, currency)}`] } : {}),
+          ...(cap === null ? { 'lateFee.capMinor': [`an amount in ${currency}, e.g. ${amountText(1000, currency)}`] } : {}),
+        });
+        setNote({ kind: 'error', text: 'Give both late-fee amounts, or leave both empty for no late fee.' });
+        return;
+      }
+      // Deposits on loose parts: an empty box is no deposit for that category.
+      const categoryDepositsMinor: Record<string, number> = {};
+      const badDeposits: Record<string, string[]> = {};
+      for (const c of CATEGORIES) {
+        const text = (catDeposits[c] ?? '').trim();
+        if (!text) continue;
+        const v = parseMoney(text, currency);
+        if (v === null || v <= 0) badDeposits[`categoryDepositsMinor.${c}`] = [`an amount in ${currency}, e.g. ${amountText(2000, currency)}`];
+        else categoryDepositsMinor[c] = v;
+      }
+      if (Object.keys(badDeposits).length) {
+        setFields(badDeposits);
+        setNote({ kind: 'error', text: 'Check the deposits on loose parts.' });
+        return;
+      }
       const { rules: saved } = await sendJson<{ rules: BorrowingRules }>('/api/settings/borrowing', 'PATCH', {
         ...rules,
+        categoryDepositsMinor,
         refuseWhenOwingOverMinor: owing,
+        lateFee: perDay !== null && cap !== null ? { perOpeningDayMinor: perDay, capMinor: cap } : null,
       });
       setOwingText(amountText(saved.refuseWhenOwingOverMinor, currency));
+      setLateDayText(amountText(saved.lateFee?.perOpeningDayMinor ?? null, currency));
+      setLateCapText(amountText(saved.lateFee?.capMinor ?? null, currency));
+      setCatDeposits(depositTexts(saved));
       setRules(saved);
       setNote({ kind: 'ok', text: 'Borrowing rules saved.' });
       router.refresh();
@@ -114,6 +152,59 @@ export function BorrowingRulesForm({
             <p className="text-sm text-red-800 dark:text-red-300">{fieldError('refuseWhenOwingOverMinor')}</p>
           ) : null}
         </div>
+        <div className="space-y-1">
+          <p className="label">Late fee ({currency}; both empty: no late fee)</p>
+          <div className="flex flex-wrap gap-3">
+            <label className="space-y-1">
+              <span className="block text-sm">Per opening day late</span>
+              <input
+                inputMode="decimal"
+                className="field max-w-32"
+                value={lateDayText}
+                onChange={(e) => setLateDayText(e.target.value)}
+                aria-invalid={fieldError('lateFee.perOpeningDayMinor') ? true : undefined}
+              />
+            </label>
+            <label className="space-y-1">
+              <span className="block text-sm">Never more than</span>
+              <input
+                inputMode="decimal"
+                className="field max-w-32"
+                value={lateCapText}
+                onChange={(e) => setLateCapText(e.target.value)}
+                aria-invalid={fieldError('lateFee.capMinor') ? true : undefined}
+              />
+            </label>
+          </div>
+          <p className="muted text-sm">
+            Charged once when a late return is checked in: only the days the space was open count.
+          </p>
+          {fieldError('lateFee') ? <p className="text-sm text-red-800 dark:text-red-300">{fieldError('lateFee')}</p> : null}
+        </div>
+        <details className="space-y-2">
+          <summary className="label cursor-pointer">Deposits on loose parts ({currency}; empty: none)</summary>
+          <p className="muted text-sm">
+            Taken by card when a loose borrow includes parts of the category (once per category). A kit box’s deposit is
+            set on its kit.
+          </p>
+          <div className="grid grid-cols-2 gap-2 sm:grid-cols-3">
+            {CATEGORIES.map((c) => (
+              <label key={c} className="space-y-1">
+                <span className="block text-sm">{CATEGORY_WORDS[c]}</span>
+                <input
+                  inputMode="decimal"
+                  className="field w-full"
+                  value={catDeposits[c] ?? ''}
+                  onChange={(e) => setCatDeposits((d) => ({ ...d, [c]: e.target.value }))}
+                  aria-invalid={fieldError(`categoryDepositsMinor.${c}`) ? true : undefined}
+                />
+              </label>
+            ))}
+          </div>
+          {fieldError('categoryDepositsMinor') ? (
+            <p className="text-sm text-red-800 dark:text-red-300">{fieldError('categoryDepositsMinor')}</p>
+          ) : null}
+        </details>
         <div role="radiogroup" aria-labelledby={`${ids}-presence`} className="space-y-2">
           <p id={`${ids}-presence`} className="label">
             How things change hands

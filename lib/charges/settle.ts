@@ -7,9 +7,11 @@ import { isStaff, type Ctx } from '@/lib/auth/roles';
 import { ForbiddenError, InvalidError, NotFoundError } from '@/lib/errors';
 import { formatMoney } from '@/lib/money';
 import { spaceClock } from '@/lib/sales/periods';
+import { now } from '@/lib/clock';
+import { applyToCharges, lockOpenCharges } from './apply';
 
 // A steward records cash paid towards what a member owes: it settles their charges oldest first, in one
-// transaction with its audit row, under a lock on those charges (two stewards recording at once cannot
+// transaction with its audit row (and a cash row in charge_payments), under a lock on those charges (two stewards recording at once cannot
 // settle the same money twice). More than is owed is refused, naming the field.
 
 export const settleSchema = z
@@ -34,29 +36,26 @@ export async function settleCharges(
     const member = await scoped(trx, ctx).selectFrom('memberships').select('user_id').where('user_id', '=', userId).executeTakeFirst();
     if (!member) throw new NotFoundError('No such person in this space.');
     const { currency } = await spaceClock(trx, ctx.spaceId);
-    const open = await scoped(trx, ctx)
-      .selectFrom('charges')
-      .select(['id', 'amount_minor', 'from_deposit_minor', 'settled_minor'])
-      .where('user_id', '=', userId)
-      .where((eb) => eb('settled_minor', '<', eb('amount_minor', '-', eb.ref('from_deposit_minor'))))
-      .orderBy('created_at')
-      .orderBy('id')
-      .forUpdate()
-      .execute();
-    const owed = open.reduce((s, c) => s + c.amount_minor - c.from_deposit_minor - c.settled_minor, 0);
+    const owed = (await lockOpenCharges(trx, ctx.spaceId, userId)).reduce((s, c) => s + c.owedMinor, 0);
     if (input.amountMinor > owed)
       throw new InvalidError(`That is more than is owed (${formatMoney(owed, currency)}).`, {
         amountMinor: [`at most ${owed}`],
       });
-    let left = input.amountMinor;
-    const applied: { chargeId: string; amountMinor: number }[] = [];
-    for (const c of open) {
-      if (left === 0) break;
-      const part = Math.min(left, c.amount_minor - c.from_deposit_minor - c.settled_minor);
-      await scoped(trx, ctx).updateTable('charges').set({ settled_minor: c.settled_minor + part }).where('id', '=', c.id).execute();
-      applied.push({ chargeId: c.id, amountMinor: part });
-      left -= part;
-    }
+    const { charges: applied } = await applyToCharges(trx, ctx.spaceId, userId, input.amountMinor);
+    // Kept as a payment too, so the Books can show the month's cash paid towards charges.
+    await scoped(trx, ctx)
+      .insertInto('charge_payments')
+      .values({
+        space_id: ctx.spaceId,
+        user_id: userId,
+        method: 'cash',
+        amount_minor: input.amountMinor,
+        currency,
+        status: 'paid',
+        created_by: ctx.userId,
+        paid_at: now(),
+      })
+      .execute();
     await audit(trx, {
       spaceId: ctx.spaceId,
       actorId: ctx.userId,

@@ -13,9 +13,10 @@ import { spaceClock } from '@/lib/sales/periods';
 // count stays right.
 
 export type ChargeLine = {
-  lineId: string;
+  /** The loan line charged for; null for a late fee, which is the whole loan's. */
+  lineId: string | null;
   item: string;
-  kind: 'missing' | 'damaged';
+  kind: 'missing' | 'damaged' | 'late';
   amountMinor: number;
   note: string;
 };

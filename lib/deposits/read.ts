@@ -14,7 +14,7 @@ export type LoanMoney = {
     releasedMinor: number | null;
     payUrl: string | null;
   } | null;
-  charges: { id: string; item: string; kind: 'missing' | 'damaged'; note: string; amountMinor: number; fromDepositMinor: number; settledMinor: number; currency: string }[];
+  charges: { id: string; item: string; kind: 'missing' | 'damaged' | 'late'; note: string; amountMinor: number; fromDepositMinor: number; settledMinor: number; currency: string }[];
 };
 
 export async function loanMoney(db: Db, spaceId: string, loanId: string): Promise<LoanMoney> {

@@ -29,6 +29,15 @@ export async function templateDeposit(trx: Db, spaceId: string, templateId: stri
   return t?.deposit_minor ?? null;
 }
 
+/**
+ * The deposit a loose borrow asks for: the space's amount for each part category in it, once per
+ * category, summed (rules.categoryDepositsMinor); null when none applies.
+ */
+export function categoryDeposit(amounts: Partial<Record<string, number>>, categories: string[]): number | null {
+  const total = [...new Set(categories)].reduce((sum, c) => sum + (amounts[c] ?? 0), 0);
+  return total > 0 ? total : null;
+}
+
 /** In the borrow's transaction: the loan's deposit, pending until paid. */
 export async function recordDeposit(
   trx: Db,
@@ -86,10 +95,10 @@ export async function openDepositCheckout(
         spaceId: ctx.spaceId,
         amountMinor: d.amount_minor,
         currency: d.currency,
-        itemName: d.box ?? 'kit',
+        itemName: d.box ?? 'parts',
         appBaseUrl: deps.appBaseUrl,
         borrowerEmail: d.email,
-        description: `${ctx.spaceName} deposit for ${d.box ?? 'a kit'}`,
+        description: `${ctx.spaceName} deposit for ${d.box ?? 'borrowed parts'}`,
         nowSeconds: Math.floor(Date.now() / 1000),
       }),
       { idempotencyKey: depositCheckoutKey(d.id) },

@@ -11,7 +11,7 @@ import { checkLines, storedReport } from './check';
 import { inductionRefusal, missingInductions, stewardsToAsk } from '@/lib/inductions/gate';
 import { standingRefusal } from '@/lib/rules/standing';
 import { computeDueAt } from './due';
-import { recordDeposit, templateDeposit, type DepositDue } from '@/lib/deposits/take';
+import { categoryDeposit, recordDeposit, templateDeposit, type DepositDue } from '@/lib/deposits/take';
 import { limitReached, openLoanCount } from './lock';
 import { gateFor } from './preview';
 import type { BorrowInput } from './schemas';
@@ -185,7 +185,10 @@ export async function borrow(db: Db, ctx: Ctx, input: BorrowInput): Promise<Borr
     const startsAs = settings.rules.presence === 'bench_handover' && !staff ? ('waiting' as const) : ('out' as const);
     // A kit that asks for a deposit: kept for the borrower (waiting) until it is paid; then it becomes
     // what it would have been (lib/deposits/events.ts).
-    const depositMinor = await templateDeposit(trx, ctx.spaceId, templateId);
+    // Loose parts: the space's deposit per part category in the borrow (a box's is its template's alone).
+    const depositMinor = boxId
+      ? await templateDeposit(trx, ctx.spaceId, templateId)
+      : categoryDeposit(settings.rules.categoryDepositsMinor, lines.map((l) => l.category));
     const status = depositMinor ? ('waiting' as const) : startsAs;
     const overridden = gate === 'blocked';
     const loan = await scoped(trx, ctx)

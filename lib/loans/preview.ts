@@ -15,6 +15,8 @@ import { limitReached, openLoanCount } from './lock';
 import type { OwnParts, Selection } from './schemas';
 import { chainRoleOf, resolveSelection, type SelectedBox, type SelectionLine } from './selection';
 import { loanSettings } from './settings';
+import { categoryDeposit } from '@/lib/deposits/take';
+import { spaceClock } from '@/lib/sales/periods';
 
 // What the member sees before borrowing: the parts, the check on exactly those parts, whether they can
 // be taken now, the due date if so, and — when the check fails — what would work instead. Read only;
@@ -38,6 +40,8 @@ export type Preview = {
   note: string | null;
   /** Inductions the borrower has no current sign-off for, and what the answer would say; null when none. */
   inductions: { missing: string[]; message: string } | null;
+  /** Loose parts only: the deposit their categories ask for (rules.categoryDepositsMinor), or null. */
+  deposit: { amountMinor: number; currency: string } | null;
 };
 
 /** ok → lend; caution → lend once the borrower says they read the reasons; fail → only a steward's override. */
@@ -136,6 +140,7 @@ export async function previewLoan(
     });
   }
 
+  const looseDeposit = box ? null : categoryDeposit(settings.rules.categoryDepositsMinor, lines.map((l) => l.category));
   return {
     box,
     lines: withFree,
@@ -150,6 +155,7 @@ export async function previewLoan(
     maxOpenLoans: settings.maxOpenLoans,
     note: buildNote(outcome, { self: borrowerId === ctx.userId }),
     inductions,
+    deposit: looseDeposit ? { amountMinor: looseDeposit, currency: (await spaceClock(db, ctx.spaceId)).currency } : null,
   };
 }
 

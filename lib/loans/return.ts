@@ -5,7 +5,8 @@ import { audit } from '@/lib/audit/log';
 import { isStaff, type Ctx } from '@/lib/auth/roles';
 import { now } from '@/lib/clock';
 import { ForbiddenError, InvalidError } from '@/lib/errors';
-import { chargeAndRelease, type Charged } from '@/lib/charges/write';
+import { chargeAndRelease, type ChargeLine, type Charged } from '@/lib/charges/write';
+import { lateFeeLine } from '@/lib/charges/late';
 import { releaseItem } from './holds';
 import { reportBack } from './handover';
 import { lockOpenLoan } from './lock';
@@ -39,7 +40,8 @@ export async function returnLoan(
   input: ReturnInput,
 ): Promise<ReturnResult> {
   const staff = isStaff(ctx);
-  const { rules } = await loanSettings(db, ctx.spaceId);
+  const settings = await loanSettings(db, ctx.spaceId);
+  const { rules } = settings;
   if (!staff && input.lines?.some((l) => l.chargeMinor !== undefined))
     throw new ForbiddenError('Only a steward can charge for what is missing or damaged.');
   return db.transaction().execute(async (trx) => {
@@ -243,11 +245,14 @@ export async function returnLoan(
     }
 
     // Charges for what is missing or damaged, from the deposit first; the rest of the deposit goes back.
-    const toCharge = checked.flatMap((l) =>
+    const toCharge: ChargeLine[] = checked.flatMap((l) =>
       l.chargeMinor !== undefined && l.condition !== 'ok'
         ? [{ lineId: l.id, item: l.name, kind: l.condition, amountMinor: l.chargeMinor, note: l.chargeNote }]
         : [],
     );
+    // A late fee where the space has one, after the parts' charges (so the deposit covers those first).
+    const late = await lateFeeLine(trx, ctx.spaceId, loan.id, settings, at);
+    if (late) toCharge.push(late);
     const charged = await chargeAndRelease(trx, ctx.spaceId, loan, toCharge, ctx.userId);
 
     await audit(trx, {

@@ -26,7 +26,7 @@ export function chargeNoticeMessage(
       ? `Your deposit was ${money(n.depositMinor)}; ${money(back)} of it goes back to your card.\n`
       : '';
   const text =
-    `Hello ${n.name},\n\nA steward at ${n.spaceName} checked what you brought back and charged you for what was missing or damaged:\n\n` +
+    `Hello ${n.name},\n\nA steward at ${n.spaceName} checked what you brought back and charged you for what was missing, damaged or late:\n\n` +
     `${lines.join('\n')}\n\n${deposit}${owed > 0 ? `Still owed: ${money(owed)}. Settle it with a steward at the bench.\n` : 'Nothing more is owed.\n'}` +
     `\nSee the loan: ${n.loanUrl}\n`;
   return { subject: `Charged at ${n.spaceName}: ${money(c.charges.reduce((s, x) => s + x.amountMinor, 0))}`, text };

@@ -5,13 +5,17 @@ import { paymentsClient } from './client';
 import { syncRefunds } from './refund-sync';
 import { log } from '@/lib/log';
 import { sendRelease } from '@/lib/deposits/release';
+import { sendChargePaymentReceipts } from '@/lib/mail/charge-payments';
 
 /** What a verified webhook event leaves to do after the answer: receipts, and refunds to fetch. */
 export async function afterPaymentEvent(
   db: Db,
-  result: { receipts: string[]; refundsToSync: string[]; depositsToRelease?: { spaceId: string; depositId: string }[] },
+  result: { receipts: string[]; refundsToSync: string[]; depositsToRelease?: { spaceId: string; depositId: string }[];
+    chargeReceipts?: { spaceId: string; paymentId: string }[];
+  },
 ) {
   await sendReceipts(db, result.receipts);
+  await sendChargePaymentReceipts(db, result.chargeReceipts ?? []);
   for (const d of result.depositsToRelease ?? []) await sendRelease(db, paymentsClient(d.spaceId), d.spaceId, d.depositId);
   for (const saleId of result.refundsToSync) {
     // across spaces: the sale ids come from the webhook's own lookup (lib/payments/events.ts).

@@ -7,6 +7,7 @@ import { markSaleEnded } from '@/lib/sales/paid';
 import { recordRefusedPayment } from '@/lib/sales/refused';
 import { applyRefund, lockSale, parseRefundMetadata, refundsOfSale } from '@/lib/sales/refunds';
 import { applyDepositEvent, ourDeposit } from '@/lib/deposits/events';
+import { applyChargePaymentEvent, ourChargePayment, refuseClaimedChargePayment } from '@/lib/charges/card-events';
 
 export type EventOutcome = {
   outcome: string;
@@ -16,6 +17,8 @@ export type EventOutcome = {
   refundsToSync: string[];
   /** Deposits whose release is fixed: the refund goes to the processor after the commit. */
   depositsToRelease?: { spaceId: string; depositId: string }[];
+  /** Card payments of charges that became paid: their receipts go out after the commit. */
+  chargeReceipts?: { spaceId: string; paymentId: string }[];
 };
 
 const UUID = /^[0-9a-f]{8}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{12}$/i;
@@ -98,10 +101,16 @@ export async function applyPaymentEvent(db: Db, event: Stripe.Event): Promise<Ev
   return db.transaction().execute(async (trx) => {
     // A loan's deposit is found the same way as a sale: by the processor ids stored on it.
     const deposit = await ourDeposit(trx, event);
-    const sale = deposit ? undefined : await ourSale(trx, event, obj);
-    const claimed = sale || deposit ? undefined : await claimedSale(trx, obj);
+    // A card payment of charges likewise (lib/charges/card-events.ts).
+    const chargePayment = deposit ? undefined : await ourChargePayment(trx, event);
+    const sale = deposit || chargePayment ? undefined : await ourSale(trx, event, obj);
+    const claimed = sale || deposit || chargePayment ? undefined : await claimedSale(trx, obj);
     const spaceId =
-      deposit?.space_id ?? sale?.space_id ?? claimed?.space_id ?? (await knownSpace(trx, asUuid(obj.metadata?.spaceId)));
+      deposit?.space_id ??
+      chargePayment?.space_id ??
+      sale?.space_id ??
+      claimed?.space_id ??
+      (await knownSpace(trx, asUuid(obj.metadata?.spaceId)));
     // across spaces: every delivery is kept once, also those naming no space of ours (space_id null).
     const inserted = await trx
       .insertInto('payment_events')
@@ -119,9 +128,14 @@ export async function applyPaymentEvent(db: Db, event: Stripe.Event): Promise<Ev
       .executeTakeFirst();
     if (!inserted) return done('duplicate delivery: already applied');
 
+    const claimedPayment = deposit || chargePayment || sale || claimed ? null : await refuseClaimedChargePayment(trx, event);
     const result = deposit
       ? { receipts: [], refundsToSync: [], ...(await applyDepositEvent(trx, deposit, event)) }
-      : await dispatch(trx, { event, obj, sale, claimed });
+      : chargePayment
+        ? { receipts: [], refundsToSync: [], ...(await applyChargePaymentEvent(trx, chargePayment, event)) }
+        : claimedPayment
+          ? done(claimedPayment)
+          : await dispatch(trx, { event, obj, sale, claimed });
     // across spaces: the row inserted just above, by its processor id.
     await trx
       .updateTable('payment_events')

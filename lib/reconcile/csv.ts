@@ -56,7 +56,7 @@ export function reconciliationCsv(r: Reconciliation): string {
   const rows = r.rows.map((x) => ({
     month: r.month,
     state: STATE_WORDS[x.status],
-    entry: x.deposit ? (x.kind === 'charge' ? 'deposit taken' : 'deposit given back') : ENTRY_WORDS[x.kind],
+    entry: x.chargePayment ? 'charges paid by card' : x.deposit ? (x.kind === 'charge' ? 'deposit taken' : 'deposit given back') : ENTRY_WORDS[x.kind],
     when: when(x.at),
     sale: x.saleRef ?? '',
     buyer: x.buyer ?? '',

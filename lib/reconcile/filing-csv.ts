@@ -21,6 +21,12 @@ export const FILING_SECTIONS = [
   'purchase received',
   'honour box count',
   'honour box banking',
+  // Charges and deposits (lib/charges/month.ts): each its own section.
+  'charge raised',
+  'charge paid',
+  'deposit held',
+  'deposit kept',
+  'deposit given back',
 ] as const;
 
 const COLUMNS = [
@@ -182,6 +188,19 @@ export function filingCsv(f: Filing, c: Ctx): string {
         note: `${b.banking.bankedBy ? `by ${b.banking.bankedBy}` : ''}${b.banking.reference ? ` (ref. ${b.banking.reference})` : ''}`.trim(),
       });
   }
+  // Charges and deposits: the person in `buyer`, the processor's id (or ours) in `processor_ref`.
+  for (const x of f.charges ?? [])
+    rows.push({
+      ...base,
+      section: x.section,
+      when: when(x.at),
+      method: x.method,
+      buyer: x.person ?? '',
+      item: x.item,
+      amount_minor: x.amountMinor,
+      note: x.note,
+      processor_ref: x.ref,
+    });
   return writeCsv(COLUMNS, rows);
 }
 

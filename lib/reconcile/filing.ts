@@ -11,6 +11,7 @@ import { purchasesReceived, type PurchaseLine } from '@/lib/restock/purchases';
 import { monthRange } from '@/lib/sales/periods';
 import { allocateTax } from '@/lib/sales/tax';
 import type { Reconciliation } from './report';
+import { chargesOfMonth, type ChargeMonthRow } from '@/lib/charges/month';
 
 // The month as an association files it: every sale line (card and cash) with its category and account
 // code, net, tax and gross; the tax collected and given back; refunds; the processor's fees; stock
@@ -80,6 +81,8 @@ export type Filing = {
   purchases: FilingPurchase[];
   boxCounts: BoxCount[];
   fees: Reconciliation['fees'];
+  /** Charges raised and paid, deposits held, given back and kept (lib/charges/month.ts). */
+  charges?: ChargeMonthRow[];
 };
 
 
@@ -149,6 +152,7 @@ export async function filingMonth(db: Db, ctx: Pick<Ctx, 'spaceId'>, report: Rec
     purchases,
     boxCounts: (await boxCounts(db, ctx, { from, to, limit: 1000 })).reverse(),
     fees: report.fees,
+    charges: (await chargesOfMonth(db, ctx.spaceId, { from, to })).rows,
   };
 }
 

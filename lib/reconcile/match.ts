@@ -38,6 +38,8 @@ export type OurDeposit = {
   refundId: string | null;
   releasedMinor: number | null;
   releasedAt: Date | null;
+  /** A card payment of charges (lib/charges/card.ts), matched like a deposit taken, never given back. */
+  chargePayment?: true;
 };
 
 /** A charge written for a missing or damaged part: how much, and how much of it a deposit covered. */
@@ -61,6 +63,8 @@ export type ReconRow = {
   note: string;
   /** A loan's deposit (taken, or given back), not a sale. */
   deposit?: true;
+  /** With `deposit`: a card payment of charges rather than a deposit. */
+  chargePayment?: true;
 };
 
 export type ReconTotals = {
@@ -332,7 +336,7 @@ export function matchPeriod(input: {
         cashRefundsMinor: sum(
           input.refunds.filter((r) => r.method === 'cash' && inPeriod(r.createdAt)).map((r) => r.amountMinor),
         ),
-        depositsMinor: sum(deposits.filter((d) => d.paidAt && inPeriod(d.paidAt)).map((d) => d.amountMinor)),
+        depositsMinor: sum(deposits.filter((d) => !d.chargePayment && d.paidAt && inPeriod(d.paidAt)).map((d) => d.amountMinor)),
         depositReleasesMinor: sum(
           deposits.filter((d) => d.refundId && d.releasedAt && inPeriod(d.releasedAt)).map((d) => d.releasedMinor ?? 0),
         ),
@@ -368,6 +372,7 @@ function depositRows(
     const same = oursMinor !== null && Math.abs(t.amountMinor) === oursMinor;
     rows.push({
       deposit: true,
+      ...(d.chargePayment ? { chargePayment: true as const } : {}),
       key: t.txnId,
       kind: t.type === 'charge' ? 'charge' : 'refund',
       status: same ? 'matched' : 'amount_differs',
@@ -379,10 +384,14 @@ function depositRows(
       ...theirPart(t),
       differenceMinor: oursMinor === null ? null : Math.abs(t.amountMinor) - oursMinor,
       note: same
-        ? taking
+        ? d.chargePayment
+          ? 'Paid by card towards charges.'
+          : taking
           ? 'Deposit taken for a loan.'
           : 'Deposit given back.'
-        : 'The processor moved a different amount from the deposit we hold.',
+        : d.chargePayment
+          ? 'The processor moved a different amount from the card payment of charges we hold.'
+          : 'The processor moved a different amount from the deposit we hold.',
     });
   }
   for (const d of input.deposits ?? []) {
@@ -391,6 +400,7 @@ function depositRows(
       if (!at || !inPeriod(at) || seen.has(`${taking ? 'charge' : 'refund'}-${d.id}`)) continue;
       rows.push({
         deposit: true,
+        ...(d.chargePayment ? { chargePayment: true as const } : {}),
         key: `deposit-${taking ? 'taken' : 'released'}-${d.id}`,
         kind: taking ? 'charge' : 'refund',
         status: 'ours_only',
@@ -400,7 +410,10 @@ function depositRows(
         buyer: d.borrower,
         oursMinor: taking ? d.amountMinor : d.releasedMinor,
         ...none,
-        note: taking ? 'We hold this deposit as paid; the processor shows no charge.' : 'We booked this deposit as given back; the processor shows no refund.',
+        note: d.chargePayment
+          ? 'We hold this card payment of charges as paid; the processor shows no charge.'
+          : taking
+          ? 'We hold this deposit as paid; the processor shows no charge.' : 'We booked this deposit as given back; the processor shows no refund.',
       });
     }
   }

@@ -227,6 +227,20 @@ async function ourDepositsAndCharges(
       ]),
     )
     .execute();
+  // Card payments of charges are matched by their payment intent, like a deposit taken.
+  const cardPayments = await scoped(db, { spaceId })
+    .selectFrom('charge_payments')
+    .leftJoin('users', 'users.id', 'charge_payments.user_id')
+    .select(['charge_payments.id', 'users.name', 'charge_payments.amount_minor', 'charge_payments.paid_at', 'charge_payments.payment_intent_id'])
+    .where('charge_payments.method', '=', 'card')
+    .where('charge_payments.status', '=', 'paid')
+    .where((eb) =>
+      eb.or([
+        eb.and([eb('charge_payments.paid_at', '>=', from), eb('charge_payments.paid_at', '<', to)]),
+        ...(pis.length ? [eb('charge_payments.payment_intent_id', 'in', pis)] : []),
+      ]),
+    )
+    .execute();
   const charges = await scoped(db, { spaceId })
     .selectFrom('charges')
     .select(['amount_minor', 'from_deposit_minor', 'created_at'])
@@ -244,7 +258,19 @@ async function ourDepositsAndCharges(
       refundId: d.refund_id,
       releasedMinor: d.released_minor,
       releasedAt: d.released_at,
-    })),
+    })).concat(
+      cardPayments.map((p) => ({
+        id: p.id,
+        borrower: p.name,
+        amountMinor: p.amount_minor,
+        paidAt: p.paid_at,
+        paymentIntentId: p.payment_intent_id,
+        refundId: null,
+        releasedMinor: null,
+        releasedAt: null,
+        chargePayment: true as const,
+      })),
+    ),
     charges: charges.map((c) => ({ amountMinor: c.amount_minor, fromDepositMinor: c.from_deposit_minor, createdAt: c.created_at })),
   };
 }

@@ -1,5 +1,7 @@
 import { z } from 'zod';
 import { isRealDay } from '@/lib/inductions/schemas';
+import type { PartCategory } from '@/lib/domain';
+import { CATEGORIES } from '@/lib/inventory/words';
 
 // The rules a space sets for who may borrow, and when things fall due. Kept in `spaces.settings.borrowing`
 // (one JSON object), read with defaults so a space that never saved them lends as before.
@@ -51,6 +53,13 @@ export const PRESENCE_NAMES: Record<Presence, string> = {
 
 export const MAX_CLOSED_DATES = 400;
 
+const categoryDeposit = (c: string) =>
+  z
+    .number({ error: `categoryDepositsMinor.${c}: a whole number of minor units` })
+    .int(`categoryDepositsMinor.${c}: a whole number of minor units`)
+    .min(1, `categoryDepositsMinor.${c}: at least 1`)
+    .max(99_999_999, `categoryDepositsMinor.${c}: at most 99999999`);
+
 export const borrowingRulesSchema = z
   .object({
     /** No new loan while one of the member's loans is past its due date. */
@@ -65,6 +74,39 @@ export const borrowingRulesSchema = z
       .min(0, 'refuseWhenOwingOverMinor: 0 or more')
       .max(99_999_999, 'refuseWhenOwingOverMinor: at most 99999999')
       .nullable(),
+    /**
+     * A late fee where the space wants one (null: off, the default): so much per opening day late, never
+     * more than the cap, in the space's currency (ISO 4217 minor units). Raised once when a late return
+     * is confirmed (lib/charges/late-fee.ts).
+     */
+    lateFee: z
+      .object({
+        perOpeningDayMinor: z
+          .number({ error: 'lateFee.perOpeningDayMinor: a whole number of minor units' })
+          .int('lateFee.perOpeningDayMinor: a whole number of minor units')
+          .min(1, 'lateFee.perOpeningDayMinor: at least 1')
+          .max(99_999_999, 'lateFee.perOpeningDayMinor: at most 99999999'),
+        capMinor: z
+          .number({ error: 'lateFee.capMinor: a whole number of minor units' })
+          .int('lateFee.capMinor: a whole number of minor units')
+          .min(1, 'lateFee.capMinor: at least 1')
+          .max(99_999_999, 'lateFee.capMinor: at most 99999999'),
+      })
+      .strict()
+      .nullable(),
+    /**
+     * Deposits on loose parts: an amount per part category (ISO 4217 minor units), taken when a loose
+     * borrow includes parts of that category — once per category, summed over the categories in the loan.
+     * A kit box's deposit is its template's alone.
+     */
+    categoryDepositsMinor: z
+      .object(
+        Object.fromEntries(CATEGORIES.map((c) => [c, categoryDeposit(c).optional()])) as Record<
+          PartCategory,
+          z.ZodOptional<ReturnType<typeof categoryDeposit>>
+        >,
+      )
+      .strict(),
     /** The scheduled sweep leaves a member alone this long after any reminder, by hand or scheduled. */
     reminderPauseHours: z
       .number({ error: 'reminderPauseHours: a whole number of hours' })
@@ -87,6 +129,8 @@ export type BorrowingRulesInput = z.input<typeof borrowingRulesSchema>;
 export const DEFAULT_RULES: BorrowingRules = {
   refuseWhileOverdue: true,
   refuseWhenOwingOverMinor: null,
+  lateFee: null,
+  categoryDepositsMinor: {},
   reminderPauseHours: 12,
   presence: 'self_service',
   week: null,

@@ -32,16 +32,18 @@ export type AcceptOutcome = PaidOutcome | { changed: false; refused: string; sal
 
 /** Why the reported money is not this sale's payment, or null when it is. */
 export function paymentMismatch(
-  sale: SaleMoney,
+  sale: Pick<SaleMoney, 'checkout_session_id' | 'total_minor' | 'currency'>,
   ev: Pick<PaymentEvidence, 'sessionId' | 'amountMinor' | 'currency'>,
+  /** What was paid for, in the reason's words (a charge payment uses the same rule). */
+  what = 'sale',
 ): string | null {
   if (!sale.checkout_session_id || ev.sessionId !== sale.checkout_session_id)
-    return `checkout session ${ev.sessionId ?? '(none)'} is not the one Ohmstead opened for this sale`;
+    return `checkout session ${ev.sessionId ?? '(none)'} is not the one Ohmstead opened for this ${what}`;
   if (ev.amountMinor !== sale.total_minor)
-    return `the processor's amount (${ev.amountMinor ?? 'none'}) is not the sale's (${sale.total_minor}), in minor units`;
+    return `the processor's amount (${ev.amountMinor ?? 'none'}) is not the ${what}'s (${sale.total_minor}), in minor units`;
   const theirs = ev.currency?.trim().toUpperCase();
   if (theirs !== sale.currency.trim().toUpperCase())
-    return `the processor's currency (${theirs ?? 'none'}) is not the sale's (${sale.currency.trim()})`;
+    return `the processor's currency (${theirs ?? 'none'}) is not the ${what}'s (${sale.currency.trim()})`;
   return null;
 }
 

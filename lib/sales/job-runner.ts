@@ -7,6 +7,7 @@ import { sendReceipts } from '@/lib/mail/sales';
 import { paymentsClient } from '@/lib/payments/client';
 import { runSaleSweep, SALE_SWEEP_CRON, SALE_SWEEP_QUEUE } from './jobs';
 import { log, withJobRunId } from '@/lib/log';
+import { DEPOSIT_RELEASE_CRON, DEPOSIT_RELEASE_QUEUE, runDepositReleaseRetry } from '@/lib/deposits/jobs';
 
 // Runs the scheduled sale sweep (./jobs.ts) on pg-boss, in the app process, the same way the reminder
 // sweep runs (lib/reminders/jobs.ts): the schedule lives in PostgreSQL, so several app processes share
@@ -29,6 +30,15 @@ function startSaleJobs(connectionString: string): Promise<PgBoss> {
         await sendReceipts(db, run.receipts);
         if (run.checked || run.spacesNotReached)
           log.info({ job: 'sale-sweep', ...run, receipts: run.receipts.length }, 'sale sweep');
+      }),
+    );
+    // The retry of deposits whose release the processor did not take (lib/deposits/jobs.ts), same boss.
+    await boss.createQueue(DEPOSIT_RELEASE_QUEUE, { name: DEPOSIT_RELEASE_QUEUE, policy: 'stately', retryLimit: 3 });
+    await boss.schedule(DEPOSIT_RELEASE_QUEUE, DEPOSIT_RELEASE_CRON, {}, { tz: 'UTC' });
+    await boss.work(DEPOSIT_RELEASE_QUEUE, () =>
+      withJobRunId(async () => {
+        const run = await runDepositReleaseRetry(db, paymentsClient, { now: now() });
+        if (run.checked) log.info({ job: 'deposit-release-retry', ...run }, 'deposit release retry');
       }),
     );
     return boss;

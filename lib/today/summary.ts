@@ -21,6 +21,8 @@ export type TodaySummary = {
     /** Parts on the to-order list (lib/restock/to-order.ts), and order lists past their expected day. */
     toOrder: number;
     overdueOrders: { id: string; supplierName: string; sentAt: Date; expectedAt: Date }[];
+    /** Deposits whose refund the processor has not taken yet (release pending; lib/deposits/jobs.ts retries). */
+    releasePending: { loanId: string; item: string; borrower: string | null }[];
   };
   treasurer?: {
     pendingSales: number;
@@ -103,6 +105,18 @@ export async function todaySummary(db: Db, ctx: Ctx): Promise<TodaySummary> {
       boxesOut: await boxesOutOfService(db, ctx),
       toOrder: (await whatToOrder(db, ctx)).lineCount,
       overdueOrders: await overdueOrders(db, ctx),
+      releasePending: (
+        await scoped(db, ctx)
+          .selectFrom('deposits')
+          .innerJoin('loans', 'loans.id', 'deposits.loan_id')
+          .leftJoin('kit_boxes', 'kit_boxes.id', 'loans.kit_box_id')
+          .leftJoin('users', 'users.id', 'loans.borrower_id')
+          .select(['deposits.loan_id', 'kit_boxes.name as box', 'users.name as borrower'])
+          .where('deposits.status', '=', 'releasing')
+          .orderBy('deposits.release_started_at')
+          .limit(6)
+          .execute()
+      ).map((d) => ({ loanId: d.loan_id, item: d.box ?? 'loose parts', borrower: d.borrower })),
     };
   }
 

@@ -10,12 +10,14 @@ import { chainParts } from '../integration/loans-fixtures';
 // kit's induction; the member borrows a box of a kit that takes a $40.00 deposit and pays it on the
 // payments fake's pay page; the member brings it back one LED short; the steward confirms the return and
 // charges $12.00 for the missing LED, kept from the deposit, the other $28.00 going back to the card; the
-// treasurer sees the deposit taken and given back, and the charge, in the month. A space of its own.
+// member pays a charge for a broken meter (no deposit on it) by card on the fake's pay page; the
+// treasurer sees the deposit taken and given back, and the charges, in the month. A space of its own.
 
 const db = testDb();
 let browser: Browser;
 let people: Record<'steward' | 'member' | 'treasurer', { id: string; email: string }>;
 let boxId: string;
+let meterLoanId: string;
 
 const LED = 'Test white LED star';
 
@@ -50,6 +52,17 @@ beforeAll(async () => {
   const b = await steward.post('/api/kits/boxes', { templateId });
   expect(b.status).toBe(201);
   boxId = ((await b.json()) as { box: { id: string } }).box.id;
+
+  // A loose loan without a deposit that came back broken: a charge the member owes in full.
+  const meter = await makeUnit(db, space.id, parts.meter.id, bin.id);
+  const lent = await steward.post('/api/loans', { unitIds: [meter.id], borrowerId: people.member.id });
+  expect(lent.status).toBe(201);
+  meterLoanId = ((await lent.json()) as { loan: { id: string } }).loan.id;
+  const lines = ((await (await steward.get(`/api/loans/${meterLoanId}`)).json()) as { loan: { lines: { id: string }[] } }).loan.lines;
+  const back = await steward.post(`/api/loans/${meterLoanId}/return`, {
+    lines: [{ lineId: lines[0].id, returnedQty: 0, condition: 'damaged', chargeMinor: 1500, chargeNote: 'Cracked case' }],
+  });
+  expect(back.status).toBe(200);
 });
 afterAll(async () => {
   await browser?.close();
@@ -139,6 +152,23 @@ describe('a deposit from sign-off to the books', () => {
     expect(d).toMatchObject({ status: 'released', kept_minor: 1200, released_minor: 2800 });
   });
 
+  test('the member pays what they owe by card on the pay page', async () => {
+    const page = await signedInPage('member', 'dark');
+    await page.goto(`/loans/${meterLoanId}`);
+    await page.getByText('Still owed: $15.00').waitFor();
+    await check(page);
+    await page.getByRole('button', { name: 'Pay $15.00 by card' }).click();
+    await page.waitForURL((u) => u.pathname.startsWith('/pay/'));
+    await page.getByRole('heading', { name: 'Pay $15.00' }).waitFor();
+    await page.getByLabel('Card number').fill('4242 4242 4242 4242');
+    await page.getByRole('button', { name: 'Pay', exact: true }).click();
+    await page.waitForURL((u) => u.pathname === `/loans/${meterLoanId}` && u.searchParams.get('charges') === 'paid');
+    await reloadUntil(page, '$15.00 paid');
+    expect(await page.getByText('Still owed').count()).toBe(0);
+    await check(page);
+    await page.context().close();
+  });
+
   test('the treasurer sees the deposit taken and given back, and the charge, in the month', async () => {
     const page = await signedInPage('treasurer');
     const month = monthOf(new Date(), 'UTC');
@@ -146,8 +176,14 @@ describe('a deposit from sign-off to the books', () => {
     await page.getByTestId('deposits-taken').waitFor();
     expect(await page.getByTestId('deposits-taken').innerText()).toBe('$40.00');
     expect(await page.getByTestId('deposits-released').innerText()).toBe('$28.00');
-    expect(await page.getByTestId('charges').innerText()).toBe('$12.00');
+    expect(await page.getByTestId('charges').innerText()).toBe('$27.00');
     expect(await page.getByTestId('charges-from-deposits').innerText()).toBe('$12.00');
+    // The month's charges and deposits in their own tile: raised, paid by card, held, kept and given back.
+    expect(await page.getByTestId('charges-raised').innerText()).toBe('$27.00');
+    expect(await page.getByTestId('charges-paid-card').innerText()).toBe('$15.00');
+    expect(await page.getByTestId('deposits-held').innerText()).toBe('$40.00');
+    expect(await page.getByTestId('deposits-kept').innerText()).toBe('$12.00');
+    expect(await page.getByTestId('deposits-given-back').innerText()).toBe('$28.00');
     await check(page);
     await page.context().close();
   });

@@ -130,6 +130,7 @@ export const MATRIX: Record<string, Row> = {
   'POST /api/loans/[id]/cancel': { who: 'user', ok: 404 },
   'POST /api/loans/[id]/deposit-release': { who: W, ok: 404 },
   'POST /api/people/[id]/settle-charges': { who: W, ok: [400, 404], body: EMPTY },
+  'POST /api/people/[id]/pay-charges': { who: 'user', ok: 404, body: EMPTY },
   // Restocking (issue 13): suppliers, prices and orders are for stewards and admins only; admins set the
   // budget and approve overruns.
   'GET /api/suppliers': { who: W, ok: 200 },

@@ -41,6 +41,7 @@ const BODIES: Record<string, unknown> = {
   'POST /api/kits/boxes/[id]/take-apart': {},
   'POST /api/people/[id]/erase': { confirmEmail: 'nobody@tests.example' },
   'POST /api/people/[id]/settle-charges': { amountMinor: 100 },
+  'POST /api/people/[id]/pay-charges': {},
   'PATCH /api/inductions/[id]': { name: 'Taken over' },
   'POST /api/inductions/[id]/signoffs': { userId: randomUUID() },
   'PATCH /api/suppliers/[id]': { name: 'Taken over' },

@@ -24,6 +24,8 @@ import { marginsOfMonth } from '@/lib/books/margins-month';
 import { SweepButton } from '@/components/books/sweep-button';
 import { ToInvestigate } from '@/components/books/to-investigate';
 import { Totals } from '@/components/books/totals';
+import { ChargesMonth } from '@/components/books/charges-month';
+import { chargesOfMonth } from '@/lib/charges/month';
 import { PageTitle } from '@/components/ui/page-title';
 
 export const metadata = { title: 'Books' };
@@ -75,6 +77,7 @@ export default async function BooksPage({
   const chart = await salesByMonthAndCategory(db, ctx.spaceId, month, 12);
   const spend = await spendBesideSales(db, ctx, month);
   const margins = await marginsOfMonth(db, ctx, month);
+  const chargeMonth = await chargesOfMonth(db, ctx.spaceId, monthRange(month, timeZone));
   const ended = monthRange(month, timeZone).to <= now();
   const unresolved = report ? report.rows.filter(isUnresolved) : [];
 
@@ -166,6 +169,8 @@ export default async function BooksPage({
       <SpendBesideSales rows={spend.rows} currency={spend.currency} label={label} month={month} />
 
       <Margins rows={margins.rows} currency={margins.currency} label={label} />
+
+      <ChargesMonth month={chargeMonth} currency={currency} label={label} />
 
       <section aria-labelledby="chart" className="card space-y-3">
         <h2 id="chart" className="text-lg font-bold">

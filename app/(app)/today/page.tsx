@@ -87,6 +87,17 @@ export default async function TodayPage() {
               ))}
             </ul>
           ) : null}
+          {s.steward.releasePending.length ? (
+            <ul className="mt-3 text-sm" aria-label="Deposits waiting to go back">
+              {s.steward.releasePending.map((d) => (
+                <li key={d.loanId}>
+                  <Link href={`/loans/${d.loanId}`}>Deposit for {d.item}</Link>
+                  {d.borrower ? ` (${d.borrower})` : ''}: release pending, the card processor has not taken the refund yet;
+                  it is tried again every few minutes.
+                </li>
+              ))}
+            </ul>
+          ) : null}
           {s.steward.boxesOut.length ? (
             <div className="mt-3">
               <OutOfServiceList boxes={s.steward.boxesOut.slice(0, 6)} timeZone={tz} />

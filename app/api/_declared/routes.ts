@@ -86,6 +86,7 @@ import * as signoffsId from '../signoffs/[id]/route';
 import * as loansIdHandOver from '../loans/[id]/hand-over/route';
 import * as loansIdCancel from '../loans/[id]/cancel/route';
 import * as peopleIdSettleCharges from '../people/[id]/settle-charges/route';
+import * as peopleIdPayCharges from '../people/[id]/pay-charges/route';
 import * as loansIdDepositRelease from '../loans/[id]/deposit-release/route';
 // Restocking (issue 13): suppliers, offers, what to order, order lists, the budget.
 import * as suppliers from '../suppliers/route';
@@ -190,6 +191,7 @@ export const ROUTES: RouteModules = {
   '/api/loans/{id}/hand-over': loansIdHandOver,
   '/api/loans/{id}/cancel': loansIdCancel,
   '/api/people/{id}/settle-charges': peopleIdSettleCharges,
+  '/api/people/{id}/pay-charges': peopleIdPayCharges,
   '/api/loans/{id}/deposit-release': loansIdDepositRelease,
   // Restocking (issue 13)
   '/api/suppliers': suppliers,

@@ -117,3 +117,35 @@ describe('the filing CSV', () => {
     });
   });
 });
+
+describe('the filing CSV: charges and deposits (issue 16)', () => {
+  const withCharges: Filing = {
+    ...filing,
+    charges: [
+      { section: 'charge raised', at, person: 'Ines', item: 'Test meter', method: '', amountMinor: 2500, note: 'damaged', ref: 'ch-1' },
+      { section: 'charge paid', at, person: 'Ines', item: 'towards charges', method: 'card', amountMinor: 2500, note: '', ref: 'pi_9' },
+      { section: 'deposit held', at, person: 'Odile', item: 'deposit for Box 1', method: 'card', amountMinor: 5000, note: '', ref: 'pi_8' },
+      { section: 'deposit kept', at, person: 'Odile', item: 'deposit for Box 1', method: '', amountMinor: 1200, note: 'kept for charges', ref: 'd-1' },
+      { section: 'deposit given back', at, person: 'Odile', item: 'deposit for Box 1', method: 'card', amountMinor: 3800, note: '', ref: 're_7' },
+    ],
+  };
+  const rows = Papa.parse<Record<string, string>>(filingCsv(withCharges, { month: '2026-11', timeZone: 'America/Chicago', currency: 'USD' }), {
+    header: true,
+    skipEmptyLines: true,
+  }).data;
+
+  it('puts each in its own section after the others, with the person, amount in minor units and the processor’s id', () => {
+    const own = rows.filter((r) => ['charge raised', 'charge paid', 'deposit held', 'deposit kept', 'deposit given back'].includes(r.section));
+    expect(own.map((r) => [r.section, r.buyer, r.method, r.amount_minor, r.processor_ref])).toEqual([
+      ['charge raised', 'Ines', '', '2500', 'ch-1'],
+      ['charge paid', 'Ines', 'card', '2500', 'pi_9'],
+      ['deposit held', 'Odile', 'card', '5000', 'pi_8'],
+      ['deposit kept', 'Odile', '', '1200', 'd-1'],
+      ['deposit given back', 'Odile', 'card', '3800', 're_7'],
+    ]);
+    expect(own[0].when).toBe('2026-11-30T15:00:00-06:00');
+    // Held 50.00 = kept 12.00 + given back 38.00.
+    expect(Number(own[2].amount_minor)).toBe(Number(own[3].amount_minor) + Number(own[4].amount_minor));
+    expect(rows.slice(-5)).toEqual(own);
+  });
+});

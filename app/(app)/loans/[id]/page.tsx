@@ -15,6 +15,8 @@ import { orNotFound, pageId } from '../or-not-found';
 import { displayCode } from '@/labels/code';
 import { chainRoleWords } from '@/lib/domain';
 import { LoanMoneyCard } from '@/components/loans/loan-money';
+import { PayChargesByCard } from '@/components/charges/pay-by-card';
+import { owedBy } from '@/lib/charges/owed';
 
 export const metadata = { title: 'Loan' };
 
@@ -30,6 +32,8 @@ export default async function LoanPage({ params }: { params: Promise<{ id: strin
   const canGiveUp = loan.status === 'waiting' && (staff || loan.isMine);
   const { currency } = await spaceClock(db, ctx.spaceId);
   const owedHere = loan.charges.reduce((sum, c) => sum + c.amountMinor - c.fromDepositMinor - c.settledMinor, 0);
+  // Paying by card settles everything the borrower owes, this loan's charges and any others.
+  const owedInAll = owedHere > 0 && (staff || loan.isMine) ? await owedBy(db, ctx.spaceId, loan.borrower.id) : 0;
   const canRenew = loan.status === 'out' && loan.renewals < loan.maxRenewals && loan.waitingHolds === 0;
   return (
     <div className="mx-auto max-w-xl space-y-4">
@@ -146,6 +150,13 @@ export default async function LoanPage({ params }: { params: Promise<{ id: strin
       </section>
 
       <LoanMoneyCard deposit={loan.deposit} charges={loan.charges} isMine={loan.isMine} />
+      {owedInAll > 0 ? (
+        <PayChargesByCard
+          personId={loan.borrower.id}
+          loanId={loan.id}
+          label={`Pay ${formatMoney(owedInAll, currency)} by card${loan.isMine ? '' : ' (at the bench)'}`}
+        />
+      ) : null}
       {staff && owedHere > 0 ? (
         <ActionButton
           url={`/api/people/${loan.borrower.id}/settle-charges`}
