@@ -4,7 +4,7 @@ import '@fontsource/karla/400.css';
 import '@fontsource/karla/600.css';
 import '@fontsource/karla/700.css';
 import './globals.css';
-import { Providers } from '@/components/shell/providers';
+import { ZodJitless } from '@/components/shell/zod-jitless-boot';
 
 export const metadata: Metadata = {
   title: { default: 'Ohmstead', template: '%s · Ohmstead' },
@@ -19,7 +19,8 @@ export default async function RootLayout({ children }: { children: React.ReactNo
   return (
     <html lang="en">
       <body className="min-h-screen font-sans">
-        <Providers>{children}</Providers>
+        <ZodJitless />
+        {children}
       </body>
     </html>
   );

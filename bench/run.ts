@@ -228,6 +228,9 @@ async function scanJsCase(member: Session | null) {
   const floor = frameworkFloor(DIST);
   say(`- ${floor.source}: ${floor.files} files, **${(floor.gzipBytes / 1024).toFixed(1)} kB gzipped**; the page is ${(worst / floor.gzipBytes).toFixed(2)} × the framework, ours ${((worst - floor.gzipBytes) / 1024).toFixed(1)} kB`);
   say(`- target ≤ 120 kB gzipped: ${verdict(worst <= 120 * 1024)}`);
+  // Not a target row: what a label's page (the phone row below) downloads, from the same manifests.
+  const label = firstLoadFromManifests(DIST, '/s/[code]/page');
+  if (label) say(`- for comparison, a label's page (/s/[code], every client leaf of a kit box or a part): ${(label.gzipBytes / 1024).toFixed(1)} kB gzipped, ours ${((label.gzipBytes - floor.gzipBytes) / 1024).toFixed(1)} kB`);
   say();
 }
 

@@ -1,5 +1,6 @@
 import Link from 'next/link';
 import type { Ctx } from '@/lib/auth/roles';
+import { phoneNavIcons } from './nav-icons';
 import { navFor, phoneBar } from './nav-items';
 import { PhoneNav } from './phone-nav';
 import { SpaceSwitcher } from './space-switcher';
@@ -56,7 +57,9 @@ export function AppHeader({ ctx }: { ctx: Ctx | null }) {
           </ul>
         </nav>
       ) : null}
-      {ctx ? <PhoneNav items={items} bar={phoneBar(items)} name={ctx.name} /> : null}
+      {ctx ? (
+        <PhoneNav items={items} bar={phoneBar(items)} name={ctx.name} icons={phoneNavIcons(items)} />
+      ) : null}
     </header>
   );
 }

@@ -1,37 +1,10 @@
 'use client';
-import {
-  ArrowLeftRight,
-  BookOpen,
-  Boxes,
-  CalendarDays,
-  Ellipsis,
-  Gauge,
-  Package,
-  ScanLine,
-  Settings,
-  ShoppingBasket,
-  Users,
-  X,
-  type LucideIcon,
-} from 'lucide-react';
 import Link from 'next/link';
 import { usePathname } from 'next/navigation';
 import { useEffect, useRef, useState } from 'react';
+import type { PhoneNavIcons } from './nav-icons';
 import type { NavItem } from './nav-items';
 import { SignOutButton } from './sign-out-button';
-
-const ICONS: Record<string, LucideIcon> = {
-  '/today': CalendarDays,
-  '/scan': ScanLine,
-  '/bench-check': Gauge,
-  '/shelf': Package,
-  '/kits': Boxes,
-  '/loans': ArrowLeftRight,
-  '/counter': ShoppingBasket,
-  '/books': BookOpen,
-  '/people': Users,
-  '/settings': Settings,
-};
 
 const isHere = (pathname: string, href: string) => pathname === href || pathname.startsWith(`${href}/`);
 
@@ -40,7 +13,18 @@ const isHere = (pathname: string, href: string) => pathname === href || pathname
  * used most, and "More", which opens every section of this person (and signing out) as a sheet. The sheet
  * is a modal <dialog>: focus moves into it, Escape closes it, and focus returns to "More".
  */
-export function PhoneNav({ items, bar, name }: { items: NavItem[]; bar: NavItem[]; name: string }) {
+export function PhoneNav({
+  items,
+  bar,
+  name,
+  icons,
+}: {
+  items: NavItem[];
+  bar: NavItem[];
+  name: string;
+  /** Drawn on the server (nav-icons.tsx), so the icon library is not in this component's JavaScript. */
+  icons: PhoneNavIcons;
+}) {
   const pathname = usePathname();
   const [open, setOpen] = useState(false);
   const sheet = useRef<HTMLDialogElement>(null);
@@ -70,7 +54,6 @@ export function PhoneNav({ items, bar, name }: { items: NavItem[]; bar: NavItem[
       >
         <ul className="grid grid-cols-5">
           {bar.map((n) => {
-            const Icon = ICONS[n.href] ?? Package;
             const here = isHere(pathname, n.href);
             return (
               <li key={n.href}>
@@ -81,7 +64,7 @@ export function PhoneNav({ items, bar, name }: { items: NavItem[]; bar: NavItem[
                     here ? 'text-accent dark:text-teal-300' : 'text-stone-700 dark:text-stone-200'
                   }`}
                 >
-                  <Icon aria-hidden className="size-5" />
+                  {icons.sections[n.href]}
                   {n.label}
                 </Link>
               </li>
@@ -99,7 +82,7 @@ export function PhoneNav({ items, bar, name }: { items: NavItem[]; bar: NavItem[
                 moreIsHere ? 'text-accent dark:text-teal-300' : 'text-stone-700 dark:text-stone-200'
               }`}
             >
-              <Ellipsis aria-hidden className="size-5" />
+              {icons.more}
               More
             </button>
           </li>
@@ -125,14 +108,13 @@ export function PhoneNav({ items, bar, name }: { items: NavItem[]; bar: NavItem[
               All sections
             </h2>
             <button type="button" className="btn-quiet min-h-11 px-3" onClick={() => setOpen(false)}>
-              <X aria-hidden className="size-5" />
+              {icons.close}
               Close
             </button>
           </div>
           <nav aria-label="All sections">
             <ul className="grid grid-cols-2 gap-2">
               {items.map((n) => {
-                const Icon = ICONS[n.href] ?? Package;
                 const here = isHere(pathname, n.href);
                 return (
                   <li key={n.href}>
@@ -146,7 +128,7 @@ export function PhoneNav({ items, bar, name }: { items: NavItem[]; bar: NavItem[
                           : 'border-stone-200 text-stone-800 dark:border-stone-700 dark:text-stone-100'
                       }`}
                     >
-                      <Icon aria-hidden className="size-5 shrink-0" />
+                      {icons.sections[n.href]}
                       {n.label}
                     </Link>
                   </li>

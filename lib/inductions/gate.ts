@@ -27,27 +27,36 @@ export async function missingInductions(
   at: Date,
 ): Promise<MissingInduction[]> {
   const categories = [...new Set(need.categories)];
-  const byTemplate = need.templateId
-    ? await scoped(db, { spaceId })
-        .selectFrom('kit_template_inductions as k')
-        .innerJoin('inductions as i', (j) => j.onRef('i.id', '=', 'k.induction_id').onRef('i.space_id', '=', 'k.space_id'))
-        .innerJoin('kit_templates as t', (j) => j.onRef('t.id', '=', 'k.template_id').onRef('t.space_id', '=', 'k.space_id'))
-        .select(['i.id', 'i.name', 't.name as why'])
-        .where('k.space_id', '=', spaceId)
-        .where('k.template_id', '=', need.templateId)
-        .where('i.archived_at', 'is', null)
-        .execute()
-    : [];
-  const byCategory = categories.length
-    ? await scoped(db, { spaceId })
-        .selectFrom('category_inductions as c')
-        .innerJoin('inductions as i', (j) => j.onRef('i.id', '=', 'c.induction_id').onRef('i.space_id', '=', 'c.space_id'))
-        .select(['i.id', 'i.name', 'c.category'])
-        .where('c.space_id', '=', spaceId)
-        .where('c.category', 'in', categories)
-        .where('i.archived_at', 'is', null)
-        .execute()
-    : [];
+  // The kit's inductions and the categories' are independent reads: side by side.
+  const [byTemplate, byCategory] = await Promise.all([
+    need.templateId
+      ? scoped(db, { spaceId })
+          .selectFrom('kit_template_inductions as k')
+          .innerJoin('inductions as i', (j) =>
+            j.onRef('i.id', '=', 'k.induction_id').onRef('i.space_id', '=', 'k.space_id'),
+          )
+          .innerJoin('kit_templates as t', (j) =>
+            j.onRef('t.id', '=', 'k.template_id').onRef('t.space_id', '=', 'k.space_id'),
+          )
+          .select(['i.id', 'i.name', 't.name as why'])
+          .where('k.space_id', '=', spaceId)
+          .where('k.template_id', '=', need.templateId)
+          .where('i.archived_at', 'is', null)
+          .execute()
+      : [],
+    categories.length
+      ? scoped(db, { spaceId })
+          .selectFrom('category_inductions as c')
+          .innerJoin('inductions as i', (j) =>
+            j.onRef('i.id', '=', 'c.induction_id').onRef('i.space_id', '=', 'c.space_id'),
+          )
+          .select(['i.id', 'i.name', 'c.category'])
+          .where('c.space_id', '=', spaceId)
+          .where('c.category', 'in', categories)
+          .where('i.archived_at', 'is', null)
+          .execute()
+      : [],
+  ]);
   if (!byTemplate.length && !byCategory.length) return [];
 
   const byId = new Map<string, MissingInduction>();
@@ -99,7 +108,9 @@ export function inductionRefusal(
   opts: { self: boolean; timeZone: string },
 ): { message: string; fields: Record<string, string[]> } {
   const items = missing.map((m) => {
-    const state = m.expiredAt ? `sign-off ran out on ${formatDate(m.expiredAt, opts.timeZone)}` : 'no sign-off yet';
+    const state = m.expiredAt
+      ? `sign-off ran out on ${formatDate(m.expiredAt, opts.timeZone)}`
+      : 'no sign-off yet';
     return `“${m.name}” (needed for ${m.neededBy.join(' and ')}; ${state})`;
   });
   const whom = stewards.length

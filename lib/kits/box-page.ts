@@ -5,7 +5,8 @@ import { spaceMembers } from '@/lib/loans/queries';
 import { previewLoan, type Preview } from '@/lib/loans/preview';
 import { formatMoney } from '@/lib/money';
 import { spaceClock } from '@/lib/sales/periods';
-import { getBox, type BoxDetail } from './box-detail';
+import { boxLines, type SelectedBox } from '@/lib/loans/selection';
+import { boxDetail, boxHead, type BoxDetail } from './box-detail';
 import { upkeepChoices, type UpkeepChoices } from './upkeep';
 
 export type BoxPage = {
@@ -27,9 +28,20 @@ export type BoxPage = {
  */
 export async function boxPage(db: Db, ctx: Ctx, kitBoxId: string): Promise<BoxPage> {
   const staff = isStaff(ctx);
+  // The box and its contents are read once, for the page and for the check alike.
+  const [head, lines] = await Promise.all([boxHead(db, ctx, kitBoxId), boxLines(db, ctx.spaceId, kitBoxId)]);
+  const selected: SelectedBox = {
+    id: head.id,
+    name: head.name,
+    code: head.code,
+    state: head.state,
+    templateId: head.templateId,
+    templateName: head.templateName,
+    locationName: head.locationName,
+  };
   const [box, preview, members, upkeep] = await Promise.all([
-    getBox(db, ctx, kitBoxId),
-    previewLoan(db, ctx, { kitBoxId }),
+    boxDetail(db, ctx, head, lines),
+    previewLoan(db, ctx, { kitBoxId }, { resolved: { box: selected, lines } }),
     staff ? spaceMembers(db, ctx) : Promise.resolve([]),
     // Upkeep of a box that is out or retired is not offered; the choices are cheap, so they are read
     // beside the box and dropped below when its state says so.

@@ -13,7 +13,13 @@ import { standingRefusal } from '@/lib/rules/standing';
 import { computeDueAt } from './due';
 import { limitReached, openLoanCount } from './lock';
 import type { OwnParts, Selection } from './schemas';
-import { chainRoleOf, resolveSelection, type SelectedBox, type SelectionLine } from './selection';
+import {
+  chainRoleOf,
+  resolveSelection,
+  type ResolvedSelection,
+  type SelectedBox,
+  type SelectionLine,
+} from './selection';
 import { loanSettings } from './settings';
 import { categoryDeposit } from '@/lib/deposits/take';
 import { spaceClock } from '@/lib/sales/periods';
@@ -53,7 +59,12 @@ export async function previewLoan(
   db: Db,
   ctx: Ctx,
   sel: Selection,
-  opts: { borrowerId?: string; ownParts?: OwnParts } = {},
+  opts: {
+    borrowerId?: string;
+    ownParts?: OwnParts;
+    /** The selection as the caller already read it (the box page reads a box and its lines once for both). */
+    resolved?: ResolvedSelection;
+  } = {},
 ): Promise<Preview> {
   // Only stewards and admins look at a loan for someone else (a steward lending at the bench).
   if (opts.borrowerId && opts.borrowerId !== ctx.userId && !isStaff(ctx))
@@ -69,15 +80,28 @@ export async function previewLoan(
       .executeTakeFirst();
     if (!member) throw new NotFoundError('That person is not a member of this space.');
   }
-  const settings = await loanSettings(db, ctx.spaceId);
-  const { box, lines } = await resolveSelection(db, ctx.spaceId, sel);
-  const missing = await missingInductions(
-    db,
-    ctx.spaceId,
-    borrowerId,
-    { templateId: box?.templateId ?? null, categories: lines.map((l) => l.category) },
-    now(),
-  );
+  if (opts.resolved && !('kitBoxId' in sel && opts.resolved.box?.id === sel.kitBoxId))
+    throw new Error('previewLoan: the resolved selection is not the one asked about');
+  // The reads that need nothing but the selection and the borrower run side by side.
+  const [settings, { box, lines }, readyFor, openLoans] = await Promise.all([
+    loanSettings(db, ctx.spaceId),
+    opts.resolved ?? resolveSelection(db, ctx.spaceId, sel),
+    readyHoldTargets(db, ctx.spaceId, borrowerId),
+    openLoanCount(db, ctx.spaceId, borrowerId),
+  ]);
+  const [missing, standing] = await Promise.all([
+    missingInductions(
+      db,
+      ctx.spaceId,
+      borrowerId,
+      { templateId: box?.templateId ?? null, categories: lines.map((l) => l.category) },
+      now(),
+    ),
+    standingRefusal(db, ctx.spaceId, borrowerId, settings.rules, now(), {
+      self: borrowerId === ctx.userId,
+      timeZone: settings.timeZone,
+    }),
+  ]);
   const inductions = missing.length
     ? {
         missing: missing.map((m) => m.name),
@@ -92,7 +116,6 @@ export async function previewLoan(
     : await looseOutcome(db, ctx.spaceId, borrowerId, lines, opts.ownParts, settings.ambientC);
 
   const unavailable: string[] = [];
-  const readyFor = await readyHoldTargets(db, ctx.spaceId, borrowerId);
   if (box && !(box.state === 'on_shelf' || (box.state === 'held' && readyFor.has(box.id))))
     unavailable.push(
       `${box.name} is ${box.state === 'held' ? 'held for someone else' : box.state.replace('_', ' ')}.`,
@@ -121,13 +144,7 @@ export async function previewLoan(
     }),
   );
 
-  const standing = await standingRefusal(db, ctx.spaceId, borrowerId, settings.rules, now(), {
-    self: borrowerId === ctx.userId,
-    timeZone: settings.timeZone,
-  });
   if (standing) unavailable.push(standing.message);
-
-  const openLoans = await openLoanCount(db, ctx.spaceId, borrowerId);
   if (openLoans >= settings.maxOpenLoans) unavailable.push(limitReached(settings.maxOpenLoans));
 
   const gate = gateFor(outcome);

@@ -10,6 +10,7 @@ import { partPage } from '@/lib/inventory/part-page';
 import { resolveCode, type Resolved } from '@/lib/inventory/resolve';
 import { BoxView } from '@/components/kits/box-view';
 import { PartView } from '@/components/shelf/part-view';
+import { QueryProvider } from '@/components/shell/query-provider';
 
 // A label's QR holds <base>/s/<code>: a phone's own camera lands here. A kit box or a part is shown right
 // here, rendered on the server (no redirect: on a phone's slow network one round trip less before the
@@ -52,7 +53,12 @@ export default async function LabelPage({ params }: { params: Promise<{ code: st
       if (err instanceof NotFoundError) notFound();
       throw err;
     });
-    return <BoxView data={data} userId={ctx.userId} />;
+    // The box's borrow, hold and upkeep buttons send through TanStack Query; a part's page needs no client.
+    return (
+      <QueryProvider>
+        <BoxView data={data} userId={ctx.userId} />
+      </QueryProvider>
+    );
   }
   if (found.kind === 'part') {
     const data = await partPage(db, ctx, found.targetId).catch((err: unknown) => {
