@@ -82,6 +82,8 @@ export function ReconTable({
       header: 'What happened',
       cell: (c) => {
         const r = c.row.original;
+        // Nothing to say on a matched row without a note: the cell stays empty (and off the phone's card).
+        if (!r.note && r.status === 'matched') return null;
         return (
           <div className="space-y-1">
             {r.note ? <p className="text-sm">{r.note}</p> : null}
