@@ -3,6 +3,7 @@ import type { Db } from '@/db/connect';
 import { scoped } from '@/db/scoped';
 import type { Ctx } from '@/lib/auth/roles';
 import type { PartCategory } from '@/lib/domain';
+import { measureOf } from '@/lib/inventory/measure';
 import type { FilingWriteOff } from '@/lib/reconcile/filing';
 import { costBases } from './cost-basis';
 import { costOf, costSourceWords, unitCostAt } from './unit-cost';
@@ -40,6 +41,7 @@ export async function writeOffsAtCost(
       'stock_movements.part_id',
       'parts.name',
       'parts.category',
+      'parts.sale_unit',
     ])
     .where('stock_movements.reason', 'in', WRITE_OFF_REASONS)
     .where((eb) =>
@@ -83,6 +85,7 @@ export async function writeOffsAtCost(
       part: m.name,
       category: m.category,
       accountCode: codeOf(m.category),
+      unit: measureOf(m.sale_unit),
       qtyDelta: delta,
       qty,
       costMinor: unit ? costOf(qty, unit) : null,

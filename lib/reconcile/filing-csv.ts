@@ -43,6 +43,7 @@ const COLUMNS = [
   'category',
   'account_code',
   'qty',
+  'unit',
   'unit_price_minor',
   'net_minor',
   'tax_minor',
@@ -74,6 +75,7 @@ export function filingCsv(f: Filing, c: Ctx): string {
       category: CATEGORY_WORDS[l.category],
       account_code: l.accountCode,
       qty: l.qty,
+      unit: l.unit,
       unit_price_minor: l.unitPriceMinor,
       net_minor: l.netMinor,
       tax_minor: l.taxMinor,
@@ -150,6 +152,7 @@ export function filingCsv(f: Filing, c: Ctx): string {
       account_code: w.accountCode,
       // Units written off: positive for a loss, negative when a count found more than the books held.
       qty: w.qty,
+      unit: w.unit,
       // At cost (lib/books/unit-cost.ts); blank when the cost is unknown, never a guessed 0.
       amount_minor: w.costMinor ?? '',
       note: [w.reason, w.costBasis, w.note].filter(Boolean).join('; '),
@@ -165,6 +168,7 @@ export function filingCsv(f: Filing, c: Ctx): string {
       category: CATEGORY_WORDS[p.category],
       account_code: p.accountCode,
       qty: p.units,
+      unit: p.unit,
       // What was paid for the line; the price per unit can be a fraction of a minor unit, so it is not a column.
       amount_minor: p.costMinor,
       note: `packs of ${p.packSize}, listed at ${p.listPackPriceMinor} a pack`,

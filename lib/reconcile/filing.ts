@@ -2,7 +2,8 @@ import 'server-only';
 import type { Db } from '@/db/connect';
 import { scoped } from '@/db/scoped';
 import type { Ctx } from '@/lib/auth/roles';
-import type { PartCategory, TaxMode } from '@/lib/domain';
+import type { Measure, PartCategory, TaxMode } from '@/lib/domain';
+import { measureOf } from '@/lib/inventory/measure';
 import { writeOffsAtCost } from '@/lib/books/write-offs';
 import { boxCounts, type BoxCount } from '@/lib/honour-box/box';
 import { lineAmountMinor } from '@/lib/money';
@@ -32,6 +33,8 @@ export type FilingSaleLine = {
   part: string;
   category: PartCategory;
   accountCode: string;
+  /** What qty counts: items, metres or grams (lib/inventory/measure.ts). */
+  unit: Measure;
   qty: number;
   /** Units of the line refunded since (for margins: what the buyer kept). */
   refundedQty: number;
@@ -62,6 +65,7 @@ export type FilingWriteOff = {
   part: string;
   category: PartCategory;
   accountCode: string;
+  unit: Measure;
   qtyDelta: number;
   /** Units written off: positive for a loss, negative when a count found more than the books held. */
   qty: number;
@@ -180,6 +184,7 @@ export async function filingSaleLines(
       'users.name as buyer',
       'parts.name as part',
       'parts.category',
+      'parts.sale_unit',
       'sale_lines.id',
       'sale_lines.qty',
       'sale_lines.refunded_qty',
@@ -217,6 +222,7 @@ export async function filingSaleLines(
         part: r.part,
         category: r.category,
         accountCode: codeOf(r.category),
+        unit: measureOf(r.sale_unit),
         qty: Number(r.qty),
         refundedQty: Number(r.refunded_qty),
         unitPriceMinor: r.unit_price_minor,

@@ -2,7 +2,8 @@ import 'server-only';
 import type { Db } from '@/db/connect';
 import { scoped } from '@/db/scoped';
 import type { Ctx } from '@/lib/auth/roles';
-import type { PartCategory } from '@/lib/domain';
+import type { Measure, PartCategory } from '@/lib/domain';
+import { measureOf } from '@/lib/inventory/measure';
 
 // Purchases received: every receipt line of a period at the price paid (money out, recorded when the
 // goods arrive; no processor involved). One reader for the Books' spend beside sales, the filing file's
@@ -18,6 +19,8 @@ export type PurchaseLine = {
   part: string;
   sku: string;
   category: PartCategory;
+  /** What units counts: items, metres or grams. */
+  unit: Measure;
   units: number;
   packSize: number;
   /** The pack price the list was sent with; the price paid may differ (costMinor is what was paid). */
@@ -45,6 +48,7 @@ export async function purchasesReceived(db: Db, ctx: Pick<Ctx, 'spaceId'>, range
       'parts.name as part',
       'parts.sku',
       'parts.category',
+      'parts.sale_unit',
       'order_receipt_lines.units',
       'order_lines.pack_size',
       'order_lines.pack_price_minor',
@@ -65,6 +69,7 @@ export async function purchasesReceived(db: Db, ctx: Pick<Ctx, 'spaceId'>, range
     part: r.part,
     sku: r.sku,
     category: r.category,
+    unit: measureOf(r.sale_unit),
     units: Number(r.units),
     packSize: Number(r.pack_size),
     listPackPriceMinor: r.pack_price_minor,

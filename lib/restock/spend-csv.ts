@@ -18,6 +18,7 @@ const COLUMNS = [
   'category',
   'account_code',
   'units',
+  'unit',
   'pack_size',
   'listed_pack_price_minor',
   'paid_minor',
@@ -41,6 +42,8 @@ export function spendCsv(
       category: CATEGORY_WORDS[l.category],
       account_code: c.accountCodes[l.category] ?? '',
       units: l.units,
+      // What `units` counts: each, metre or gram (a reel of wire is bought by the metre).
+      unit: l.unit,
       pack_size: l.packSize,
       listed_pack_price_minor: l.listPackPriceMinor,
       paid_minor: l.costMinor,

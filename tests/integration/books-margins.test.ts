@@ -210,12 +210,12 @@ describe('the spend CSV', () => {
     expect(parsed.errors).toEqual([]);
     expect(parsed.meta.fields).toEqual([
       'received_at', 'month', 'supplier', 'order_list', 'item', 'sku', 'category', 'account_code',
-      'units', 'pack_size', 'listed_pack_price_minor', 'paid_minor', 'currency', 'received_by',
+      'units', 'unit', 'pack_size', 'listed_pack_price_minor', 'paid_minor', 'currency', 'received_by',
     ]);
-    expect(parsed.data.map((r) => [r.item, r.units, r.paid_minor])).toEqual([
-      ['Star pads', '30', '900'],
-      ['Star pads', '10', '500'],
-      ['Bench driver', '1', '1234'],
+    expect(parsed.data.map((r) => [r.item, r.units, r.unit, r.paid_minor])).toEqual([
+      ['Star pads', '30', 'each', '900'],
+      ['Star pads', '10', 'each', '500'],
+      ['Bench driver', '1', 'each', '1234'],
     ]);
     for (const r of parsed.data) {
       expect(r.received_at).toMatch(/\+00:00$|Z$/); // the space runs on UTC

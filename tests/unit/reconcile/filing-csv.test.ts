@@ -11,24 +11,24 @@ const at = new Date('2026-11-30T21:00:00Z'); // 15:00 in Chicago (UTC−06:00)
 const filing: Filing = {
   saleLines: [
     // Card sale: lines 100 + 100 at 8.25 % added: tax 16.5 → 17, spread by largest remainder 9 + 8.
-    { saleId: '00000000-0000-4000-8000-000000000001', partId: 'p-pad', refundedQty: 0, at, method: 'card', channel: 'counter', buyer: 'Ines', part: 'Pad', category: 'consumable', accountCode: '4010', qty: 1, unitPriceMinor: 100, netMinor: 100, taxMinor: 9, grossMinor: 109, taxMode: 'exclusive', taxRateBp: 825 },
-    { saleId: '00000000-0000-4000-8000-000000000001', partId: 'p-lead', refundedQty: 1, at, method: 'card', channel: 'counter', buyer: 'Ines', part: 'Twin lead', category: 'wire', accountCode: '4020', qty: 1, unitPriceMinor: 100, netMinor: 100, taxMinor: 8, grossMinor: 108, taxMode: 'exclusive', taxRateBp: 825 },
-    { saleId: '00000000-0000-4000-8000-000000000002', partId: 'p-pad', refundedQty: 0, at, method: 'cash', channel: 'honour_box', buyer: 'Odile', part: 'Pad', category: 'consumable', accountCode: '4010', qty: 2, unitPriceMinor: 35, netMinor: 70, taxMinor: 0, grossMinor: 70, taxMode: 'exempt', taxRateBp: 0 },
+    { saleId: '00000000-0000-4000-8000-000000000001', partId: 'p-pad', refundedQty: 0, at, method: 'card', channel: 'counter', buyer: 'Ines', part: 'Pad', category: 'consumable', accountCode: '4010', unit: 'each', qty: 1, unitPriceMinor: 100, netMinor: 100, taxMinor: 9, grossMinor: 109, taxMode: 'exclusive', taxRateBp: 825 },
+    { saleId: '00000000-0000-4000-8000-000000000001', partId: 'p-lead', refundedQty: 1, at, method: 'card', channel: 'counter', buyer: 'Ines', part: 'Twin lead', category: 'wire', accountCode: '4020', unit: 'metre', qty: 1, unitPriceMinor: 100, netMinor: 100, taxMinor: 8, grossMinor: 108, taxMode: 'exclusive', taxRateBp: 825 },
+    { saleId: '00000000-0000-4000-8000-000000000002', partId: 'p-pad', refundedQty: 0, at, method: 'cash', channel: 'honour_box', buyer: 'Odile', part: 'Pad', category: 'consumable', accountCode: '4010', unit: 'each', qty: 2, unitPriceMinor: 35, netMinor: 70, taxMinor: 0, grossMinor: 70, taxMode: 'exempt', taxRateBp: 0 },
   ],
   refunds: [
     { refundId: 'r1', saleId: '00000000-0000-4000-8000-000000000001', at, method: 'card', amountMinor: 108, taxMinor: 8, categories: 'wire', accountCodes: '4020', restock: true, processorRefundId: 're_1' },
   ],
   writeOffs: [
     // 3 pads crushed at 33 each (the price last paid): 99 written off.
-    { at, reason: 'damaged', part: 'Pad', category: 'consumable', accountCode: '4010', qtyDelta: -3, qty: 3, costMinor: 99, costBasis: 'at the price last paid', note: 'crushed' },
+    { at, reason: 'damaged', part: 'Pad', category: 'consumable', accountCode: '4010', unit: 'each', qtyDelta: -3, qty: 3, costMinor: 99, costBasis: 'at the price last paid', note: 'crushed' },
     // A bin count found 2 more than the books held: −66 written off.
-    { at, reason: 'count', part: 'Pad', category: 'consumable', accountCode: '4010', qtyDelta: 2, qty: -2, costMinor: -66, costBasis: 'at the price last paid', note: '' },
+    { at, reason: 'count', part: 'Pad', category: 'consumable', accountCode: '4010', unit: 'each', qtyDelta: 2, qty: -2, costMinor: -66, costBasis: 'at the price last paid', note: '' },
     // A lost unit of a part nobody has a price for: cost unknown, left blank.
-    { at, reason: 'lost', part: 'Bench supply', category: 'supply', accountCode: '', qtyDelta: 0, qty: 1, costMinor: null, costBasis: 'cost unknown', note: 'not returned' },
+    { at, reason: 'lost', part: 'Bench supply', category: 'supply', accountCode: '', unit: 'each', qtyDelta: 0, qty: 1, costMinor: null, costBasis: 'cost unknown', note: 'not returned' },
   ],
   purchases: [
-    { receiptLineId: 'rl1', receivedAt: at, orderId: 'ab12cd34-0000-4000-8000-000000000009', orderRef: 'AB12CD34', supplier: 'Tallowmere Components', part: 'Pad', sku: 'PAD', category: 'consumable', accountCode: '4010', units: 30, packSize: 10, listPackPriceMinor: 330, costMinor: 1000, currency: 'USD', receivedBy: 'Odile' },
-    { receiptLineId: 'rl2', receivedAt: at, orderId: 'ab12cd34-0000-4000-8000-000000000009', orderRef: 'AB12CD34', supplier: 'Tallowmere Components', part: 'Twin lead', sku: 'LEAD', category: 'wire', accountCode: '4020', units: 25, packSize: 25, listPackPriceMinor: 1037, costMinor: 1037, currency: 'USD', receivedBy: 'Odile' },
+    { receiptLineId: 'rl1', receivedAt: at, orderId: 'ab12cd34-0000-4000-8000-000000000009', orderRef: 'AB12CD34', supplier: 'Tallowmere Components', part: 'Pad', sku: 'PAD', category: 'consumable', accountCode: '4010', unit: 'each', units: 30, packSize: 10, listPackPriceMinor: 330, costMinor: 1000, currency: 'USD', receivedBy: 'Odile' },
+    { receiptLineId: 'rl2', receivedAt: at, orderId: 'ab12cd34-0000-4000-8000-000000000009', orderRef: 'AB12CD34', supplier: 'Tallowmere Components', part: 'Twin lead', sku: 'LEAD', category: 'wire', accountCode: '4020', unit: 'metre', units: 25, packSize: 25, listPackPriceMinor: 1037, costMinor: 1037, currency: 'USD', receivedBy: 'Odile' },
   ],
   boxCounts: [
     { id: 'c1', countedAt: at.toISOString(), countedBy: 'Odile', since: null, carriedMinor: 0, cashSalesMinor: 70, cashRefundsMinor: 0, expectedMinor: 70, countedMinor: 60, differenceMinor: -10, note: 'short', banking: { id: 'b1', amountMinor: 60, reference: 'Slip 1', bankedAt: at.toISOString(), bankedBy: 'Odile' } },
@@ -93,6 +93,18 @@ describe('the filing CSV', () => {
     const figure = (name: string) => totals.find((r) => r.figure === name)?.amount_minor;
     expect(figure('written off at cost')).toBe('33');
     expect(figure('purchases received at the price paid')).toBe('2037');
+  });
+
+  it('names the unit of every quantity (metres and grams may be fractions), and none where there is no quantity', () => {
+    const lines = rows.filter((r) => r.section === 'sale line');
+    expect(lines.map((r) => [r.item, r.qty, r.unit])).toEqual([
+      ['Pad', '1', 'each'],
+      ['Twin lead', '1', 'metre'],
+      ['Pad', '2', 'each'],
+    ]);
+    expect(rows.filter((r) => r.section === 'purchase received').map((r) => r.unit)).toEqual(['each', 'metre']);
+    expect(rows.filter((r) => r.section === 'write-off').every((r) => r.unit === 'each')).toBe(true);
+    expect(rows.filter((r) => r.section === 'tax collected').every((r) => r.unit === '')).toBe(true);
   });
 
   it('values write-offs at cost, and leaves an unknown cost blank (never 0) saying so', () => {
