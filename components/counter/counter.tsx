@@ -208,14 +208,7 @@ export function Counter({ currency, items: initial, me, buyers, tax, minCardMino
                         if (q !== null && q > 0) add(l.item, roundQty(q - l.qty));
                       }}
                     />
-                    <button
-                      type="button"
-                      className="btn-quiet px-3"
-                      onClick={() => add(l.item, -l.qty)}
-                      aria-label={`Remove ${l.item.name}`}
-                    >
-                      <Trash2 aria-hidden className="size-5" />
-                    </button>
+                    <RemoveLine name={l.item.name} onRemove={() => add(l.item, -l.qty)} />
                   </div>
                 ) : (
                   <div className="flex items-center gap-1">
@@ -244,14 +237,7 @@ export function Counter({ currency, items: initial, me, buyers, tax, minCardMino
                     >
                       <Plus aria-hidden className="size-5" />
                     </button>
-                    <button
-                      type="button"
-                      className="btn-quiet px-3"
-                      onClick={() => add(l.item, -l.qty)}
-                      aria-label={`Remove ${l.item.name}`}
-                    >
-                      <Trash2 aria-hidden className="size-5" />
-                    </button>
+                    <RemoveLine name={l.item.name} onRemove={() => add(l.item, -l.qty)} />
                   </div>
                 )}
                 <span className="font-semibold tabular-nums">
@@ -419,5 +405,14 @@ export function Counter({ currency, items: initial, me, buyers, tax, minCardMino
         </ul>
       </section>
     </div>
+  );
+}
+
+/** Takes a whole line out of the basket, whether it is counted in items or measured in metres or grams. */
+function RemoveLine({ name, onRemove }: { name: string; onRemove: () => void }) {
+  return (
+    <button type="button" className="btn-quiet px-3" onClick={onRemove} aria-label={`Remove ${name}`}>
+      <Trash2 aria-hidden className="size-5" />
+    </button>
   );
 }

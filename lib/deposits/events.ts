@@ -9,6 +9,7 @@ import { now } from '@/lib/clock';
 import { computeDueAt } from '@/lib/loans/due';
 import { giveUpWaitingLoan } from '@/lib/loans/cancel';
 import { loanSettings } from '@/lib/loans/settings';
+import { paymentMismatch } from '@/lib/sales/accept';
 import { recordRefusedPayment } from '@/lib/sales/refused';
 import { bookRelease } from './release';
 
@@ -46,12 +47,12 @@ export async function applyDepositEvent(trx: Db, d: Deposit, event: Stripe.Event
     case 'checkout.session.async_payment_succeeded': {
       const session = event.data.object as Stripe.Checkout.Session;
       if (session.payment_status !== 'paid') return done('deposit: session complete, not yet paid');
-      const why =
-        session.amount_total !== d.amount_minor
-          ? `the processor's amount (${session.amount_total ?? 'none'}) is not the deposit's (${d.amount_minor}), in minor units`
-          : session.currency?.toUpperCase() !== d.currency
-            ? `the processor's currency (${session.currency ?? 'none'}) is not the deposit's (${d.currency})`
-            : null;
+      // The sales' own rule (session, amount, currency); the session is the one the deposit was found by.
+      const why = paymentMismatch(
+        { checkout_session_id: d.checkout_session_id, total_minor: d.amount_minor, currency: d.currency },
+        { sessionId: session.id, amountMinor: session.amount_total, currency: session.currency },
+        'deposit',
+      );
       if (why) {
         await recordRefusedPayment(trx, {
           spaceId: d.space_id,
