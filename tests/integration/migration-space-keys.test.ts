@@ -79,6 +79,11 @@ beforeAll(async () => {
   // The demo, copied row for row into the 0004 schema (json_populate_recordset drops the columns 0004
   // does not have). Foreign keys are not checked while copying; 0005 checks every row when it adds its keys.
   const source = testDb();
+  const wholeNumberColumns = new Map<string, string[]>();
+  const ints = await sql<{ table_name: string; column_name: string }>`
+    select table_name, column_name from information_schema.columns
+    where table_schema = 'public' and data_type in ('integer', 'smallint', 'bigint')`.execute(fresh);
+  for (const r of ints.rows) wholeNumberColumns.set(r.table_name, [...(wholeNumberColumns.get(r.table_name) ?? []), r.column_name]);
   await fresh.transaction().execute(async (trx) => {
     await sql`set local session_replication_role = replica`.execute(trx);
     // Only the demo's rows: other test files leave rows that use later migrations' values (new loan states).
@@ -94,8 +99,16 @@ beforeAll(async () => {
               : cols.includes('space_id')
                 ? sql`where t.space_id in ${demo}`
                 : sql``;
-      const data = await sql<{ rows: unknown }>`select coalesce(json_agg(t), '[]'::json) as rows from ${sql.table(table)} t ${only}`.execute(source);
-      await sql`insert into ${sql.table(table)} select * from json_populate_recordset(null::${sql.table(table)}, ${JSON.stringify(data.rows[0].rows)}::json)`.execute(trx);
+      const data = await sql<{ rows: Record<string, unknown>[] }>`select coalesce(json_agg(t), '[]'::json) as rows from ${sql.table(table)} t ${only}`.execute(source);
+      // Today's demo counts wire in metres and solder in grams, with fractions (0014); 0004's quantity
+      // columns hold whole numbers, so those values copy rounded. What is tested is that 0005 keeps every
+      // row as the copy has it, not the copy's fidelity to today's schema.
+      const whole = wholeNumberColumns.get(table) ?? [];
+      const rows = data.rows[0].rows.map((r) => {
+        for (const c of whole) if (typeof r[c] === 'number' && !Number.isInteger(r[c])) r[c] = Math.round(r[c]);
+        return r;
+      });
+      await sql`insert into ${sql.table(table)} select * from json_populate_recordset(null::${sql.table(table)}, ${JSON.stringify(rows)}::json)`.execute(trx);
     }
   });
   before = await checksums(fresh, at0004);
