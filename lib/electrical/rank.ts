@@ -10,9 +10,9 @@
 // Each candidate carries a short reason.
 //
 // The search is exact but narrowed: pairs that certainly fail are not checked (a supply window per driver
-// from the checks that only get worse at the window's ends), and drivers are visited best possible drive
-// step first — once the list is full of ok pairs from a better step than the next driver can reach, the
-// rest cannot enter. A test and bench/suggest.ts compare the answers with the naive loop's.
+// from the checks that only get worse at the window's ends), and the rest are checked best bound first
+// (branch and bound, below) — once the list is full and its last entry ranks before every bound left, the
+// rest cannot enter. rank-oracle.test.ts and bench/suggest.ts compare the answers with the naive loop's.
 import { VERDICT_RANK, checkMargin, isAbove, isBelow, verdictAtMost } from './checks';
 import { evaluateKit } from './checkKit';
 import type { KitReport } from './report';
