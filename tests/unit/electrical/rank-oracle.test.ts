@@ -2,6 +2,7 @@ import fc from 'fast-check';
 import { describe, expect, it } from 'vitest';
 import {
   type DriverSpec,
+  checkKit,
   type RankQuery,
   type ShelfDriver,
   type ShelfSupply,
@@ -253,5 +254,41 @@ describe('the narrowed search answers exactly as the naive loop (seeded, on the 
       const ids = fast.candidates.map((c) => `${c.supplyId}+${c.driverId}`);
       expect(ids).toEqual(['s-a+d-x', 's-a+d-y', 's-a+d-z', 's-b+d-x', 's-b+d-y', 's-b+d-z', 's-c+d-x', 's-c+d-y', 's-c+d-z', 's-d+d-x', 's-d+d-y', 's-d+d-z'].slice(0, limit));
     }
+  });
+
+  // Six LEDs of Vf 2.8 / 3.0 / 3.4 V (the string is 20.4 V at most: series forward voltages add) on a 350 mA
+  // buck at 36 V, 0 % tolerance: the worst-case draw is 20.4 V × 0.35 A / 0.9 / 36 V = 0.220 A (energy
+  // balance), and on a 0.3 A supply its margin (0.27) is the smallest of all the checks.
+  const string: StringSpec = { count: 6, led: { vfMin: 2.8, vfTyp: 3.0, vfMax: 3.4, maxAmps: 0.7, maxWatts: 3 } };
+  const buck: DriverSpec = { type: 'buck', minInputVolts: 6, maxInputVolts: 60, outputAmps: 0.35 };
+  const heatSink = { count: 1, cPerW: 1 };
+
+  it('twins whose smallest margin is the supply current’s: a bound a hair short would drop the smaller ids', () => {
+    const supplies: ShelfSupply[] = ['s-d', 's-a', 's-c', 's-b'].map((id) => ({ id, supply: { volts: 36, tolerancePct: 0, maxAmps: 0.3 } }));
+    const drivers: ShelfDriver[] = ['d-z', 'd-x', 'd-y'].map((id) => ({ id, driver: buck }));
+    for (const limit of [1, 2, 4, 7]) {
+      const q: RankQuery = { string, supplies, drivers, limit, heatSink };
+      const fast = rankCandidates(q);
+      expect(fast.candidates).toEqual(rankCandidatesNaive(q).candidates);
+      const checks = fast.candidates[0].report.checks;
+      expect(checks.find((c) => c.id === 'supply-current')!.value).toBeCloseTo((20.4 * 0.35) / 0.9 / 36, 12);
+      expect(fast.candidates[0].margin).toBeCloseTo(1 - (20.4 * 0.35) / 0.9 / 36 / 0.3, 12);
+      expect(fast.candidates.map((c) => `${c.supplyId}+${c.driverId}`)).toEqual(
+        ['s-a+d-x', 's-a+d-y', 's-a+d-z', 's-b+d-x', 's-b+d-y', 's-b+d-z', 's-c+d-x'].slice(0, limit),
+      );
+    }
+  });
+
+  it('a supply drawn exactly to the 80 % line is ok and ranks before one drawn to 75 % (common practice (no source))', () => {
+    const amps = checkKit({ supply: { volts: 36, tolerancePct: 0, maxAmps: 10 }, driver: buck, string, heatSink }).figures.supplyAmps;
+    // Listed first and with the smaller id, the 75 % supply is checked first and fills a list of one.
+    const supplies: ShelfSupply[] = [
+      { id: 'a-75', supply: { volts: 36, tolerancePct: 0, maxAmps: amps / 0.75 } },
+      { id: 'z-80', supply: { volts: 36, tolerancePct: 0, maxAmps: amps / 0.8 } },
+    ];
+    const q: RankQuery = { string, supplies, drivers: [{ id: 'd', driver: buck }], limit: 1, heatSink };
+    const fast = rankCandidates(q);
+    expect(fast.candidates).toEqual(rankCandidatesNaive(q).candidates);
+    expect(fast.candidates.map((c) => [c.supplyId, c.verdict, c.supplyUse])).toEqual([['z-80', 'ok', 0.8]]);
   });
 });
