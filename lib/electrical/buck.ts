@@ -58,8 +58,9 @@ export function buck(ctx: KitContext, d: ResolvedBuck): DriverPart {
   if (d.maxOutputVolts !== undefined) checks.push(driverMaxOutput(ctx, d.maxOutputVolts));
   if (rippleAmps !== undefined) checks.push(rippleCheck(ctx, rippleAmps, amps, d.inductorHenries!));
   const how = rippleAmps !== undefined ? 'With ripple the LEDs see' : 'The driver sets';
-  const advice =
-    amps > led.maxAmps
+  const advice = !ctx.words
+    ? ''
+    : amps > led.maxAmps
       ? `Choose a driver of at most ${formatAmps(led.maxAmps)}.`
       : `Lower the ripple (a larger inductor or a faster switching frequency) or choose a driver of at most ${formatAmps(led.maxAmps - (rippleAmps ?? 0) / 2)}.`;
   checks.push(ledCurrent(ctx, peak, how, advice));

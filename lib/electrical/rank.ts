@@ -10,13 +10,14 @@
 // Each candidate carries a short reason.
 //
 // The search is exact but narrowed: pairs that certainly fail are not checked (a supply window per driver
-// from the checks that only get worse at the window's ends), and drivers are visited best possible drive
-// step first — once the list is full of ok pairs from a better step than the next driver can reach, the
-// rest cannot enter. A test and bench/suggest.ts compare the answers with the naive loop's.
-import { VERDICT_RANK, checkMargin, isAbove, isBelow } from './checks';
+// from the checks that only get worse at the window's ends), and the rest are checked best bound first
+// (branch and bound, below) — once the list is full and its last entry ranks before every bound left, the
+// rest cannot enter. rank-oracle.test.ts and bench/suggest.ts compare the answers with the naive loop's.
+import { VERDICT_RANK, checkMargin, isAbove, isBelow, verdictAtMost } from './checks';
 import { evaluateKit } from './checkKit';
 import type { KitReport } from './report';
-import { stringVolts, supplyWindow } from './circuit';
+import { constantPowerDraw, resistorAmps, stringVolts, supplyWindow } from './circuit';
+import { loopOhms } from './awg';
 import { formatAmps, formatPercent } from './format';
 import {
   type DriverSpec,
@@ -39,7 +40,7 @@ import {
   supplySpecSchema,
   wiringSpecSchema,
 } from './schema';
-import { SELV_DC_LIMIT_VOLTS } from './thresholds';
+import { SELV_DC_LIMIT_VOLTS, SUPPLY_CURRENT_CAUTION_FRACTION } from './thresholds';
 
 export type ShelfSupply = { id: string; supply: SupplySpec };
 export type ShelfDriver = { id: string; driver: DriverSpec };
@@ -188,7 +189,10 @@ function driveSteps(report: KitReport, d: ResolvedDriver, ledMaxAmps: number): n
 type Entry = Omit<Candidate, 'report' | 'reason'> & { spec: ResolvedKitSpec; driveSteps: number; useSteps: number };
 
 function entryOf(supplyId: string, driverId: string, spec: ResolvedKitSpec): Entry | null {
-  const report = evaluateKit(spec, { messages: false });
+  return entryFrom(supplyId, driverId, spec, evaluateKit(spec, { messages: false }));
+}
+
+function entryFrom(supplyId: string, driverId: string, spec: ResolvedKitSpec, report: KitReport): Entry | null {
   if (report.verdict === 'fail') return null;
   let margin = Infinity;
   for (const c of report.checks) margin = Math.min(margin, checkMargin(c));
@@ -292,22 +296,128 @@ function planFor(d: ResolvedDriver, p: Prepared): { bestSteps: number; lowFrom: 
   return { bestSteps, lowFrom, highTo };
 }
 
+// ---------------------------------------------------------------------------------------------------
+// Best first with bounds (branch and bound). Every pair gets a bound: a key no worse than the one the full
+// check could give it (verdict no better than `floor`, drive, supply use and margin no higher). Pairs are
+// checked in the order of their bounds; once the list is full and its last entry ranks before the next
+// bound, nothing left can enter. The bounds only ever say "certainly no better": the full check decides.
+
+/** A pair's best possible key (the ids are its own, exactly). */
+type Bound = { floor: number; drive: number; use: number; margin: number; supplyId: string; driverId: string };
+type PairBound = Bound & { s: PreparedSupply; plan: DriverPlan };
+
+/** Checks whose value and limit read nothing of the supply: the same verdict and margin for every supply. */
+const SUPPLY_FREE: Record<ResolvedDriver['type'], ReadonlySet<string>> = {
+  buck: new Set(['driver-max-output', 'led-power', 'led-junction']),
+  linear: new Set(['led-current', 'led-power', 'led-junction', 'wire-current-density']),
+  resistor: new Set(),
+};
+
+type DriverPlan = {
+  d: PreparedDriver;
+  lowFrom: number;
+  highTo: number;
+  /** Its supplies: indexes into the supplies sorted by low end, from `first` while the low end stays in. */
+  first: number;
+  bound: Bound;
+  probed: boolean;
+  /** Buck: its worst-case input power; linear: its average current (both read from the probe's report). */
+  inputWatts?: number;
+  supplyAmps?: number;
+};
+
+/** Slack for quantities computed beside the check (the same formulas, but a bound must never be short). */
+const up = (x: number) => x + Math.abs(x) * 1e-12;
+const down = (x: number) => x - Math.abs(x) * 1e-12;
+
+/** a before b by the ranking's keys; the ids count only when both are given (a driver's bound has none). */
+function boundCmp(a: Bound, b: Bound): number {
+  const c = a.floor - b.floor || b.drive - a.drive || b.use - a.use;
+  if (c) return c;
+  if (a.margin !== b.margin) return a.margin > b.margin ? -1 : 1;
+  if (!a.supplyId || !b.supplyId) return 0;
+  return a.supplyId < b.supplyId ? -1 : a.supplyId > b.supplyId ? 1 : a.driverId < b.driverId ? -1 : a.driverId > b.driverId ? 1 : 0;
+}
+
+const keyOf = (e: Entry): Bound => ({
+  floor: VERDICT_RANK[e.verdict],
+  drive: e.driveSteps,
+  use: e.useSteps,
+  margin: e.margin,
+  supplyId: e.supplyId,
+  driverId: e.driverId,
+});
+
+/** A binary heap, smallest first by `cmp`. */
+class Heap<T> {
+  private a: T[] = [];
+  constructor(private cmp: (x: T, y: T) => number) {}
+  get size() {
+    return this.a.length;
+  }
+  peek(): T | undefined {
+    return this.a[0];
+  }
+  push(x: T): void {
+    const a = this.a;
+    let i = a.push(x) - 1;
+    while (i > 0) {
+      const parent = (i - 1) >> 1;
+      if (this.cmp(a[i], a[parent]) >= 0) break;
+      [a[i], a[parent]] = [a[parent], a[i]];
+      i = parent;
+    }
+  }
+  pop(): T | undefined {
+    const a = this.a;
+    const top = a[0];
+    const last = a.pop();
+    if (a.length && last !== undefined) {
+      a[0] = last;
+      let i = 0;
+      for (;;) {
+        const l = 2 * i + 1;
+        const r = l + 1;
+        let m = i;
+        if (l < a.length && this.cmp(a[l], a[m]) < 0) m = l;
+        if (r < a.length && this.cmp(a[r], a[m]) < 0) m = r;
+        if (m === i) break;
+        [a[i], a[m]] = [a[m], a[i]];
+        i = m;
+      }
+    }
+    return top;
+  }
+}
+
 /** The pruned search; same answers as rankCandidatesNaive. */
 export function rankCandidates(q: RankQuery): RankResult {
   const p = prepare(q);
   const supplies = [...p.supplies].sort((a, b) => a.low - b.low);
   const lows = Float64Array.from(supplies, (s) => s.low);
-  const plans = p.drivers
-    .map((d) => ({ d, plan: planFor(d.spec, p) }))
-    .filter((x): x is { d: PreparedDriver; plan: NonNullable<ReturnType<typeof planFor>> } => x.plan !== null)
-    .sort((a, b) => b.plan.bestSteps - a.plan.bestSteps);
+  const sv = stringVolts(p.string);
+  const led = p.string.led;
+  const pwm = p.pwmDuty ?? 1;
+  const wireOhms = p.wiring ? loopOhms(p.wiring.lengthMeters, p.wiring.awg) : 0;
+  const maxNominal = supplies.reduce((m, s) => Math.max(m, s.spec.volts), -Infinity);
 
   const top: Entry[] = [];
   let checked = 0;
-  for (const { d, plan } of plans) {
-    // Full of ok pairs that all drive better than this driver can: nothing later can enter.
-    const last = top[p.limit - 1];
-    if (top.length === p.limit && last.verdict === 'ok' && last.driveSteps > plan.bestSteps) break;
+  const full = () => top.length === p.limit;
+  const last = () => keyOf(top[p.limit - 1]);
+  const evaluate = (s: PreparedSupply, d: PreparedDriver): KitReport => {
+    checked++;
+    const spec = specOf(p, s.spec, d.spec);
+    const report = evaluateKit(spec, { messages: false });
+    const e = entryFrom(s.id, d.id, spec, report);
+    if (e) offer(top, e, p.limit);
+    return report;
+  };
+
+  const drivers = new Heap<DriverPlan>((a, b) => boundCmp(a.bound, b.bound));
+  for (const d of p.drivers) {
+    const plan = planFor(d.spec, p);
+    if (!plan) continue;
     // First supply whose low end is not certainly short (binary search on the sorted low ends).
     let lo = 0;
     let hi = lows.length;
@@ -316,14 +426,110 @@ export function rankCandidates(q: RankQuery): RankResult {
       if (isBelow(lows[mid], plan.lowFrom)) lo = mid + 1;
       else hi = mid;
     }
-    // A supply's high end is at least its low end, so the scan stops once the low end is over highTo.
-    for (let si = lo; si < supplies.length && !isAbove(supplies[si].low, plan.highTo); si++) {
-      const s = supplies[si];
-      if (isAbove(s.high, plan.highTo)) continue;
-      checked++;
-      const e = entryOf(s.id, d.id, specOf(p, s.spec, d.spec));
-      if (e) offer(top, e, p.limit);
+    // A resistor's drive depends on the supply: at best what the shelf's highest nominal voltage gives.
+    const drive = d.spec.type === 'resistor' ? resistorDriveBound(maxNominal, sv.typ, d.spec.ohms, led.maxAmps) : plan.bestSteps;
+    const bound = { floor: 0, drive, use: step(1, SUPPLY_STEP), margin: Infinity, supplyId: '', driverId: '' };
+    drivers.push({ d, lowFrom: plan.lowFrom, highTo: plan.highTo, first: lo, bound, probed: false });
+  }
+
+  const pairs = new Heap<PairBound>(boundCmp);
+  const inWindow = (plan: DriverPlan, si: number) => !isAbove(supplies[si].low, plan.highTo);
+  for (;;) {
+    const nd = drivers.peek();
+    const np = pairs.peek();
+    if (nd && (!np || boundCmp(np, nd.bound) >= 0)) {
+      drivers.pop();
+      if (full() && boundCmp(last(), nd.bound) < 0) {
+        // Neither this driver nor any after it can place a pair in the list.
+        while (drivers.pop());
+        continue;
+      }
+      let si = nd.first;
+      while (si < supplies.length && inWindow(nd, si) && isAbove(supplies[si].high, nd.highTo)) si++;
+      if (si >= supplies.length || !inWindow(nd, si)) continue; // no supply on the shelf fits it
+      if (!nd.probed) {
+        // Probe: check the driver with its first supply (an ordinary pair, offered like the others) and
+        // read what holds for every supply from the checks that do not depend on it.
+        const report = evaluate(supplies[si], nd.d);
+        const free = SUPPLY_FREE[nd.d.spec.type];
+        let floor = 0;
+        let margin = Infinity;
+        for (const c of report.checks)
+          if (free.has(c.id)) {
+            floor = Math.max(floor, VERDICT_RANK[c.verdict]);
+            margin = Math.min(margin, checkMargin(c));
+          }
+        if (floor === VERDICT_RANK.fail) continue;
+        // A buck's LED current is at least its set current (the peak adds half the ripple).
+        if (nd.d.spec.type === 'buck') margin = Math.min(margin, up(checkMargin({ id: 'led-current', value: nd.d.spec.outputAmps, limit: led.maxAmps })));
+        nd.bound = { ...nd.bound, floor, margin };
+        nd.probed = true;
+        if (nd.d.spec.type === 'buck') nd.inputWatts = report.figures.inputWatts;
+        if (nd.d.spec.type === 'linear') nd.supplyAmps = report.figures.supplyAmps;
+        nd.first = si + 1;
+        drivers.push(nd);
+        continue;
+      }
+      for (; si < supplies.length && inWindow(nd, si); si++) {
+        const s = supplies[si];
+        if (isAbove(s.high, nd.highTo)) continue;
+        const b = pairBound(nd, s, sv, pwm, wireOhms, led.maxAmps);
+        if (b && !(full() && boundCmp(last(), b) < 0)) pairs.push(b);
+      }
+      continue;
     }
+    if (!np) break;
+    pairs.pop();
+    // Everything left (pairs and drivers) is bounded by no better than this pair.
+    if (full() && boundCmp(last(), np) < 0) break;
+    evaluate(np.s, np.plan.d);
   }
   return finish(top, p, checked);
+}
+
+function resistorDriveBound(nominal: number, sTyp: number, ohms: number, ledAmps: number): number {
+  return step(Math.min(1, up(Math.max(0, (nominal - sTyp) / ohms)) / ledAmps), DRIVE_STEP);
+}
+
+/**
+ * One pair's bound, or null when it certainly fails. The supply current is computed as the check computes
+ * it (rule 5: a buck's P_in drawn at the supply's low end through the wire, a linear's average current, a
+ * resistor's worst-corner current × D); its verdict and margin bound the pair's.
+ */
+function pairBound(
+  plan: DriverPlan,
+  s: PreparedSupply,
+  sv: { min: number; typ: number },
+  pwm: number,
+  wireOhms: number,
+  ledAmps: number,
+): PairBound | null {
+  const d = plan.d.spec;
+  let drive = plan.bound.drive;
+  let margin = plan.bound.margin;
+  let amps: number | undefined;
+  if (d.type === 'buck') {
+    if (plan.inputWatts !== undefined && Number.isFinite(plan.inputWatts)) amps = constantPowerDraw(s.low, wireOhms, plan.inputWatts).amps;
+  } else if (d.type === 'linear') amps = plan.supplyAmps;
+  else {
+    // Rule 9: no typical current, or a worst-corner current over the LEDs' rating, fails.
+    if (!isAbove(s.spec.volts, sv.typ)) return null;
+    const iMax = resistorAmps(s.high, sv.min, d.ohms);
+    if (isAbove(down(iMax), ledAmps)) return null;
+    margin = Math.min(margin, up(checkMargin({ id: 'led-current', value: iMax, limit: ledAmps })));
+    drive = Math.min(drive, resistorDriveBound(s.spec.volts, sv.typ, d.ohms, ledAmps));
+    amps = pwm * iMax;
+  }
+  let floor = plan.bound.floor;
+  let use = step(1, SUPPLY_STEP);
+  if (amps !== undefined && Number.isFinite(amps)) {
+    const max = s.spec.maxAmps;
+    const v = verdictAtMost(down(amps), max, SUPPLY_CURRENT_CAUTION_FRACTION * max);
+    if (v === 'fail') return null;
+    floor = Math.max(floor, VERDICT_RANK[v]);
+    use = step(Math.min(1, up(amps) / max), SUPPLY_STEP);
+    margin = Math.min(margin, up(checkMargin({ id: 'supply-current', value: down(amps), limit: max })));
+  }
+  if (Number.isNaN(margin)) margin = Infinity;
+  return { floor, drive, use, margin, supplyId: s.id, driverId: plan.d.id, s, plan };
 }

@@ -35,7 +35,8 @@ export function resistor(ctx: KitContext, d: ResolvedResistor): DriverPart {
   const checks: Check[] = [
     lowVoltageLimit(ctx),
     typicalCurrent(ctx, ampsTyp),
-    ledCurrent(ctx, ampsMax, 'At worst (supply high, low-Vf LEDs) the resistor lets', resistorAdvice(ctx)),
+    // The advice (an E24 search) is words only: skipped when the ranking runs without them.
+    ledCurrent(ctx, ampsMax, 'At worst (supply high, low-Vf LEDs) the resistor lets', ctx.words ? resistorAdvice(ctx) : ''),
     resistorPower(ctx, heat, d.watts),
     ledPower(ctx, ledWatts, led.maxWatts / led.vfMax),
     supplyCurrent(ctx, avg),
