@@ -6,7 +6,7 @@ import { scoped } from '@/db/scoped';
 import type { ChargePaymentsTable } from '@/db/types';
 import { audit } from '@/lib/audit/log';
 import { now } from '@/lib/clock';
-import { paymentMismatch } from '@/lib/sales/accept';
+import { refuseUnlessOwnSession } from '@/lib/sales/accept';
 import { recordRefusedPayment } from '@/lib/sales/refused';
 import { applyToCharges } from './apply';
 
@@ -68,24 +68,13 @@ export async function applyChargePaymentEvent(trx: Db, p: ChargePayment, event: 
     case 'checkout.session.async_payment_succeeded': {
       const session = event.data.object as Stripe.Checkout.Session;
       if (session.payment_status !== 'paid') return done('charge payment: session complete, not yet paid');
-      const why = paymentMismatch(
-        { checkout_session_id: p.checkout_session_id, total_minor: p.amount_minor, currency: p.currency },
-        { sessionId: session.id, amountMinor: session.amount_total, currency: session.currency },
-        'charge payment',
+      const why = await refuseUnlessOwnSession(
+        trx,
+        { id: p.id, spaceId: p.space_id, what: 'charge payment', checkout_session_id: p.checkout_session_id, total_minor: p.amount_minor, currency: p.currency },
+        event,
+        session,
       );
-      if (why) {
-        await recordRefusedPayment(trx, {
-          spaceId: p.space_id,
-          saleId: null,
-          type: event.type,
-          eventId: event.id,
-          objectId: session.id,
-          amountMinor: session.amount_total,
-          currency: session.currency,
-          why: `charge payment ${p.id}: ${why}`,
-        });
-        return done(`refused: ${why}`);
-      }
+      if (why) return done(`refused: ${why}`);
       // A page closed by us (what was owed changed) but paid before it closed still counts: money came in.
       const paid = await scoped(trx, space)
         .updateTable('charge_payments')

@@ -9,7 +9,7 @@ import { now } from '@/lib/clock';
 import { computeDueAt } from '@/lib/loans/due';
 import { giveUpWaitingLoan } from '@/lib/loans/cancel';
 import { loanSettings } from '@/lib/loans/settings';
-import { paymentMismatch } from '@/lib/sales/accept';
+import { refuseUnlessOwnSession } from '@/lib/sales/accept';
 import { recordRefusedPayment } from '@/lib/sales/refused';
 import { bookRelease } from './release';
 
@@ -48,24 +48,13 @@ export async function applyDepositEvent(trx: Db, d: Deposit, event: Stripe.Event
       const session = event.data.object as Stripe.Checkout.Session;
       if (session.payment_status !== 'paid') return done('deposit: session complete, not yet paid');
       // The sales' own rule (session, amount, currency); the session is the one the deposit was found by.
-      const why = paymentMismatch(
-        { checkout_session_id: d.checkout_session_id, total_minor: d.amount_minor, currency: d.currency },
-        { sessionId: session.id, amountMinor: session.amount_total, currency: session.currency },
-        'deposit',
+      const why = await refuseUnlessOwnSession(
+        trx,
+        { id: d.id, spaceId: d.space_id, what: 'deposit', checkout_session_id: d.checkout_session_id, total_minor: d.amount_minor, currency: d.currency },
+        event,
+        session,
       );
-      if (why) {
-        await recordRefusedPayment(trx, {
-          spaceId: d.space_id,
-          saleId: null,
-          type: event.type,
-          eventId: event.id,
-          objectId: session.id,
-          amountMinor: session.amount_total,
-          currency: session.currency,
-          why: `deposit ${d.id}: ${why}`,
-        });
-        return done(`refused: deposit ${why}`);
-      }
+      if (why) return done(`refused: deposit ${why}`);
       const paidAt = new Date(event.created * 1000);
       const pi = idOf(session.payment_intent);
       if (d.status === 'ended') {

@@ -1,4 +1,5 @@
 import 'server-only';
+import type Stripe from 'stripe';
 import type { Db } from '@/db/connect';
 import { scoped } from '@/db/scoped';
 import type { Sale } from '@/db/types';
@@ -45,6 +46,36 @@ export function paymentMismatch(
   if (theirs !== sale.currency.trim().toUpperCase())
     return `the processor's currency (${theirs ?? 'none'}) is not the ${what}'s (${sale.currency.trim()})`;
   return null;
+}
+
+/**
+ * A completed checkout session for something other than a sale (a deposit, a payment of charges), judged by
+ * the same rule: the reason it is not that payment's own, recorded for the treasurer once, or null. In the
+ * caller's transaction.
+ */
+export async function refuseUnlessOwnSession(
+  trx: Db,
+  own: { id: string; spaceId: string; what: string } & Pick<SaleMoney, 'checkout_session_id' | 'total_minor' | 'currency'>,
+  event: Stripe.Event,
+  session: Stripe.Checkout.Session,
+): Promise<string | null> {
+  const why = paymentMismatch(
+    own,
+    { sessionId: session.id, amountMinor: session.amount_total, currency: session.currency },
+    own.what,
+  );
+  if (why)
+    await recordRefusedPayment(trx, {
+      spaceId: own.spaceId,
+      saleId: null,
+      type: event.type,
+      eventId: event.id,
+      objectId: session.id,
+      amountMinor: session.amount_total,
+      currency: session.currency,
+      why: `${own.what} ${own.id}: ${why}`,
+    });
+  return why;
 }
 
 /** Pays the sale when the evidence is its own payment; otherwise records the refusal. In the caller's transaction. */
