@@ -1,5 +1,6 @@
 import { Kysely, PostgresDialect } from 'kysely';
 import pg from 'pg';
+import { preparedNameOf } from './built-once';
 import type { Database } from './types';
 
 // bigint (count(*), bigserial) as number: our counts stay far below 2^53.
@@ -23,8 +24,25 @@ export function createDb(connectionString: string, max = 10): Kysely<Database> {
   pool.on('error', (err) => console.error('[db] idle client error:', err.message));
   // A checked-out client whose server goes away emits 'error' itself; without a listener that would be an
   // uncaught exception. The query in flight still fails and the request answers 503.
-  pool.on('connect', (client) => client.on('error', (err) => console.error('[db] client error:', err.message)));
+  pool.on('connect', (client) => {
+    client.on('error', (err) => console.error('[db] client error:', err.message));
+    nameBuiltOnceStatements(client);
+  });
   return new Kysely<Database>({ dialect: new PostgresDialect({ pool }) });
 }
 
 export type Db = Kysely<Database>;
+
+/**
+ * Sends the statements of db/built-once.ts under their names, so this connection parses and plans each
+ * once (node-postgres prepares a named query on first use per connection). Kysely calls
+ * `client.query(text, values)`; every other statement passes through unchanged.
+ */
+function nameBuiltOnceStatements(client: pg.PoolClient): void {
+  const query = client.query.bind(client) as (...args: unknown[]) => unknown;
+  (client as unknown as { query: (...args: unknown[]) => unknown }).query = (...args: unknown[]) => {
+    const [text, values] = args;
+    const name = typeof text === 'string' && Array.isArray(values) ? preparedNameOf(text) : undefined;
+    return name ? query({ name, text, values }) : query(...args);
+  };
+}

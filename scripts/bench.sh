@@ -8,11 +8,16 @@
 #
 # `npm run bench -- --large` (or OHM_BENCH_LARGE=1) measures the target table once on the bench shelf, then
 # adds the large shape beside it (bench/large.ts: 50 spaces × 10,000 parts, 1,000,000 past loans) and
-# measures again, printing each ratio beside its one-space value (target: within 10 %).
+# measures again, printing each ratio beside its one-space value (target: within 10 %). Three rounds per
+# pass and no browser or script rows: about 9 minutes in all.
 #
 # `npm run bench -- --phone` measures only the browser-side rows: the scan page's first-load JavaScript and a
 # label's URL on a phone profile (bench/phone-profile.ts: Chromium at 390 px, 4× CPU, 150 ms / 1.6 Mb/s),
 # about 2 minutes after the build; its figures go to bench/out/latest-phone.md. The full run includes both.
+#
+# `npm run bench -- --profile` runs only bench/profile.ts: the build again under `node --cpu-prof`, loaded with
+# the lookup and then the borrow, its samples charged through the source maps to the files they were written
+# in; the summary goes to bench/out/profile.md, the .cpuprofile files beside it.
 #
 # The cluster runs without fsync, as the test cluster does (throwaway data); OHM_BENCH_DURABLE=1 runs it
 # with PostgreSQL's durable defaults instead, as `npm start` does.
@@ -64,10 +69,23 @@ large="${OHM_BENCH_LARGE:-0}"
 for a in "$@"; do
   [ "$a" = --large ] && large=1
   [ "$a" = --phone ] && export BENCH_ONLY=phone
+  [ "$a" = --profile ] && profile=1
 done
-log "measuring (about 6 minutes)"
+if [ "${profile:-0}" = 1 ]; then
+  log "profiling the way in (about 1 minute)"
+  BENCH_FIXTURE="$RUN/fixture.json" BENCH_DIST_DIR=.next-bench node node_modules/tsx/dist/cli.mjs bench/profile.ts
+  exit $?
+fi
 status=0
 export BENCH_APP_URL="$APP_BASE_URL" BENCH_RAW_URL="http://127.0.0.1:$RAW_PORT" BENCH_FIXTURE="$RUN/fixture.json" BENCH_DIST_DIR=.next-bench
+if [ "$large" = 1 ]; then
+  # Both passes measure only the target table, three rounds each unless BENCH_ROUNDS says otherwise, so the
+  # whole --large run stays under 10 minutes here; the browser and script rows belong to the plain run.
+  export BENCH_ROUNDS="${BENCH_ROUNDS:-3}" BENCH_SKIP_SCRIPTS=1
+  log "measuring on the bench shelf ($BENCH_ROUNDS rounds, about $((BENCH_ROUNDS * 65 / 60 + 1)) minutes)"
+else
+  log "measuring (about 7 minutes)"
+fi
 BENCH_RATIOS_OUT="$RUN/ratios.json" node node_modules/tsx/dist/cli.mjs bench/run.ts || status=1
 if [ "$large" = 1 ] && [ "$status" = 0 ]; then
   log "the large shape beside the bench shelf"

@@ -4,6 +4,7 @@ import { cookies, headers } from 'next/headers';
 import { redirect } from 'next/navigation';
 import { sql } from 'kysely';
 import { db } from '@/db';
+import { builtOnce } from '@/db/built-once';
 import type { Role } from '@/db/types';
 import { ForbiddenError, UnauthenticatedError } from '@/lib/errors';
 import { env } from '@/lib/env';
@@ -37,19 +38,18 @@ async function sessionClaims(): Promise<{ uid: string; sid: string } | null> {
   return null;
 }
 
-/** The signed-in person in their current space, or null. Cached per request; one query. */
-export const currentCtx = cache(async (): Promise<Ctx | null> => {
-  const claims = await sessionClaims();
-  if (!claims) return null;
-  // Still one query: the session must be open (not signed out, not expired), the account not switched
-  // off, and only the spaces where the person's access is on count. None left: nobody.
-  // across spaces: who the caller is, with every space where their access is on (the Ctx is made here).
-  const rows = await db
+/**
+ * Who holds this open session, with every space where their access is on. Built once per process
+ * (db/built-once.ts): it runs on every signed-in request.
+ */
+// across spaces: who the caller is, with every space where their access is on (the Ctx is made here).
+const callerRows = builtOnce('caller', (db, sessionId: string, userId: string) =>
+  db
     .selectFrom('users')
     .innerJoin('auth_sessions', (j) =>
       j
         .onRef('auth_sessions.user_id', '=', 'users.id')
-        .on('auth_sessions.id', '=', claims.sid)
+        .on('auth_sessions.id', '=', sessionId)
         .on('auth_sessions.ended_at', 'is', null)
         .on('auth_sessions.expires_at', '>', sql<Date>`now()`),
     )
@@ -64,11 +64,19 @@ export const currentCtx = cache(async (): Promise<Ctx | null> => {
       'spaces.name as spaceName',
       'memberships.roles',
     ])
-    .where('users.id', '=', claims.uid)
+    .where('users.id', '=', userId)
     .where('users.disabled_at', 'is', null)
     .where('memberships.disabled_at', 'is', null)
-    .orderBy('spaces.name')
-    .execute();
+    .orderBy('spaces.name'),
+);
+
+/** The signed-in person in their current space, or null. Cached per request; one query. */
+export const currentCtx = cache(async (): Promise<Ctx | null> => {
+  const claims = await sessionClaims();
+  if (!claims) return null;
+  // Still one query: the session must be open (not signed out, not expired), the account not switched
+  // off, and only the spaces where the person's access is on count. None left: nobody.
+  const rows = await callerRows(db, claims.sid, claims.uid);
   if (!rows.length) return null;
   const user = rows[0];
   const wanted = (await cookies()).get(SPACE_COOKIE)?.value ?? user.last_space_id;

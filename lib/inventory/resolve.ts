@@ -1,6 +1,7 @@
 import 'server-only';
 import { sql } from 'kysely';
 import type { Db } from '@/db/connect';
+import { builtOnce } from '@/db/built-once';
 import { scoped } from '@/db/scoped';
 import type { LabelKind } from '@/db/types';
 import { codeFromScan } from '@/labels/url';
@@ -41,6 +42,10 @@ export function hrefFor(
  * hottest read in the product). A label whose item is gone comes back with a null name.
  */
 function labelsWithTargets(db: Db, spaceId: string, codes: string[]) {
+  return labelsQuery(db, spaceId, codes).execute();
+}
+
+function labelsQuery(db: Db, spaceId: string, codes: string[]) {
   return scoped(db, { spaceId })
     .selectFrom('label_codes as lc')
     .leftJoin('units as u', (j) =>
@@ -73,9 +78,11 @@ function labelsWithTargets(db: Db, spaceId: string, codes: string[]) {
       sql<string | null>`coalesce(u.state, k.state)`.as('state'),
     ])
     .where('lc.space_id', '=', spaceId)
-    .where('lc.code', 'in', codes)
-    .execute();
+    .where('lc.code', 'in', codes);
 }
+
+/** The same statement for one code, built once per process (db/built-once.ts): every scan runs it. */
+const labelWithTarget = builtOnce('label_with_target', (db, spaceId: string, code: string) => labelsQuery(db, spaceId, [code]));
 
 type LabelRow = Awaited<ReturnType<typeof labelsWithTargets>>[number];
 
@@ -99,7 +106,7 @@ function toResolved(row: LabelRow & { name: string }): Resolved {
 export async function resolveCode(db: Db, ctx: Pick<Ctx, 'spaceId'>, input: string): Promise<Resolved> {
   const checked = codeFromScan(input);
   if (!checked.ok) throw new InvalidError(checked.message, { code: [checked.message] });
-  const [row] = await labelsWithTargets(db, ctx.spaceId, [checked.code]);
+  const [row] = await labelWithTarget(db, ctx.spaceId, checked.code);
   if (!row) throw new NotFoundError('No label with this code here.');
   if (row.name === null) throw new NotFoundError('This label’s item no longer exists.');
   return toResolved({ ...row, name: row.name });

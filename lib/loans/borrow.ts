@@ -1,6 +1,7 @@
 import 'server-only';
 import { sql } from 'kysely';
 import type { Db } from '@/db/connect';
+import { builtOnce } from '@/db/built-once';
 import { scoped } from '@/db/scoped';
 import { audit, auditRow } from '@/lib/audit/log';
 import { isStaff, type Ctx } from '@/lib/auth/roles';
@@ -43,6 +44,17 @@ const takeable = (table: 'kit_boxes' | 'units', borrowerId: string) =>
     select 1 from holds h where h.space_id = ${sql.ref(`${table}.space_id`)} and h.status = 'ready' and h.user_id = ${borrowerId}
       and ${table === 'kit_boxes' ? sql`h.kit_box_id` : sql`h.unit_id`} = ${sql.ref(`${table}.id`)})))`;
 
+/** The borrower's membership row, locked, with the space's lending rules. Built once per process. */
+const borrowerLock = builtOnce('borrower_lock', (db, spaceId: string, borrowerId: string) =>
+  scoped(db, { spaceId })
+    .selectFrom('memberships')
+    .innerJoin('spaces', 'spaces.id', 'memberships.space_id')
+    .select(['memberships.user_id', ...LOAN_SETTING_COLUMNS])
+    .where('memberships.space_id', '=', spaceId)
+    .where('memberships.user_id', '=', borrowerId)
+    .forUpdate('memberships'),
+);
+
 export async function borrow(db: Db, ctx: Ctx, input: BorrowInput): Promise<BorrowResult> {
   const staff = isStaff(ctx);
   const borrowerId = input.borrowerId ?? ctx.userId;
@@ -55,14 +67,7 @@ export async function borrow(db: Db, ctx: Ctx, input: BorrowInput): Promise<Borr
   return db.transaction().execute(async (trx) => {
     // One person's borrows queue behind each other, so two at once cannot both slip under the limit
     // (the lock is on the membership row only). The space's lending rules come in the same round trip.
-    const member = await scoped(trx, ctx)
-      .selectFrom('memberships')
-      .innerJoin('spaces', 'spaces.id', 'memberships.space_id')
-      .select(['memberships.user_id', ...LOAN_SETTING_COLUMNS])
-      .where('memberships.space_id', '=', ctx.spaceId)
-      .where('memberships.user_id', '=', borrowerId)
-      .forUpdate('memberships')
-      .executeTakeFirst();
+    const [member] = await borrowerLock(trx, ctx.spaceId, borrowerId);
     if (!member) throw new NotFoundError('That person is not a member of this space.');
     const settings = toLoanSettings(member);
 

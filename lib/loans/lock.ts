@@ -1,4 +1,5 @@
 import 'server-only';
+import { builtOnce } from '@/db/built-once';
 import type { Db } from '@/db/connect';
 import { scoped } from '@/db/scoped';
 import type { LoanStatus } from '@/db/types';
@@ -38,15 +39,19 @@ export async function lockOpenLoan(
   return loan;
 }
 
-export async function openLoanCount(db: Db, spaceId: string, borrowerId: string): Promise<number> {
-  const open = await scoped(db, { spaceId })
+// Built once per process (db/built-once.ts): every borrow and every borrow preview counts.
+const openLoans = builtOnce('open_loan_count', (db, spaceId: string, borrowerId: string) =>
+  scoped(db, { spaceId })
     .selectFrom('loans')
     .select((eb) => eb.fn.countAll<number>().as('n'))
     .where('space_id', '=', spaceId)
     .where('borrower_id', '=', borrowerId)
     // Waiting at the bench and back-but-unchecked still hold the member's place under the limit.
-    .where('status', 'in', ['waiting', 'out', 'back_unchecked'])
-    .executeTakeFirstOrThrow();
+    .where('status', 'in', ['waiting', 'out', 'back_unchecked']),
+);
+
+export async function openLoanCount(db: Db, spaceId: string, borrowerId: string): Promise<number> {
+  const [open] = await openLoans(db, spaceId, borrowerId);
   return open.n;
 }
 

@@ -2,8 +2,10 @@
 // the framework floor (app/api/bench-floor/**, a bare route handler in the same Next.js build) and the
 // raw floor (bench/raw-floor.ts, node:http). Both run exactly this through `pg`, so the only difference
 // between them is the HTTP stack. The statements follow what the product runs —
-// lib/inventory/resolve.ts resolveCode and lib/loans/borrow.ts borrow (counted stock, no chain) — minus
-// the sign-in lookups, input validation and space scoping the product adds around them.
+// lib/inventory/resolve.ts resolveCode and lib/loans/borrow.ts borrow (counted stock, no chain: the lock
+// with the lending rules, the part, the standing and induction reads, the open-loan count, the loan, the
+// stock and one statement for line, movement and audit row) — minus the sign-in lookups, input validation
+// and space scoping the product adds around them. A concern added to the borrow is added here too.
 import pg, { type Pool, type PoolClient } from 'pg';
 
 /** The floors' own pool: as many connections as the app's (db/connect.ts). */
@@ -67,8 +69,8 @@ class Conflict extends Error {}
 
 /**
  * The borrow of one counted item, as lib/loans/borrow.ts runs it: one transaction of lock (with the
- * space's lending rules), part, open-loan count, loan, guarded stock update, and one statement for the
- * line, the stock movement and the audit row.
+ * space's lending rules), part, standing (overdue loans), inductions the category asks for, open-loan
+ * count, loan, guarded stock update, and one statement for the line, the stock movement and the audit row.
  */
 export async function borrowCounted(
   pool: Pool,
@@ -100,12 +102,33 @@ async function borrowInTransaction(client: PoolClient, b: BorrowInput): Promise<
     )
   ).rows[0];
   const part = (
-    await client.query<{ name: string }>(
+    await client.query<{ name: string; category: string }>(
       `select parts.id, parts.name, parts.sku, parts.category, parts.specs, parts.lendable, parts.tracking, locations.name as location_name
        from parts inner join locations on locations.id = $1 where parts.id = $2`,
       [b.locationId, b.partId],
     )
   ).rows[0];
+  const at = new Date();
+  // Standing: the borrower's overdue loans (lib/rules/standing.ts), read under the borrower's lock.
+  const late = await client.query(
+    `select loans.id, loans.due_at, kit_boxes.name as box,
+            (select string_agg(p.name, ', ' order by p.name) from loan_lines ll
+               join parts p on p.space_id = ll.space_id and p.id = ll.part_id
+              where ll.space_id = loans.space_id and ll.loan_id = loans.id) as parts
+       from loans left join kit_boxes on kit_boxes.id = loans.kit_box_id
+      where loans.space_id = $1 and loans.borrower_id = $2 and loans.status = 'out' and loans.due_at < $3
+      order by loans.due_at`,
+    [b.spaceId, b.borrowerId, at],
+  );
+  if (late.rowCount) throw new Conflict('overdue');
+  // The induction gate: what the part's category asks for (lib/inductions/gate.ts).
+  const needed = await client.query(
+    `select i.id, i.name, c.category from category_inductions c
+       inner join inductions i on i.id = c.induction_id and i.space_id = c.space_id
+      where c.space_id = $1 and c.category in ($2) and i.archived_at is null`,
+    [b.spaceId, part?.category ?? ''],
+  );
+  if (needed.rowCount) throw new Conflict('induction needed');
   const open = (
     await client.query<{ n: string }>(
       `select count(*) as n from loans where space_id = $1 and borrower_id = $2 and status = 'out'`,
@@ -113,7 +136,6 @@ async function borrowInTransaction(client: PoolClient, b: BorrowInput): Promise<
     )
   ).rows[0];
   if (Number(open.n) >= settings.max_open_loans) throw new Conflict('open-loan limit');
-  const at = new Date();
   const due = new Date(at.getTime() + settings.loan_days * 86_400_000);
   const loan = (
     await client.query<{ id: string }>(
