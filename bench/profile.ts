@@ -291,6 +291,12 @@ async function main() {
     method: 'POST',
     request: (i) => ({ path: '/api/loans', headers: { cookie: cookies[i % cookies.length], origin }, body: { counted: [{ ...item(i), qty: 1 }] } }),
   }));
+  await profileCase('The framework floor of that borrow (POST /api/bench-floor/loans)', 'profile-borrow-floor.cpuprofile', (origin) => ({
+    label: 'floor',
+    origin,
+    method: 'POST',
+    request: (i) => ({ path: '/api/bench-floor/loans', body: { spaceId: fixture.spaceId, borrowerId: fixture.members[i % 30].id, ...item(i) } }),
+  }));
   writeFileSync(path.join(OUT, 'profile.md'), `${report.join('\n')}\n`);
   console.log(`\nsummary written to bench/out/profile.md; the .cpuprofile files beside it`);
 }

@@ -42,21 +42,22 @@ const mark = (i: number) => `\u0000ohm-value-${i}\u0000`;
 
 export class BuiltOnceError extends Error {}
 
-export function builtOnce<V extends string[], R>(name: string, build: (db: Kysely<Database>, ...values: V) => Compilable<R>) {
+export function builtOnce<V extends unknown[], R>(name: string, build: (db: Kysely<Database>, ...values: V) => Compilable<R>) {
   let made: { sql: string; from: (number | { constant: unknown })[] } | undefined;
 
   const make = (count: number) => {
-    const marks = Array.from({ length: count }, (_, i) => mark(i)) as V;
+    // Markers are strings whatever the values' types: the builder only passes them on as parameters.
+    const marks = Array.from({ length: count }, (_, i) => mark(i)) as unknown as V;
     const compiled = build(cold, ...marks).compile();
     if (compiled.sql.includes('\u0000')) throw new BuiltOnceError(`${name}: a value reached the SQL text instead of a parameter`);
     const from = compiled.parameters.map((p) => {
-      const at = marks.indexOf(p as string);
+      const at = (marks as unknown[]).indexOf(p);
       if (at >= 0) return at;
       if (!['string', 'number', 'boolean'].includes(typeof p))
         throw new BuiltOnceError(`${name}: parameter ${String(p)} is neither a marker nor a plain constant`);
       return { constant: p };
     });
-    const unused = marks.findIndex((m) => !compiled.parameters.includes(m));
+    const unused = (marks as unknown[]).findIndex((m) => !compiled.parameters.includes(m));
     if (unused >= 0) throw new BuiltOnceError(`${name}: value ${unused + 1} does not reach the query as a parameter`);
     const hash = createHash('sha256').update(compiled.sql).digest('hex').slice(0, 12);
     named.set(compiled.sql, `ohm_${name}_${hash}`);

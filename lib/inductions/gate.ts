@@ -1,4 +1,5 @@
 import 'server-only';
+import { builtOnce } from '@/db/built-once';
 import { scoped } from '@/db/scoped';
 import { sql } from 'kysely';
 import type { Db } from '@/db/connect';
@@ -18,6 +19,20 @@ export type MissingInduction = {
   /** When the borrower's last sign-off ran out, if it did. */
   expiredAt: Date | null;
 };
+
+/**
+ * The inductions these part categories ask for. Built once per process (every borrow and preview reads
+ * it): the categories go as one array parameter, so one statement serves any number of them.
+ */
+const categoryInductions = builtOnce('category_inductions', (db, spaceId: string, categories: PartCategory[]) =>
+  scoped(db, { spaceId })
+    .selectFrom('category_inductions as c')
+    .innerJoin('inductions as i', (j) => j.onRef('i.id', '=', 'c.induction_id').onRef('i.space_id', '=', 'c.space_id'))
+    .select(['i.id', 'i.name', 'c.category'])
+    .where('c.space_id', '=', spaceId)
+    .where('c.category', '=', sql<PartCategory>`any(${categories})`)
+    .where('i.archived_at', 'is', null),
+);
 
 export async function missingInductions(
   db: Db,
@@ -44,18 +59,7 @@ export async function missingInductions(
           .where('i.archived_at', 'is', null)
           .execute()
       : [],
-    categories.length
-      ? scoped(db, { spaceId })
-          .selectFrom('category_inductions as c')
-          .innerJoin('inductions as i', (j) =>
-            j.onRef('i.id', '=', 'c.induction_id').onRef('i.space_id', '=', 'c.space_id'),
-          )
-          .select(['i.id', 'i.name', 'c.category'])
-          .where('c.space_id', '=', spaceId)
-          .where('c.category', 'in', categories)
-          .where('i.archived_at', 'is', null)
-          .execute()
-      : [],
+    categories.length ? categoryInductions(db, spaceId, categories) : [],
   ]);
   if (!byTemplate.length && !byCategory.length) return [];
 

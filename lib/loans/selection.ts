@@ -1,6 +1,7 @@
 import 'server-only';
 import { sql } from 'kysely';
 import type { Db } from '@/db/connect';
+import { builtOnce } from '@/db/built-once';
 import { scoped } from '@/db/scoped';
 import type { ChainRole, PartCategory, UnitState } from '@/db/types';
 import { ConflictError, InvalidError, NotFoundError } from '@/lib/errors';
@@ -107,6 +108,16 @@ function looseLine(
 }
 
 /** Loose units and counted stock, each checked to belong to the space and to be lendable. */
+/** A counted line's part and bin, in the space. Built once per process: every loose borrow reads it. */
+const countedLine = builtOnce('counted_line', (db, spaceId: string, partId: string, locationId: string) =>
+  scoped(db, { spaceId })
+    .selectFrom('parts')
+    .innerJoin('locations', (j) => j.on('locations.id', '=', locationId).on('locations.space_id', '=', spaceId))
+    .select(['parts.id as partId', ...PART_COLUMNS, 'locations.name as locationName'])
+    .where('parts.id', '=', partId)
+    .where('parts.space_id', '=', spaceId),
+);
+
 export async function looseLines(
   db: Db,
   spaceId: string,
@@ -150,15 +161,7 @@ export async function looseLines(
     });
   }
   for (const [i, c] of sel.counted.entries()) {
-    const row = await scoped(db, { spaceId })
-      .selectFrom('parts')
-      .innerJoin('locations', (j) =>
-        j.on('locations.id', '=', c.locationId).on('locations.space_id', '=', spaceId),
-      )
-      .select(['parts.id as partId', ...PART_COLUMNS, 'locations.name as locationName'])
-      .where('parts.id', '=', c.partId)
-      .where('parts.space_id', '=', spaceId)
-      .executeTakeFirst();
+    const [row] = await countedLine(db, spaceId, c.partId, c.locationId);
     if (!row) throw new NotFoundError(`Counted line ${i + 1}: no such part or bin in this space.`);
     if (row.tracking !== 'counted')
       throw new InvalidError(`${row.name} has labelled units; scan the unit instead.`, {

@@ -1,4 +1,5 @@
 import 'server-only';
+import { builtOnce } from '@/db/built-once';
 import { scoped } from '@/db/scoped';
 import { sql } from 'kysely';
 import type { Db } from '@/db/connect';
@@ -47,16 +48,9 @@ async function owingRefusal(
   };
 }
 
-async function overdueRefusal(
-  db: Db,
-  spaceId: string,
-  borrowerId: string,
-  rules: BorrowingRules,
-  at: Date,
-  opts: { self: boolean; timeZone: string },
-): Promise<StandingRefusal | null> {
-  if (!rules.refuseWhileOverdue) return null;
-  const late = await scoped(db, { spaceId })
+/** The borrower's loans past due at `at`, with what each holds. Built once per process (every borrow reads it). */
+const overdueLoans = builtOnce('overdue_loans', (db, spaceId: string, borrowerId: string, at: Date) =>
+  scoped(db, { spaceId })
     .selectFrom('loans')
     .leftJoin('kit_boxes', 'kit_boxes.id', 'loans.kit_box_id')
     .select([
@@ -71,8 +65,19 @@ async function overdueRefusal(
     .where('loans.borrower_id', '=', borrowerId)
     .where('loans.status', '=', 'out')
     .where('loans.due_at', '<', at)
-    .orderBy('loans.due_at')
-    .execute();
+    .orderBy('loans.due_at'),
+);
+
+async function overdueRefusal(
+  db: Db,
+  spaceId: string,
+  borrowerId: string,
+  rules: BorrowingRules,
+  at: Date,
+  opts: { self: boolean; timeZone: string },
+): Promise<StandingRefusal | null> {
+  if (!rules.refuseWhileOverdue) return null;
+  const late = await overdueLoans(db, spaceId, borrowerId, at);
   if (!late.length) return null;
   const items = late.map((l) => `${l.box ?? l.parts ?? 'a loan'} (due ${formatDateTime(l.due_at, opts.timeZone)})`);
   const subject = opts.self ? 'You have' : 'This member has';

@@ -53,6 +53,22 @@ describe('builtOnce', () => {
     expect(preparedNameOf(sent[0].sql)).toMatch(/^ohm_test_labels_[0-9a-f]{12}$/);
   });
 
+  test('an array value travels as one parameter (col = any($n)), whatever its length', async () => {
+    const run = builtOnce('test_any', (db, spaceId: string, categories: string[]) =>
+      scoped(db, { spaceId })
+        .selectFrom('category_inductions as c')
+        .select('c.induction_id')
+        .where('c.category', '=', sql<'led'>`any(${categories})`),
+    );
+    const { sent, runner } = recorder();
+    await run(runner, A, ['led', 'driver']);
+    await run(runner, A, ['supply']);
+    expect(sent[0].sql).toBe(sent[1].sql);
+    expect(sent[0].sql).toContain('= any($1)');
+    expect(sent[0].parameters).toEqual([['led', 'driver'], A]);
+    expect(sent[1].parameters).toEqual([['supply'], A]);
+  });
+
   test('a value that would become SQL text is refused', async () => {
     const run = builtOnce('test_raw', (db, table: string) => db.selectFrom('parts').select(sql.raw<string>(table).as('x')));
     await expect(run(recorder().runner, 'name')).rejects.toThrow(BuiltOnceError);
