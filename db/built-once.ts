@@ -24,7 +24,7 @@ import type { Database } from './types';
 // parameter (a constant such as kind = 'unit') must be a plain string, number or boolean.
 
 /** A builder for compiling only: it has no connection and throws if asked to run anything. */
-const cold = new Kysely<Database>({
+export const compileOnly = new Kysely<Database>({
   dialect: {
     createAdapter: () => new PostgresAdapter(),
     createDriver: () => new DummyDriver(),
@@ -48,7 +48,7 @@ export function builtOnce<V extends unknown[], R>(name: string, build: (db: Kyse
   const make = (count: number) => {
     // Markers are strings whatever the values' types: the builder only passes them on as parameters.
     const marks = Array.from({ length: count }, (_, i) => mark(i)) as unknown as V;
-    const compiled = build(cold, ...marks).compile();
+    const compiled = build(compileOnly, ...marks).compile();
     if (compiled.sql.includes('\u0000')) throw new BuiltOnceError(`${name}: a value reached the SQL text instead of a parameter`);
     const from = compiled.parameters.map((p) => {
       const at = (marks as unknown[]).indexOf(p);

@@ -69,12 +69,7 @@ const overdueLoans = builtOnce('overdue_loans', (db, spaceId: string, borrowerId
 );
 
 async function overdueRefusal(
-  db: Db,
-  spaceId: string,
-  borrowerId: string,
-  rules: BorrowingRules,
-  at: Date,
-  opts: { self: boolean; timeZone: string },
+  ...[db, spaceId, borrowerId, rules, at, opts]: Parameters<typeof standingRefusal>
 ): Promise<StandingRefusal | null> {
   if (!rules.refuseWhileOverdue) return null;
   const late = await overdueLoans(db, spaceId, borrowerId, at);

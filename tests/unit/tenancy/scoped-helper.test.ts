@@ -1,19 +1,13 @@
 import { describe, expect, test } from 'vitest';
-import { DummyDriver, Kysely, PostgresAdapter, PostgresIntrospector, PostgresQueryCompiler, sql } from 'kysely';
-import type { Database } from '@/db/types';
+import { sql } from 'kysely';
+import { compileOnly } from '@/db/built-once';
 import { scoped, SpaceScopeError } from '@/db/scoped';
 
 // The SQL scoped() writes, compiled without a database: every space-owned table in a query gets
 // `space_id = <the caller's space>`, whatever the query forgot.
 
-const raw = new Kysely<Database>({
-  dialect: {
-    createAdapter: () => new PostgresAdapter(),
-    createDriver: () => new DummyDriver(),
-    createIntrospector: (db) => new PostgresIntrospector(db),
-    createQueryCompiler: () => new PostgresQueryCompiler(),
-  },
-});
+// The app's compile-only builder (no connection): the SQL is what the app would send.
+const raw = compileOnly;
 const SPACE = '11111111-1111-4111-8111-111111111111';
 const db = scoped(raw, { spaceId: SPACE });
 
