@@ -3,6 +3,7 @@ import { describe, expect, it } from 'vitest';
 import {
   type DriverSpec,
   checkKit,
+  checkMargin,
   type RankQuery,
   type ShelfDriver,
   type ShelfSupply,
@@ -276,6 +277,34 @@ describe('the narrowed search answers exactly as the naive loop (seeded, on the 
       expect(fast.candidates.map((c) => `${c.supplyId}+${c.driverId}`)).toEqual(
         ['s-a+d-x', 's-a+d-y', 's-a+d-z', 's-b+d-x', 's-b+d-y', 's-b+d-z', 's-c+d-x'].slice(0, limit),
       );
+    }
+  });
+
+  it('twins whose smallest margin is a check the supply does not touch (LED power): a driver bound a hair short would drop the smaller ids', () => {
+    // The LED power per LED is V_f,max × I_peak (the buck's set current plus half its ripple), whatever the
+    // supply: P = V × I. Rated 3 % above it, that margin (0.03) is the smallest of every check, and the
+    // search bounds each driver by it before it knows the supply. A generous supply keeps the supply's own
+    // checks far away.
+    const probe = checkKit({ supply: { volts: 36, tolerancePct: 0, maxAmps: 10 }, driver: buck, string, heatSink });
+    const watts = probe.checks.find((c) => c.id === 'led-power')!.value;
+    const led = { ...string.led, maxWatts: watts / 0.97 };
+    const tight: StringSpec = { ...string, led };
+    const supplies: ShelfSupply[] = ['s-d', 's-a', 's-c', 's-b'].map((id) => ({ id, supply: { volts: 36, tolerancePct: 0, maxAmps: 10 } }));
+    for (const order of [['d-z', 'd-x', 'd-y'], ['d-x', 'd-y', 'd-z'], ['d-y', 'd-z', 'd-x']]) {
+      const drivers: ShelfDriver[] = order.map((id) => ({ id, driver: buck }));
+      for (const limit of [1, 2, 4, 7]) {
+        const q: RankQuery = { string: tight, supplies, drivers, limit, heatSink };
+        const fast = rankCandidates(q);
+        expect(fast.candidates).toEqual(rankCandidatesNaive(q).candidates);
+        const best = fast.candidates[0];
+        expect(best.report.checks.find((c) => c.id === 'led-power')!.value / led.maxWatts).toBeCloseTo(0.97, 12);
+        expect(best.margin).toBeCloseTo(0.03, 12);
+        // LED power is the check that binds: every other check has more room.
+        for (const c of best.report.checks) if (c.id !== 'led-power') expect(checkMargin(c), c.id).toBeGreaterThan(0.03);
+        expect(fast.candidates.map((c) => `${c.supplyId}+${c.driverId}`)).toEqual(
+          ['s-a+d-x', 's-a+d-y', 's-a+d-z', 's-b+d-x', 's-b+d-y', 's-b+d-z', 's-c+d-x'].slice(0, limit),
+        );
+      }
     }
   });
 
