@@ -15,6 +15,7 @@ import os from 'node:os';
 import path from 'node:path';
 import { fileURLToPath } from 'node:url';
 import pg from 'pg';
+import { closeBenchLoans as closeBench, signInCookie } from './bench-session';
 import type { Fixture } from './data';
 import { load, warm, type Target } from './load';
 
@@ -219,19 +220,10 @@ function printSummary(name: string, served: number, s: Summary) {
 
 // ---- the cases
 
-async function signIn(origin: string, email: string): Promise<string> {
-  process.env.TEST_BASE_URL = origin;
-  const { HttpSession } = await import('../tests/helpers/http');
-  const s = new HttpSession(origin);
-  await s.signIn(email, fixture.password);
-  if (!(await s.isSignedIn())) throw new Error(`profile: sign-in failed for ${email}`);
-  return s.cookieHeader();
-}
-
 async function closeBenchLoans() {
   const pool = new pg.Pool({ connectionString: process.env.DATABASE_URL, max: 1 });
   try {
-    await pool.query(`update loans set status = 'returned', returned_at = now() where space_id = $1 and status = 'out'`, [fixture.spaceId]);
+    await closeBench(pool, fixture.spaceId);
   } finally {
     await pool.end();
   }
@@ -245,7 +237,7 @@ async function profileCase(name: string, file: string, target: (origin: string, 
   try {
     const cookies: string[] = [];
     // Borrows spread over 30 members, each far under the open-loan limit in 10 s.
-    for (const m of fixture.members.slice(0, 30)) cookies.push(await signIn(server.origin, m.email));
+    for (const m of fixture.members.slice(0, 30)) cookies.push(await signInCookie(server.origin, m.email, fixture.password));
     const t = target(server.origin, cookies);
     await closeBenchLoans();
     await warm(t, 2);

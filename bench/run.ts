@@ -9,6 +9,7 @@ import { mkdirSync, readFileSync, writeFileSync } from 'node:fs';
 import os from 'node:os';
 import path from 'node:path';
 import pg from 'pg';
+import { closeBenchLoans as closeBench, signInCookie } from './bench-session';
 import type { Fixture } from './data';
 import { firstLoadFromHtml, firstLoadFromManifests, frameworkFloor, type JsSize } from './first-load-js';
 import { load, warm, type Figures, type Target } from './load';
@@ -33,14 +34,7 @@ const say = (line = '') => {
 const verdict = (ok: boolean) => (ok ? 'met' : 'MISSED');
 
 type Session = { cookie: string };
-async function signIn(email: string): Promise<Session> {
-  process.env.TEST_BASE_URL = APP;
-  const { HttpSession } = await import('../tests/helpers/http');
-  const s = new HttpSession();
-  await s.signIn(email, fixture.password);
-  if (!(await s.isSignedIn())) throw new Error(`bench sign-in failed for ${email}`);
-  return { cookie: s.cookieHeader() };
-}
+const signIn = async (email: string): Promise<Session> => ({ cookie: await signInCookie(APP, email, fixture.password) });
 
 /** Signs the members in, four at a time (each costs a password-hash comparison on the server). */
 async function signInAll(emails: string[]): Promise<Session[]> {
@@ -209,10 +203,7 @@ function targetTable(rounds: Round[], compareTo?: Ratios): Ratios {
   return out;
 }
 
-/** Marks every open loan of the bench space returned, so each run starts under the open-loan limit. */
-async function closeBenchLoans() {
-  await pool.query(`update loans set status = 'returned', returned_at = now() where space_id = $1 and status = 'out'`, [fixture.spaceId]);
-}
+const closeBenchLoans = () => closeBench(pool, fixture.spaceId);
 
 async function scanJsCase(member: Session | null) {
   say('## Scan page first-load JavaScript');

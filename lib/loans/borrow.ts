@@ -55,54 +55,6 @@ const borrowerLock = builtOnce('borrower_lock', (db, spaceId: string, borrowerId
     .forUpdate('memberships'),
 );
 
-/** The loan row. Built once per process, every value a parameter (the conditions are decided by the caller). */
-const insertLoan = builtOnce(
-  'loan_insert',
-  (
-    db,
-    spaceId: string,
-    borrowerId: string,
-    lentById: string,
-    kitBoxId: string | null,
-    status: 'waiting' | 'out',
-    at: Date,
-    dueAt: Date,
-    handedOverBy: string | null,
-    handedOverAt: Date | null,
-    verdict: 'ok' | 'caution' | 'fail' | null,
-    report: string,
-    cautionAcknowledged: boolean,
-    overrideReason: string | null,
-    overrideBy: string | null,
-    inductionOverrideReason: string | null,
-    inductionOverrideBy: string | null,
-    ownParts: string | null,
-  ) =>
-    scoped(db, { spaceId })
-      .insertInto('loans')
-      .values({
-        space_id: spaceId,
-        borrower_id: borrowerId,
-        lent_by_id: lentById,
-        kit_box_id: kitBoxId,
-        status,
-        out_at: at,
-        handed_over_by: handedOverBy,
-        handed_over_at: handedOverAt,
-        due_at: dueAt,
-        check_verdict: verdict,
-        check_report: report,
-        caution_acknowledged: cautionAcknowledged,
-        override_reason: overrideReason,
-        override_by: overrideBy,
-        induction_override_reason: inductionOverrideReason,
-        induction_override_by: inductionOverrideBy,
-        own_parts: ownParts,
-        created_at: at,
-      })
-      .returning('id'),
-);
-
 /** Counted stock leaving its bin, guarded: no row back means the bin holds less than asked. Built once. */
 const takeCounted = builtOnce('stock_take', (db, spaceId: string, partId: string, locationId: string, qty: number, at: Date) =>
   scoped(db, { spaceId })
@@ -255,26 +207,30 @@ export async function borrow(db: Db, ctx: Ctx, input: BorrowInput): Promise<Borr
       : categoryDeposit(settings.rules.categoryDepositsMinor, lines.map((l) => l.category));
     const status = depositMinor ? ('waiting' as const) : startsAs;
     const overridden = gate === 'blocked';
-    const [loan] = await insertLoan(
-      trx,
-      ctx.spaceId,
-      borrowerId,
-      ctx.userId,
-      boxId,
-      status,
-      at,
-      dueAt,
-      status === 'out' && staff ? ctx.userId : null,
-      status === 'out' && staff ? at : null,
-      outcome.verdict,
-      JSON.stringify(storedReport(outcome)),
-      gate === 'acknowledge',
-      overridden ? input.overrides.check!.reason : null,
-      overridden ? ctx.userId : null,
-      inductionOverride,
-      inductionOverride ? ctx.userId : null,
-      input.ownParts ? JSON.stringify(input.ownParts) : null,
-    );
+    const loan = await scoped(trx, ctx)
+      .insertInto('loans')
+      .values({
+        space_id: ctx.spaceId,
+        borrower_id: borrowerId,
+        lent_by_id: ctx.userId,
+        kit_box_id: boxId,
+        status,
+        out_at: at,
+        handed_over_by: status === 'out' && staff ? ctx.userId : null,
+        handed_over_at: status === 'out' && staff ? at : null,
+        due_at: dueAt,
+        check_verdict: outcome.verdict,
+        check_report: JSON.stringify(storedReport(outcome)),
+        caution_acknowledged: gate === 'acknowledge',
+        override_reason: overridden ? input.overrides.check!.reason : null,
+        override_by: overridden ? ctx.userId : null,
+        induction_override_reason: inductionOverride,
+        induction_override_by: inductionOverride ? ctx.userId : null,
+        own_parts: input.ownParts ? JSON.stringify(input.ownParts) : null,
+        created_at: at,
+      })
+      .returning('id')
+      .executeTakeFirstOrThrow();
     const deposit = depositMinor ? await recordDeposit(trx, ctx, { id: loan.id, amountMinor: depositMinor, startsAs }) : null;
 
     // Counted stock leaves its bin: guarded updates in a fixed order (no deadlock between two loans).
